@@ -1,0 +1,50 @@
+/**
+ * A map as the user wrote it, and the compiled form every other layer uses.
+ * The definition keeps every formula and parameter as source text: that text is what a
+ * certificate records and what the independent checker re-reads.
+ */
+import type { Arithmetic } from '../interval/arithmetic.js';
+
+/** An exact parameter value: a decimal literal, or a closed interval of two decimal literals. */
+export type ParamValue =
+  | { kind: 'exact'; value: string }
+  | { kind: 'interval'; lo: string; hi: string };
+
+export interface MapDefinition {
+  title: string;
+  /** State variable names, in vector order. */
+  state: string[];
+  /** Parameter name → exact value, as decimal source text (never via a double). */
+  params: Record<string, ParamValue>;
+  /** State variable → formula source text of its next value. */
+  step: Record<string, string>;
+  /** State variable → [lo, hi] decimal strings: where searches and counts look. */
+  region: Record<string, [string, string]>;
+  /** Where it came from: a file path, or `catalogue:NAME`. */
+  origin?: string;
+  /** Free text (scenario, source of the formula). */
+  description?: string;
+}
+
+/** Evaluation of the map over one arithmetic; reusable, not thread-safe. */
+export interface MapEvaluator<T> {
+  /** out[i] = f_i(x) for the state vector x (length n). */
+  image(x: readonly T[], out: T[]): void;
+  /**
+   * out = f(x) and jac[i*n + j] enclosing ∂f_i/∂x_j over the whole box x (forward-mode
+   * differentiation; for abs/min/max a slope enclosure, DESIGN.md §4).
+   */
+  imageAndJacobian(x: readonly T[], out: T[], jac: T[]): void;
+}
+
+export interface CompiledMap {
+  readonly definition: MapDefinition;
+  /** State dimension n. */
+  readonly dim: number;
+  /** @heuristic float image, parameters at the double nearest their midpoint. */
+  evalFloat(x: ArrayLike<number>, out: Float64Array): void;
+  /** @heuristic float Jacobian, row-major n×n. */
+  jacobianFloat(x: ArrayLike<number>, out: Float64Array): void;
+  /** Evaluator over any arithmetic; parameters enclosed exactly by `arith.constant`. */
+  evaluator<T>(arith: Arithmetic<T>): MapEvaluator<T>;
+}
