@@ -1,0 +1,89 @@
+/**
+ * Certificate v1 types, exactly as docs/certificate-format.md describes them.
+ *
+ * This file is import-free on purpose: the independent checker may import these types and
+ * nothing else from the prover side (DESIGN.md §2).
+ *
+ * Every number is a decimal string (never a JSON number); an interval is `[lo, hi]`.
+ */
+
+/** A decimal literal such as "3.83", "-0.125", "1.0000000000000002e-3". */
+export type DecimalString = string;
+
+/** A closed interval `[lo, hi]` of decimal strings, lo <= hi. */
+export type DecimalInterval = [DecimalString, DecimalString];
+
+/** A parameter as written in the certificate: an exact decimal, or an interval. */
+export type CertificateParam = DecimalString | DecimalInterval;
+
+export const CERTIFICATE_FORMAT = 'orbitseal-certificate';
+export const CERTIFICATE_FORMAT_VERSION = 1;
+export const CERTIFICATE_KIND_PERIODIC_ORBIT = 'periodic-orbit';
+
+export type StabilityClass = 'attracting' | 'repelling' | 'saddle' | 'undecided';
+
+export interface CertificateMap {
+  title: string;
+  /** Variable order = vector order. */
+  state: string[];
+  params: Record<string, CertificateParam>;
+  /** State variable → formula source text (map language). */
+  step: Record<string, string>;
+}
+
+export interface CertificateOrbit {
+  /** p points, each n decimal strings: the Krawczyk point m (must lie in `boxes`). */
+  centre: DecimalString[][];
+  /** The existence box X: p × n intervals. */
+  boxes: DecimalInterval[][];
+}
+
+export interface CertificateStability {
+  class: StabilityClass;
+  /** n = 1: enclosure of the multiplier Λ = Π f'(X_i). */
+  multiplier?: DecimalInterval;
+  /** n >= 2: enclosure of the trace of the monodromy matrix. */
+  trace?: DecimalInterval;
+  /** n >= 2: enclosure of the determinant of the monodromy matrix. */
+  determinant?: DecimalInterval;
+  /** n >= 2: enclosures of the eigenvalue moduli (sorted ascending when real). */
+  eigenvalueModuli?: DecimalInterval[];
+}
+
+export interface CertificateClaims {
+  /** K(X) ⊂ int X ⇒ exactly one zero of the shooting system in X. */
+  existence: true;
+  /** Y = centre ± radius: K(Y) ⊂ int Y and X ⊂ Y; null when not claimed. */
+  uniqueness: { radius: DecimalString } | null;
+  /** Equal to `period` when claimed (boxes pairwise disjoint); null when not claimed. */
+  minimalPeriod: number | null;
+  stability: CertificateStability;
+}
+
+export interface CertificateHints {
+  bits?: number;
+  digits?: number;
+}
+
+export interface CertificateProducer {
+  name: string;
+  version: string;
+}
+
+/** A complete certificate document (version 1). */
+export interface CertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-orbit';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  orbit: CertificateOrbit;
+  claims: CertificateClaims;
+  hints?: CertificateHints;
+  /** SHA-256 (hex) of the canonical JSON of this document without the "sha256" key. */
+  sha256: string;
+}
+
+/** The document before its hash is attached. */
+export type UnsignedCertificateV1 = Omit<CertificateV1, 'sha256'>;

@@ -1,0 +1,144 @@
+/**
+ * Writing certificates: atomic (temp file in the same folder, fsync, then link/rename) and never
+ * overwriting an existing file unless `force`.
+ */
+import { randomBytes } from 'node:crypto';
+import {
+  closeSync,
+  existsSync,
+  fsyncSync,
+  linkSync,
+  mkdirSync,
+  openSync,
+  renameSync,
+  unlinkSync,
+  writeSync,
+} from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
+import type { CertificateV1 } from './types.js';
+
+export type CertificateWriteErrorCode = 'CERT_EXISTS' | 'CERT_WRITE_FAILED';
+
+/** A user-facing write problem (exit 2): where, what, and how to fix it. */
+export class CertificateWriteError extends Error {
+  override readonly name = 'CertificateWriteError';
+  constructor(
+    readonly code: CertificateWriteErrorCode,
+    readonly path: string,
+    message: string,
+    readonly hint: string,
+  ) {
+    super(message);
+  }
+  render(): string {
+    return `error ${this.code}: ${this.path}: ${this.message}\n  hint: ${this.hint}`;
+  }
+}
+
+/** "Hénon map (classic)" → "henon-map-classic"; at most 48 characters; never empty. */
+export function mapSlug(title: string): string {
+  const slug = title
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 48)
+    .replace(/-+$/g, '');
+  return slug === '' ? 'map' : slug;
+}
+
+/** `<map-slug>-p<period>-<k>.json`, k >= 1 numbering the orbits of one run. */
+export function certificateFileName(title: string, period: number, k: number): string {
+  return `${mapSlug(title)}-p${period}-${k}.json`;
+}
+
+/** The bytes written for a certificate: pretty JSON (2 spaces) and a final newline. */
+export function serializeCertificate(cert: CertificateV1): string {
+  return JSON.stringify(cert, null, 2) + '\n';
+}
+
+export interface WriteOptions {
+  /** Replace an existing file (default false: refuse with CERT_EXISTS). */
+  force?: boolean;
+}
+
+function fsyncDir(dir: string): void {
+  try {
+    const fd = openSync(dir, 'r');
+    try {
+      fsyncSync(fd);
+    } finally {
+      closeSync(fd);
+    }
+  } catch {
+    // some platforms cannot fsync a directory; the data itself is already synced
+  }
+}
+
+/**
+ * Write `text` to `path` atomically: a reader sees either no file / the old file, or the whole new
+ * file. Without `force` an existing file is never replaced (hard link, which fails on EEXIST,
+ * so there is no check-then-write race; falls back to check + rename where links are not
+ * supported). Creates the folder if needed. Returns the absolute path.
+ */
+export function writeFileAtomic(path: string, text: string, opts: WriteOptions = {}): string {
+  const target = resolve(path);
+  const dir = dirname(target);
+  const existsError = () =>
+    new CertificateWriteError(
+      'CERT_EXISTS',
+      target,
+      'file already exists; not overwritten',
+      'pass --force to replace it, or choose another folder with --out',
+    );
+  if (!opts.force && existsSync(target)) throw existsError();
+  const tmp = join(dir, `.${basename(target)}.${process.pid}.${randomBytes(6).toString('hex')}.tmp`);
+  try {
+    mkdirSync(dir, { recursive: true });
+    const fd = openSync(tmp, 'wx', 0o644);
+    try {
+      const buf = Buffer.from(text, 'utf8');
+      let off = 0;
+      while (off < buf.length) off += writeSync(fd, buf, off, buf.length - off);
+      fsyncSync(fd);
+    } finally {
+      closeSync(fd);
+    }
+    if (opts.force) {
+      renameSync(tmp, target);
+    } else {
+      try {
+        linkSync(tmp, target);
+        unlinkSync(tmp);
+      } catch (e) {
+        const code = (e as NodeJS.ErrnoException).code;
+        if (code === 'EEXIST') throw existsError();
+        if (code !== 'EPERM' && code !== 'ENOTSUP' && code !== 'EOPNOTSUPP' && code !== 'EXDEV') throw e;
+        if (existsSync(target)) throw existsError();
+        renameSync(tmp, target);
+      }
+    }
+    fsyncDir(dir);
+    return target;
+  } catch (e) {
+    try {
+      unlinkSync(tmp);
+    } catch {
+      // already renamed or never created
+    }
+    if (e instanceof CertificateWriteError) throw e;
+    const err = e as NodeJS.ErrnoException;
+    throw new CertificateWriteError(
+      'CERT_WRITE_FAILED',
+      target,
+      `cannot write file (${err.code ?? 'error'}: ${err.message})`,
+      'check that the folder exists or can be created and is writable, or choose another with --out',
+    );
+  }
+}
+
+/** Write one certificate atomically; see writeFileAtomic. */
+export function writeCertificate(path: string, cert: CertificateV1, opts: WriteOptions = {}): string {
+  return writeFileAtomic(path, serializeCertificate(cert), opts);
+}

@@ -1,0 +1,54 @@
+import { existsSync } from 'node:fs';
+import { relative, resolve } from 'node:path';
+import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
+import { table } from '../format.js';
+import { parseBoundedInt } from '../options.js';
+import * as lib from '../library.js';
+import type { CheckReportLike } from '../library.js';
+
+export interface CheckCommandOptions {
+  digits?: string;
+  json?: boolean;
+}
+
+export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+  if (paths.length === 0) {
+    throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
+  }
+  const digits = o.digits !== undefined ? parseBoundedInt(o.digits, '--digits', 'bad-digits', 10, 100_000) : undefined;
+  const absolute = paths.map((p) => resolve(cwd, p));
+  absolute.forEach((p, i) => {
+    if (!existsSync(p)) {
+      throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
+    }
+  });
+  const checker = await lib.checker();
+  const reports = await checker.checkPaths(absolute, digits ? { digits } : {});
+  if (reports.length === 0) {
+    throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
+  }
+  const exitCode: ExitCode = reports.every((r) => r.verdict === 'VERIFIED') ? EXIT_OK : EXIT_NOT_PROVEN;
+  if (o.json) {
+    return { stdout: JSON.stringify({ reports, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+  }
+  return { stdout: renderCheck(reports, cwd) + '\n', stderr: '', exitCode };
+}
+
+/** Pure renderer: one row per certificate, then a count line. */
+export function renderCheck(reports: readonly CheckReportLike[], cwd: string): string {
+  const rows = reports.map((r) => {
+    const file = r.file ? relative(cwd, r.file) || r.file : '(input)';
+    const detail =
+      r.verdict === 'VERIFIED'
+        ? `re-verified: ${r.claimsVerified.join(', ')}`
+        : `${r.path ? r.path + ': ' : ''}${r.reason ?? 'no reason given'}`;
+    const timing = r.elapsedMs !== undefined ? `${Math.round(r.elapsedMs)} ms` : '';
+    return [r.verdict, file.startsWith('..') ? r.file ?? file : file, detail, timing];
+  });
+  const n = (v: CheckReportLike['verdict']) => reports.filter((r) => r.verdict === v).length;
+  return [
+    table(['verdict', 'certificate', 'detail', 'time'], rows),
+    '',
+    `${n('VERIFIED')} verified, ${n('REJECTED')} rejected, ${n('UNREADABLE')} unreadable (independent checker, decimal interval arithmetic)`,
+  ].join('\n');
+}

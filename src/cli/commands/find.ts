@@ -1,0 +1,72 @@
+import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
+import { table } from '../format.js';
+import { parseNear, parsePeriod } from '../options.js';
+import * as lib from '../library.js';
+import type { CandidateLike } from '../library.js';
+import { loadMap, paramsLine } from './common.js';
+
+export interface FindCommandOptions {
+  period: string;
+  near?: string;
+  json?: boolean;
+  param?: string[];
+}
+
+export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
+
+export async function findCommand(mapArg: string, o: FindCommandOptions): Promise<CommandResult> {
+  const period = parsePeriod(o.period);
+  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? []);
+  const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
+  const search = await lib.search();
+  const cands = search.findCandidates(compiled, near ? { period, near } : { period });
+  const exitCode = cands.length > 0 ? EXIT_OK : EXIT_NOT_PROVEN;
+  if (o.json) {
+    const doc = {
+      kind: 'candidates',
+      note: 'float search results, not proofs',
+      map: { title: def.title, state: def.state, origin: def.origin },
+      period,
+      candidates: cands,
+      exitCode,
+    };
+    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
+  }
+  const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
+  return { stdout: renderFind(cands, header, def.state) + '\n', stderr: '', exitCode };
+}
+
+function multiplierText(m: unknown): string {
+  if (typeof m === 'number') return m.toPrecision(6);
+  if (m && typeof m === 'object' && 're' in m && 'im' in m) {
+    const c = m as { re: number; im: number };
+    return `${c.re.toPrecision(4)}${c.im < 0 ? '−' : '+'}${Math.abs(c.im).toPrecision(4)}i`;
+  }
+  return String(m);
+}
+
+/** Pure renderer for `find`. Numbers here are floats, labelled with ≈. */
+export function renderFind(cands: readonly CandidateLike[], header: string, state: string[]): string {
+  const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period`];
+  if (cands.length === 0) {
+    lines.push('none found in the region. hint: try --near x,... or another --period.');
+    return lines.join('\n');
+  }
+  const shown = 6;
+  const rows = cands.map((c, i) => [
+    String(i + 1),
+    c.points
+      .slice(0, shown)
+      .map((pt) => '≈ (' + pt.map((v) => v.toPrecision(12)).join(', ') + ')')
+      .concat(c.points.length > shown ? [`… ${c.points.length} points`] : [])
+      .join('\n'),
+    c.multipliers.map(multiplierText).join(', '),
+    `${c.stabilityGuess} (guess)`,
+    c.residual.toExponential(1),
+  ]);
+  lines.push('');
+  lines.push(table(['#', `points (${state.join(', ')})`, 'multipliers ≈', 'stability', 'residual'], rows));
+  lines.push('');
+  lines.push('These are float approximations. Run `orbitseal prove` to turn them into proofs.');
+  return lines.join('\n');
+}

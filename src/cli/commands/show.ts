@@ -1,0 +1,53 @@
+import { EXIT_OK, type CommandResult } from '../errors.js';
+import { table } from '../format.js';
+import { intervalArithmetic } from '../../interval/interval-arith.js';
+import { describeMap, type MapDescription } from '../../model/index.js';
+import type { ParamValue } from '../../model/types.js';
+import { loadMap, paramText } from './common.js';
+
+export interface ShowCommandOptions {
+  json?: boolean;
+  param?: string[];
+}
+
+export async function showCommand(mapArg: string, o: ShowCommandOptions): Promise<CommandResult> {
+  const { overrides, compiled } = await loadMap(mapArg, o.param ?? []);
+  const description = describeMap(compiled, intervalArithmetic());
+  if (o.json) {
+    return { stdout: JSON.stringify(description, null, 2) + '\n', stderr: '', exitCode: EXIT_OK };
+  }
+  return { stdout: renderShow(description, overrides) + '\n', stderr: '', exitCode: EXIT_OK };
+}
+
+/** Pure renderer for `show`: the map as understood, with exact enclosures. */
+export function renderShow(d: MapDescription, overrides: Record<string, ParamValue> = {}): string {
+  const lines = [`${d.title}${d.origin ? `  (${d.origin})` : ''}`];
+  if (d.description) lines.push(d.description.trim());
+  lines.push('', `state variables (vector order): ${d.variables.map((v) => v.name).join(', ')}   (dimension ${d.dim})`);
+  lines.push('');
+  if (d.params.length === 0) lines.push('parameters: none');
+  else {
+    lines.push(
+      table(
+        ['parameter', 'as written', 'enclosure used by the prover (exact ends of float64 interval)'],
+        d.params.map((p) => [
+          p.name + (p.name in overrides ? ' (--param)' : ''),
+          paramText(p.value),
+          `[${p.enclosure.lo}, ${p.enclosure.hi}]`,
+        ]),
+      ),
+    );
+  }
+  lines.push('', 'step:');
+  for (const v of d.variables) lines.push(`  ${v.name}' = ${v.formula}`);
+  lines.push('', 'region:');
+  for (const v of d.variables) lines.push(`  ${v.name} ∈ [${v.region.lo}, ${v.region.hi}]`);
+  lines.push('', 'interval image of the region (every point of the region maps inside):');
+  for (const im of d.image) lines.push(`  ${im.name}' ∈ [${im.lo}, ${im.hi}]`);
+  if (!d.imageContinuous) {
+    lines.push('  warning: evaluating over the region leaves the domain of some function (sqrt, log, division by 0, …);');
+    lines.push('  no orbit can be proven where that happens.');
+  }
+  if (d.imageAssumed) lines.push('  note: this image rests on the accuracy of built-in elementary functions (not proven).');
+  return lines.join('\n');
+}

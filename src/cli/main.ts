@@ -1,0 +1,26 @@
+#!/usr/bin/env node
+/** Process entry point: run the pure CLI, write its output, set the exit code. */
+import { runCli } from './program.js';
+import { errorResult } from './errors.js';
+
+// `orbitseal ... | head` closes the pipe early: that is not an error.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw e;
+  });
+}
+
+async function main(): Promise<void> {
+  let result;
+  try {
+    result = await runCli(process.argv.slice(2));
+  } catch (e) {
+    result = errorResult(e);
+  }
+  if (result.stdout) process.stdout.write(result.stdout);
+  if (result.stderr) process.stderr.write(result.stderr);
+  process.exitCode = result.exitCode;
+}
+
+void main();

@@ -1,0 +1,152 @@
+/**
+ * The `prove` workflow as a library call (no process I/O): search candidates, prove each, write
+ * one certificate per proven orbit, and re-verify each written file with the independent checker.
+ * The CLI's `prove` and `demo` commands are this function plus rendering.
+ */
+import { join } from 'node:path';
+import { buildCertificate, type ProvenOrbitData } from '../certificate/build.js';
+import { certificateFileName, writeCertificate } from '../certificate/write.js';
+import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
+import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
+import * as lib from './library.js';
+import type { CandidateLike, CheckReportLike } from './library.js';
+
+export interface CertifyOptions {
+  period: number;
+  /** Prove only the candidate nearest this point (unless `all`). */
+  near?: number[];
+  /** Prove every candidate even when `near` is given. */
+  all?: boolean;
+  /** Folder for certificates; created when missing. */
+  outDir: string;
+  /** Replace existing certificate files. */
+  force?: boolean;
+  maxBits?: number;
+  /** Run the independent checker on every written file (default true). */
+  check?: boolean;
+  /** Digits for the checker (default: the certificate's hint). */
+  digits?: number;
+  overrides?: Record<string, ParamValue>;
+}
+
+/**
+ * How far a result got. Only `verified` means proven AND independently re-verified; `prover-only`
+ * means the fast engine proved it and nobody re-checked (the user turned the checker off).
+ */
+export type OrbitStatus = 'verified' | 'prover-only' | 'rejected-by-checker' | 'not-proven';
+
+export interface OrbitOutcome {
+  /** 1-based, in candidate order. */
+  index: number;
+  candidate: CandidateLike;
+  status: OrbitStatus;
+  /** Why not proven / why the checker rejected. */
+  reason?: string;
+  orbit?: ProvenOrbitData;
+  certificatePath?: string;
+  check?: CheckReportLike;
+}
+
+export interface CertifyReport {
+  map: { title: string; origin?: string; state: string[] };
+  period: number;
+  candidatesFound: number;
+  outcomes: OrbitOutcome[];
+  outDir: string;
+  checked: boolean;
+  exitCode: ExitCode;
+}
+
+/** The human label for a status; "proven" appears only for orbits the prover proved. */
+export function statusLabel(s: OrbitStatus): string {
+  switch (s) {
+    case 'verified':
+      return 'proven, re-verified';
+    case 'prover-only':
+      return 'proven (fast engine only, not re-verified)';
+    case 'rejected-by-checker':
+      return 'NOT CONFIRMED: prover claimed it, checker rejected';
+    case 'not-proven':
+      return 'not proven';
+  }
+}
+
+function distance2(a: readonly number[], b: readonly number[]): number {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += (a[i]! - b[i]!) ** 2;
+  return s;
+}
+
+/** @heuristic the candidate with an orbit point closest (Euclidean, floats) to `near`. */
+export function nearestCandidateIndex(cands: readonly CandidateLike[], near: readonly number[]): number {
+  let best = -1;
+  let bestD = Infinity;
+  cands.forEach((c, i) => {
+    for (const pt of c.points) {
+      const d = distance2(pt, near);
+      if (d < bestD) {
+        bestD = d;
+        best = i;
+      }
+    }
+  });
+  return best;
+}
+
+/** Search, prove, write and re-check. Throws only user errors (e.g. CERT_EXISTS) and bugs. */
+export async function certifyOrbits(
+  def: MapDefinition,
+  compiled: CompiledMap,
+  opts: CertifyOptions,
+): Promise<CertifyReport> {
+  const search = await lib.search();
+  const prover = await lib.prove();
+  const checkOn = opts.check !== false;
+  const checker = checkOn ? await lib.checker() : undefined;
+
+  const found = search.findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
+  let chosen: CandidateLike[] = found;
+  if (opts.near && !opts.all && found.length > 0) chosen = [found[nearestCandidateIndex(found, opts.near)]!];
+
+  const outcomes: OrbitOutcome[] = [];
+  let k = 0;
+  for (const candidate of chosen) {
+    const index = outcomes.length + 1;
+    const verdict = prover.proveOrbit(compiled, candidate.points, opts.maxBits ? { maxBits: opts.maxBits } : {});
+    if (verdict.status !== 'proven') {
+      const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
+      outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
+      continue;
+    }
+    const orbit = verdict.orbit;
+    const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
+    k++;
+    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k)), cert, {
+      force: opts.force ?? false,
+    });
+    const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
+    if (checker) {
+      const [report] = await checker.checkPaths([path], opts.digits ? { digits: opts.digits } : {});
+      if (report === undefined) throw new Error(`checker returned no report for ${path}`);
+      outcome.check = report;
+      if (report.verdict === 'VERIFIED') outcome.status = 'verified';
+      else {
+        outcome.status = 'rejected-by-checker';
+        outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
+      }
+    }
+    outcomes.push(outcome);
+  }
+
+  const allGood =
+    outcomes.length > 0 && outcomes.every((o) => o.status === 'verified' || (!checkOn && o.status === 'prover-only'));
+  return {
+    map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
+    period: opts.period,
+    candidatesFound: found.length,
+    outcomes,
+    outDir: opts.outDir,
+    checked: checkOn,
+    exitCode: allGood ? EXIT_OK : EXIT_NOT_PROVEN,
+  };
+}

@@ -1,0 +1,128 @@
+/**
+ * The command line as a pure function: `runCli(argv)` → {stdout, stderr, exitCode}. No process
+ * I/O here (main.ts does that), so tests run every command in-process.
+ */
+import { Command, CommanderError } from 'commander';
+import { packageVersion } from '../certificate/producer.js';
+import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
+import { collect } from './options.js';
+import { checkCommand, type CheckCommandOptions } from './commands/check.js';
+import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
+import { findCommand, type FindCommandOptions } from './commands/find.js';
+import { DEFAULT_OUT_DIR, proveCommand, type ProveCommandOptions } from './commands/prove.js';
+import { showCommand, type ShowCommandOptions } from './commands/show.js';
+
+export interface RunContext {
+  /** Working folder for relative paths (default process.cwd()). */
+  cwd?: string;
+}
+
+const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
+
+export async function runCli(argv: readonly string[], ctx: RunContext = {}): Promise<CommandResult> {
+  const cwd = ctx.cwd ?? process.cwd();
+  let out = '';
+  let err = '';
+  let result: CommandResult | undefined;
+  let wantsJson = false;
+  const run = (f: () => Promise<CommandResult>) => async () => {
+    result = await f();
+  };
+
+  const program = new Command();
+  program
+    .name('orbitseal')
+    .description('Proofs of periodic orbits of iterated maps, with certificates an independent checker re-verifies.')
+    .version(packageVersion(), '-V, --version', 'print the version')
+    .helpOption('-h, --help', 'show help')
+    .exitOverride()
+    .configureOutput({ writeOut: (s) => (out += s), writeErr: (s) => (err += s) })
+    .showSuggestionAfterError(true)
+    .addHelpText(
+      'after',
+      '\nExit codes: 0 all proven / verified, 1 something not proven or rejected, 2 bad input, 3 internal error.\n' +
+        'Examples:\n  orbitseal demo\n  orbitseal show logistic --param r=3.83\n  orbitseal prove logistic --period 3 --param r=3.83\n  orbitseal check orbitseal-proofs/',
+    );
+
+  program
+    .command('show')
+    .description('show the map as understood: variables, exact parameter enclosures, formulas, region and its interval image')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .option('--param <name=value>', PARAM_HELP, collect)
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: ShowCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(() => showCommand(map, o))();
+    });
+
+  program
+    .command('find')
+    .description('float search for orbit candidates of minimal period P (not proofs)')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'minimal period')
+    .option('--near <x,y,...>', 'look near this point')
+    .option('--param <name=value>', PARAM_HELP, collect)
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: FindCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(() => findCommand(map, o))();
+    });
+
+  program
+    .command('prove')
+    .description('prove periodic orbits, write a certificate for each, and re-check each with the independent checker')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'period of the orbits to prove')
+    .option('--near <x,y,...>', 'prove only the candidate nearest this point')
+    .option('--all', 'prove every candidate found (the default without --near)')
+    .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
+    .option('--force', 'replace existing certificate files')
+    .option('--max-bits <B>', 'highest working precision for precision escalation')
+    .option('--no-check', 'do not run the independent checker (results are then labelled "fast engine only")')
+    .option('--digits <D>', 'decimal digits for the checker (default: the certificate hint)')
+    .option('--param <name=value>', PARAM_HELP, collect)
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: ProveCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(() => proveCommand(map, o, cwd))();
+    });
+
+  program
+    .command('check')
+    .description('re-verify certificates with the independent checker: VERIFIED / REJECTED / UNREADABLE')
+    .argument('<paths...>', 'certificate files or folders (all *.json inside)')
+    .option('--digits <D>', 'decimal digits for the checker')
+    .option('--json', 'print one JSON document')
+    .action((paths: string[], o: CheckCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(() => checkCommand(paths, o, cwd))();
+    });
+
+  program
+    .command('demo')
+    .description('prove the orbits of a built-in invented scenario, write and re-check certificates (a few seconds)')
+    .option('--out <dir>', 'folder for certificates (default: a new temporary folder)')
+    .option('--json', 'print one JSON document')
+    .action((o: DemoCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(() => demoCommand(o, cwd))();
+    });
+
+  try {
+    await program.parseAsync([...argv], { from: 'user' });
+  } catch (e) {
+    if (e instanceof CommanderError) {
+      if (e.code === 'commander.helpDisplayed' || e.code === 'commander.version') {
+        return { stdout: out, stderr: err, exitCode: 0 };
+      }
+      const hint = e.code === 'commander.help' ? '' : '  hint: run `orbitseal --help` (or `orbitseal COMMAND --help`) for usage\n';
+      return { stdout: out, stderr: err + hint, exitCode: EXIT_USAGE };
+    }
+    return errorResult(e, wantsJson);
+  }
+  if (result === undefined) {
+    // no command given
+    return { stdout: '', stderr: program.helpInformation(), exitCode: EXIT_USAGE };
+  }
+  return result;
+}

@@ -1,0 +1,11 @@
+export type { Expr, BinaryOp, ParsedFormula } from './ast.js';
+export { MapLanguageError, type MapLanguageErrorCode, type MapLanguageErrorInit, closeNames } from './errors.js';
+export { parseFormula, checkNames, namesOf, MAX_NESTING } from './parser.js';
+export { locate } from './lexer.js';
+export { functionNames, constantNames, isReservedName, isFunctionName, IDENTIFIER } from './names.js';
+export { buildTape, formatTape, Op, type Tape, type OpCode } from './tape.js';
+export { TapeEvaluator, type ParamEnclosure } from './evaluate.js';
+export { dualArithmetic, type Dual, type DualArithmetic } from './dual.js';
+export { SecondOrderEvaluator } from './second-order.js';
+export { compileFlat, type FlatImage } from './flat.js';
+export { compileFormulas, type CompiledFormulas } from './compile.js';

@@ -1,0 +1,267 @@
+/**
+ * Allocation-free interval operations on a register file R: Float64Array.
+ *
+ * Register i occupies R[2i] (lo) and R[2i+1] (hi). Register 0 is the status:
+ *  - R[0] = 1 while every operation so far was continuous on its input box; set to 0 on a domain
+ *    violation, an empty input or an overflow from bounded inputs (kernel F_UNDEF | F_EMPTY |
+ *    F_OVERFLOW), never set back (call `fReset`);
+ *  - R[1] = 1 once some result rests on the Math.* accuracy assumption (F_ASSUMED).
+ * Operations take register indices: fAdd(R, d, a, b) sets register d to a + b. d may alias a or b.
+ *
+ * Enclosures are exactly those of kernel.ts: + − × ÷ and sqr have an inlined fast path (successor
+ * formula of Rump et al. 2009, see round.ts) that is taken only when the result is finite and
+ * ordered; everything else (infinite ends, empty, NaN, 0·∞, division by a box touching 0, overflow)
+ * falls to the kernel, which handles all special cases and reports flags. The fast path of × rounds
+ * min/max of the four rounded products outward, which is valid because down(min_i fl(p_i)) ≤
+ * pred(fl(p_j)) ≤ p_j for the exact minimum p_j (round-to-nearest is monotone).
+ *
+ * Generated straight-line code calls these functions; keep them small and monomorphic.
+ */
+
+import * as K from './kernel.js';
+
+const PHI = 2 ** -53 * (1 + 2 ** -52);
+const ETA = 2 ** -1074;
+const MAXV = Number.MAX_VALUE;
+
+/** Record kernel flags in the status register. */
+function flag(R: Float64Array, f: number): void {
+  if (f & K.F_NOT_CONTINUOUS) R[0] = 0;
+  if (f & K.F_ASSUMED) R[1] = 1;
+}
+
+/** Number of doubles needed for n registers (register 0 included). */
+export function registerFileSize(registers: number): number {
+  return 2 * registers;
+}
+
+/** Reset the status register: continuous, no assumption. */
+export function fReset(R: Float64Array): void {
+  R[0] = 1;
+  R[1] = 0;
+}
+
+/** True while no domain violation / overflow / empty input was recorded. */
+export function fContinuous(R: Float64Array): boolean {
+  return R[0] === 1;
+}
+
+/** True once a result rests on the Math.* accuracy assumption. */
+export function fAssumed(R: Float64Array): boolean {
+  return R[1] === 1;
+}
+
+/** Register d := [lo, hi] (the caller's enclosure, e.g. from encloseDecimal; no validation). */
+export function fConst(R: Float64Array, d: number, lo: number, hi: number): void {
+  R[2 * d] = lo;
+  R[2 * d + 1] = hi;
+}
+
+/** Register d := register a. */
+export function fCopy(R: Float64Array, d: number, a: number): void {
+  R[2 * d] = R[2 * a]!;
+  R[2 * d + 1] = R[2 * a + 1]!;
+}
+
+/** d := a + b. */
+export function fAdd(R: Float64Array, d: number, a: number, b: number): void {
+  const alo = R[2 * a]!;
+  const ahi = R[2 * a + 1]!;
+  const blo = R[2 * b]!;
+  const bhi = R[2 * b + 1]!;
+  const s = alo + blo;
+  const t = ahi + bhi;
+  const lo = s - (PHI * Math.abs(s) + ETA);
+  const hi = t + (PHI * Math.abs(t) + ETA);
+  const w = hi - lo;
+  if (w >= 0 && w <= MAXV) {
+    R[2 * d] = lo;
+    R[2 * d + 1] = hi;
+    return;
+  }
+  flag(R, K.kAdd(R, 2 * d, alo, ahi, blo, bhi));
+}
+
+/** d := a − b. */
+export function fSub(R: Float64Array, d: number, a: number, b: number): void {
+  const alo = R[2 * a]!;
+  const ahi = R[2 * a + 1]!;
+  const blo = R[2 * b]!;
+  const bhi = R[2 * b + 1]!;
+  const s = alo - bhi;
+  const t = ahi - blo;
+  const lo = s - (PHI * Math.abs(s) + ETA);
+  const hi = t + (PHI * Math.abs(t) + ETA);
+  const w = hi - lo;
+  if (w >= 0 && w <= MAXV) {
+    R[2 * d] = lo;
+    R[2 * d + 1] = hi;
+    return;
+  }
+  flag(R, K.kSub(R, 2 * d, alo, ahi, blo, bhi));
+}
+
+/** d := a · b. */
+export function fMul(R: Float64Array, d: number, a: number, b: number): void {
+  const alo = R[2 * a]!;
+  const ahi = R[2 * a + 1]!;
+  const blo = R[2 * b]!;
+  const bhi = R[2 * b + 1]!;
+  const p1 = alo * blo;
+  const p2 = alo * bhi;
+  const p3 = ahi * blo;
+  const p4 = ahi * bhi;
+  const mn = Math.min(Math.min(p1, p2), Math.min(p3, p4));
+  const mx = Math.max(Math.max(p1, p2), Math.max(p3, p4));
+  const lo = mn - (PHI * Math.abs(mn) + ETA);
+  const hi = mx + (PHI * Math.abs(mx) + ETA);
+  const w = hi - lo;
+  if (w >= 0 && w <= MAXV) {
+    R[2 * d] = lo;
+    R[2 * d + 1] = hi;
+    return;
+  }
+  flag(R, K.kMul(R, 2 * d, alo, ahi, blo, bhi));
+}
+
+/** d := a / b (IEEE 1788 set-based; 0 ∈ b marks the status non-continuous). */
+export function fDiv(R: Float64Array, d: number, a: number, b: number): void {
+  const alo = R[2 * a]!;
+  const ahi = R[2 * a + 1]!;
+  const blo = R[2 * b]!;
+  const bhi = R[2 * b + 1]!;
+  if (blo > 0 || bhi < 0) {
+    const q1 = alo / blo;
+    const q2 = alo / bhi;
+    const q3 = ahi / blo;
+    const q4 = ahi / bhi;
+    const mn = Math.min(Math.min(q1, q2), Math.min(q3, q4));
+    const mx = Math.max(Math.max(q1, q2), Math.max(q3, q4));
+    const lo = mn - (PHI * Math.abs(mn) + ETA);
+    const hi = mx + (PHI * Math.abs(mx) + ETA);
+    const w = hi - lo;
+    if (w >= 0 && w <= MAXV) {
+      R[2 * d] = lo;
+      R[2 * d + 1] = hi;
+      return;
+    }
+  }
+  flag(R, K.kDiv(R, 2 * d, alo, ahi, blo, bhi));
+}
+
+/** d := a². */
+export function fSqr(R: Float64Array, d: number, a: number): void {
+  const x = R[2 * a]!;
+  const y = R[2 * a + 1]!;
+  let lo: number;
+  let hi: number;
+  if (x >= 0) {
+    const p = x * x;
+    const q = y * y;
+    lo = p - (PHI * p + ETA);
+    hi = q + (PHI * q + ETA);
+  } else if (y <= 0) {
+    const p = y * y;
+    const q = x * x;
+    lo = p - (PHI * p + ETA);
+    hi = q + (PHI * q + ETA);
+  } else {
+    const m = -x > y ? -x : y;
+    const q = m * m;
+    lo = 0;
+    hi = q + (PHI * q + ETA);
+  }
+  if (lo < 0) lo = 0;
+  const w = hi - lo;
+  if (w >= 0 && w <= MAXV) {
+    R[2 * d] = lo;
+    R[2 * d + 1] = hi;
+    return;
+  }
+  flag(R, K.kSqr(R, 2 * d, x, y));
+}
+
+/** d := −a (exact). */
+export function fNeg(R: Float64Array, d: number, a: number): void {
+  const lo = R[2 * a]!;
+  const hi = R[2 * a + 1]!;
+  if (lo <= hi) {
+    R[2 * d] = -hi;
+    R[2 * d + 1] = -lo;
+    return;
+  }
+  flag(R, K.kNeg(R, 2 * d, lo, hi));
+}
+
+/** d := 1 / a. */
+export function fRecip(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kRecip(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+/** d := a^n, n integer (n = 2 uses fSqr). */
+export function fPown(R: Float64Array, d: number, a: number, n: number): void {
+  if (n === 2) fSqr(R, d, a);
+  else flag(R, K.kPown(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, n));
+}
+
+/** d := a^b (real power). */
+export function fPow(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kPow(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}
+
+/** d := √a. */
+export function fSqrt(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kSqrt(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fExp(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kExp(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fLog(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kLog(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fSin(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kSin(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fCos(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kCos(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fTan(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kTan(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fAtan(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kAtan(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fSinh(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kSinh(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fCosh(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kCosh(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fTanh(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kTanh(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fAbs(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kAbs(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fAbsSlope(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kAbsSlope(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
+export function fMin(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kMin(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}
+
+export function fMax(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kMax(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}

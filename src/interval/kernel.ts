@@ -1,0 +1,627 @@
+/**
+ * The interval kernel over endpoints: every operation reads its operands as (lo, hi) doubles,
+ * writes the result into out[o], out[o + 1] and returns a bit set of flags. The object API
+ * (interval.ts), the flat register API (flat.ts), decorations and the Arithmetic instance are thin
+ * layers over these functions, so every enclosure is implemented exactly once.
+ *
+ * Representation (IEEE 1788 inf-sup, binary64): a non-empty interval is lo ≤ hi with
+ * lo < +Inf and hi > −Inf; EMPTY is (+Inf, −Inf); ENTIRE is (−Inf, +Inf). NaN endpoints are
+ * invalid input (flag F_UNDEF, result ENTIRE).
+ *
+ * Flags:
+ *  - F_UNDEF: some point of the input box lies outside the domain where the operation is defined
+ *    and continuous (IEEE 1788 local decoration trv), or an input was NaN.
+ *  - F_OVERFLOW: all inputs bounded, the result unbounded (IEEE 1788 local decoration dac).
+ *  - F_ASSUMED: the result rests on the accuracy assumption for `Math.*` (see README.md).
+ *  - F_EMPTY: an input was empty (the result is empty).
+ *
+ * Rounding: + − × ÷ are one step outward (round.ts); √ is verified exactly; elementary functions
+ * take Math.* and widen by WIDEN steps of the successor formula (≥ 1 ulp each), under the
+ * documented assumption that V8's Math.* (fdlibm ports) is within 1 ulp.
+ */
+
+import {
+  ETA,
+  MAX,
+  PHI,
+  addDown,
+  addUp,
+  divDown,
+  divUp,
+  down,
+  mulDown,
+  mulUp,
+  nextUp,
+  sqrtDown,
+  sqrtUp,
+  subDown,
+  subUp,
+  twoProductError,
+  twoSumError,
+  up,
+} from './round.js';
+
+export const F_UNDEF = 1;
+export const F_OVERFLOW = 2;
+export const F_ASSUMED = 4;
+export const F_EMPTY = 8;
+
+/** Any flag that makes a box evaluation non-continuous for existence proofs. */
+export const F_NOT_CONTINUOUS = F_UNDEF | F_OVERFLOW | F_EMPTY;
+
+type Out = Float64Array | number[];
+
+function put(out: Out, o: number, lo: number, hi: number): void {
+  out[o] = lo;
+  out[o + 1] = hi;
+}
+
+/** Result for invalid unary input: NaN → ENTIRE + F_UNDEF, empty → EMPTY + F_EMPTY. */
+function bad1(out: Out, o: number, lo: number, hi: number): number {
+  if (lo !== lo || hi !== hi) {
+    put(out, o, -Infinity, Infinity);
+    return F_UNDEF;
+  }
+  put(out, o, Infinity, -Infinity);
+  return F_EMPTY;
+}
+
+function bad2(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (alo !== alo || ahi !== ahi || blo !== blo || bhi !== bhi) {
+    put(out, o, -Infinity, Infinity);
+    return F_UNDEF;
+  }
+  put(out, o, Infinity, -Infinity);
+  return F_EMPTY;
+}
+
+function bounded(lo: number, hi: number): boolean {
+  return lo !== -Infinity && hi !== Infinity;
+}
+
+function ovf1(lo: number, hi: number, alo: number, ahi: number): number {
+  return (lo === -Infinity || hi === Infinity) && bounded(alo, ahi) ? F_OVERFLOW : 0;
+}
+
+function ovf2(lo: number, hi: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  return (lo === -Infinity || hi === Infinity) && bounded(alo, ahi) && bounded(blo, bhi) ? F_OVERFLOW : 0;
+}
+
+// ---------------------------------------------------------------------------------------------
+// + − × ÷
+
+/** [alo + blo]↓, [ahi + bhi]↑. Exact for unbounded ends. */
+export function kAdd(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  const lo = addDown(alo, blo);
+  const hi = addUp(ahi, bhi);
+  put(out, o, lo, hi);
+  return ovf2(lo, hi, alo, ahi, blo, bhi);
+}
+
+/** [alo − bhi]↓, [ahi − blo]↑. */
+export function kSub(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  const lo = subDown(alo, bhi);
+  const hi = subUp(ahi, blo);
+  put(out, o, lo, hi);
+  return ovf2(lo, hi, alo, ahi, blo, bhi);
+}
+
+/** Hull of the four endpoint products, each rounded outward; 0·∞ = 0 (IEEE 1788 convention). */
+export function kMul(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  const lo = Math.min(mulDown(alo, blo), mulDown(alo, bhi), mulDown(ahi, blo), mulDown(ahi, bhi));
+  const hi = Math.max(mulUp(alo, blo), mulUp(alo, bhi), mulUp(ahi, blo), mulUp(ahi, bhi));
+  put(out, o, lo, hi);
+  return ovf2(lo, hi, alo, ahi, blo, bhi);
+}
+
+/**
+ * IEEE 1788 set-based division: the hull of {x / y : x ∈ a, y ∈ b, y ≠ 0}. b = [0, 0] → EMPTY;
+ * 0 ∈ b → F_UNDEF and a half-line or ENTIRE (a = [0, 0] → [0, 0]).
+ */
+export function kDiv(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  let lo: number;
+  let hi: number;
+  if (blo > 0) {
+    if (alo >= 0) {
+      lo = divDown(alo, bhi);
+      hi = divUp(ahi, blo);
+    } else if (ahi <= 0) {
+      lo = divDown(alo, blo);
+      hi = divUp(ahi, bhi);
+    } else {
+      lo = divDown(alo, blo);
+      hi = divUp(ahi, blo);
+    }
+  } else if (bhi < 0) {
+    if (alo >= 0) {
+      lo = divDown(ahi, bhi);
+      hi = divUp(alo, blo);
+    } else if (ahi <= 0) {
+      lo = divDown(ahi, blo);
+      hi = divUp(alo, bhi);
+    } else {
+      lo = divDown(ahi, bhi);
+      hi = divUp(alo, bhi);
+    }
+  } else {
+    // 0 ∈ b: the quotient is not defined on the whole box.
+    if (blo === 0 && bhi === 0) {
+      put(out, o, Infinity, -Infinity);
+      return F_UNDEF;
+    }
+    if (alo === 0 && ahi === 0) {
+      put(out, o, 0, 0);
+      return F_UNDEF;
+    }
+    if (blo === 0) {
+      // b = [0, bhi], bhi > 0: x / y with y ↓ 0+.
+      if (alo >= 0) put(out, o, divDown(alo, bhi), Infinity);
+      else if (ahi <= 0) put(out, o, -Infinity, divUp(ahi, bhi));
+      else put(out, o, -Infinity, Infinity);
+    } else if (bhi === 0) {
+      // b = [blo, 0], blo < 0.
+      if (alo >= 0) put(out, o, -Infinity, divUp(alo, blo));
+      else if (ahi <= 0) put(out, o, divDown(ahi, blo), Infinity);
+      else put(out, o, -Infinity, Infinity);
+    } else put(out, o, -Infinity, Infinity);
+    return F_UNDEF;
+  }
+  put(out, o, lo, hi);
+  return ovf2(lo, hi, alo, ahi, blo, bhi);
+}
+
+/** 1 / a, IEEE 1788 set-based (see kDiv). */
+export function kRecip(out: Out, o: number, alo: number, ahi: number): number {
+  return kDiv(out, o, 1, 1, alo, ahi);
+}
+
+/** [−ahi, −alo], exact. */
+export function kNeg(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  put(out, o, -ahi, -alo);
+  return 0;
+}
+
+/** Exact copy (with validation). */
+export function kPos(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  put(out, o, alo, ahi);
+  return 0;
+}
+
+/** a², with the minimum handled: [mig², mag²], lower end clamped to ≥ 0. */
+export function kSqr(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  let lo: number;
+  let hi: number;
+  if (alo >= 0) {
+    lo = mulDown(alo, alo);
+    hi = mulUp(ahi, ahi);
+  } else if (ahi <= 0) {
+    lo = mulDown(ahi, ahi);
+    hi = mulUp(alo, alo);
+  } else {
+    lo = 0;
+    hi = alo < -ahi ? mulUp(alo, alo) : mulUp(ahi, ahi);
+  }
+  put(out, o, lo > 0 ? lo : 0, hi);
+  return ovf1(lo, hi, alo, ahi);
+}
+
+let powHi = 0;
+
+/**
+ * Enclosure of x^n for x > 0, 2 ≤ n ≤ 64 with a double-double style tail: the invariant
+ * x^i ∈ h + [tlo, thi] is kept with h·x = q + f exact (TwoProduct) and only the tail rounded
+ * outward, so the final [h + tlo]↓, [h + thi]↑ is within 1 ulp of x^n. Returns the lower bound
+ * (the upper in powHi), or NaN if a partial product leaves the TwoProduct range [2^-969, 2^995].
+ */
+function powTight(x: number, n: number): number {
+  let h = x;
+  let tlo = 0;
+  let thi = 0;
+  for (let i = 1; i < n; i++) {
+    const q = h * x;
+    if (!(q >= 2 ** -969 && q <= 2 ** 995)) return NaN;
+    const f = twoProductError(h, x, q);
+    tlo = addDown(f, mulDown(tlo, x));
+    thi = addUp(f, mulUp(thi, x));
+    h = q;
+  }
+  powHi = addUp(h, thi);
+  return addDown(h, tlo);
+}
+
+/** Lower bound of x^n for x ≥ 0, n ≥ 1 (tight tail method, else binary powering with mulDown). */
+export function powNonnegDown(x: number, n: number): number {
+  if (x > 0 && x <= 2 ** 995 && n <= 64) {
+    const lo = powTight(x, n);
+    if (lo === lo) return Math.max(0, lo);
+  }
+  let r = 1;
+  let b = x;
+  let k = n;
+  for (;;) {
+    if (k & 1) r = Math.max(0, mulDown(r, b));
+    k = Math.floor(k / 2);
+    if (k === 0) return r;
+    b = Math.max(0, mulDown(b, b));
+  }
+}
+
+/** Upper bound of x^n for x ≥ 0, n ≥ 1. */
+export function powNonnegUp(x: number, n: number): number {
+  if (x > 0 && x <= 2 ** 995 && n <= 64) {
+    const lo = powTight(x, n);
+    if (lo === lo) return powHi;
+  }
+  let r = 1;
+  let b = x;
+  let k = n;
+  for (;;) {
+    if (k & 1) r = mulUp(r, b);
+    k = Math.floor(k / 2);
+    if (k === 0) return r;
+    b = mulUp(b, b);
+  }
+}
+
+const scratch = new Float64Array(2);
+
+/**
+ * a^n for an integer n (IEEE 1788 pown). n = 0 → [1, 1] (also on zero-straddling a); odd n is
+ * increasing (pown([−3, 2], 3) = [−27, 8]); even n handles the minimum ([mig^n, mag^n]); n < 0 is
+ * 1 / a^|n| with F_UNDEF when 0 ∈ a. Non-integer n → ENTIRE + F_UNDEF.
+ */
+export function kPown(out: Out, o: number, alo: number, ahi: number, n: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  if (!Number.isInteger(n)) {
+    put(out, o, -Infinity, Infinity);
+    return F_UNDEF;
+  }
+  if (n === 0) {
+    put(out, o, 1, 1);
+    return 0;
+  }
+  if (n === 1) return kPos(out, o, alo, ahi);
+  if (n === 2) return kSqr(out, o, alo, ahi);
+  if (n < 0) {
+    const f = kPown(scratch, 0, alo, ahi, -n);
+    const g = f | kDiv(out, o, 1, 1, scratch[0]!, scratch[1]!);
+    if ((alo > 0 || ahi < 0) && g === 0) {
+      // Also (1/a)^|n| (avoids spurious overflow of a^|n|, e.g. MAX^-2) and keep the intersection
+      // of the two enclosures.
+      kDiv(scratch, 0, 1, 1, alo, ahi);
+      kPown(scratch, 0, scratch[0]!, scratch[1]!, -n);
+      const lo = Math.max(out[o]!, scratch[0]!);
+      const hi = Math.min(out[o + 1]!, scratch[1]!);
+      if (lo <= hi) put(out, o, lo, hi);
+    } else if (alo > 0 || ahi < 0) {
+      // a^|n| overflowed (F_OVERFLOW) although a^n is bounded: recompute as (1/a)^|n|.
+      kDiv(scratch, 0, 1, 1, alo, ahi);
+      const h = kPown(out, o, scratch[0]!, scratch[1]!, -n);
+      return h | (g & ~F_OVERFLOW);
+    }
+    return g;
+  }
+  let lo: number;
+  let hi: number;
+  if (n % 2 === 1) {
+    lo = alo >= 0 ? powNonnegDown(alo, n) : -powNonnegUp(-alo, n);
+    hi = ahi >= 0 ? powNonnegUp(ahi, n) : -powNonnegDown(-ahi, n);
+  } else if (alo >= 0) {
+    lo = powNonnegDown(alo, n);
+    hi = powNonnegUp(ahi, n);
+  } else if (ahi <= 0) {
+    lo = powNonnegDown(-ahi, n);
+    hi = powNonnegUp(-alo, n);
+  } else {
+    lo = 0;
+    hi = powNonnegUp(Math.max(-alo, ahi), n);
+  }
+  put(out, o, lo, hi);
+  return ovf1(lo, hi, alo, ahi);
+}
+
+/** √a on a ∩ [0, ∞); lower end verified by s² ≤ x, upper by s² ≥ x (round.ts). F_UNDEF if alo < 0. */
+export function kSqrt(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  if (ahi < 0) {
+    put(out, o, Infinity, -Infinity);
+    return F_UNDEF;
+  }
+  put(out, o, alo <= 0 ? 0 : sqrtDown(alo), sqrtUp(ahi));
+  return alo < 0 ? F_UNDEF : 0;
+}
+
+/** |a| = [mig(a), mag(a)], exact. */
+export function kAbs(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  if (alo >= 0) put(out, o, alo === 0 ? 0 : alo, ahi);
+  else if (ahi <= 0) put(out, o, -ahi, -alo);
+  else put(out, o, 0, Math.max(-alo, ahi));
+  return 0;
+}
+
+/** min(a, b) = [min(alo, blo), min(ahi, bhi)], exact. */
+export function kMin(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  put(out, o, Math.min(alo, blo), Math.min(ahi, bhi));
+  return 0;
+}
+
+/** max(a, b) = [max(alo, blo), max(ahi, bhi)], exact. */
+export function kMax(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  put(out, o, Math.max(alo, blo), Math.max(ahi, bhi));
+  return 0;
+}
+
+/**
+ * Slope enclosure of |u| over a (DESIGN.md §4): [1, 1] if a > 0, [−1, −1] if a < 0, else
+ * [−1, 1]. Empty → EMPTY.
+ */
+export function kAbsSlope(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  if (alo > 0) put(out, o, 1, 1);
+  else if (ahi < 0) put(out, o, -1, -1);
+  else put(out, o, -1, 1);
+  return 0;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Elementary functions: Math.* widened by WIDEN successor steps (assumption: Math.* within 1 ulp).
+
+/** Number of successor-formula steps applied to a Math.* result (each ≥ 1 ulp outward). */
+export const WIDEN = 2;
+/** Steps for Math.pow (fdlibm pow claims < 1 ulp too; one extra step of safety). */
+export const WIDEN_POW = 3;
+
+/** Lower bound of a value y that Math.* returned, assuming |error| ≤ 1 ulp; ±Inf handled. */
+export function widenDown(y: number, steps: number): number {
+  if (y === Infinity) y = MAX;
+  for (let i = 0; i < steps; i++) y = y - (PHI * Math.abs(y) + ETA);
+  return y;
+}
+
+/** Upper bound counterpart of widenDown. */
+export function widenUp(y: number, steps: number): number {
+  if (y === -Infinity) y = -MAX;
+  for (let i = 0; i < steps; i++) y = y + (PHI * Math.abs(y) + ETA);
+  return y;
+}
+
+/** exp, increasing; exp(0) = 1 exactly; lower end clamped at 0. */
+export function kExp(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const lo = alo === -Infinity ? 0 : alo === 0 ? 1 : Math.max(0, widenDown(Math.exp(alo), WIDEN));
+  const hi = ahi === Infinity ? Infinity : ahi === 0 ? 1 : widenUp(Math.exp(ahi), WIDEN);
+  put(out, o, lo, hi);
+  return F_ASSUMED | ovf1(lo, hi, alo, ahi);
+}
+
+/** log on a ∩ (0, ∞]; F_UNDEF if alo ≤ 0 (then lo = −Inf); ahi ≤ 0 → EMPTY. log(1) = 0 exactly. */
+export function kLog(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  if (ahi <= 0) {
+    put(out, o, Infinity, -Infinity);
+    return F_UNDEF;
+  }
+  const lo = alo <= 0 ? -Infinity : alo === 1 ? 0 : widenDown(Math.log(alo), WIDEN);
+  const hi = ahi === Infinity ? Infinity : ahi === 1 ? 0 : widenUp(Math.log(ahi), WIDEN);
+  put(out, o, lo, hi);
+  return F_ASSUMED | (alo <= 0 ? F_UNDEF : 0);
+}
+
+// π/2 as a double-double: HP_H = fl(π/2) = 0x1.921FB54442D18p0 < π/2, and π/2 − HP_H ∈ [HP_L_LO,
+// HP_L_HI] (adjacent doubles around 6.123233995736766e-17). Verified against decimal.js in
+// tests/interval/constants.test.ts.
+export const HALF_PI_HEAD = 1.5707963267948966;
+export const HALF_PI_TAIL_LO = 6.123233995736765e-17;
+export const HALF_PI_TAIL_HI = 6.123233995736767e-17;
+/** Enclosure of π: [0x1.921FB54442D18p1, 0x1.921FB54442D19p1]. */
+export const PI_LO = 3.141592653589793;
+export const PI_HI = 3.1415926535897936;
+/** Enclosure of e: [0x1.5BF0A8B145769p1, 0x1.5BF0A8B14576Ap1]. */
+export const E_LO = 2.718281828459045;
+export const E_HI = 2.7182818284590455;
+/** Upper bound of π/2 as a double (= nextUp(HALF_PI_HEAD)). */
+const HALF_PI_UP = nextUp(HALF_PI_HEAD);
+
+/**
+ * Sign of x − m·π/2 for an integer m with |m| ≤ 2^40 and |x| ≤ 2^40: −1 (certainly below),
+ * +1 (certainly above), 0 (equal or undecided). Exact: m·HP_H = p + e (TwoProduct), x − p = s + t
+ * (TwoSum), so x − m·π/2 = s + (t − e − m·tail) with the tail enclosed; the small sum is rounded
+ * outward.
+ */
+export function cmpMultipleOfHalfPi(x: number, m: number): number {
+  if (m === 0) return x > 0 ? 1 : x < 0 ? -1 : 0;
+  const p = m * HALF_PI_HEAD;
+  const e = twoProductError(m, HALF_PI_HEAD, p);
+  const s = x - p;
+  const t = twoSumError(x, -p, s);
+  const mtLo = m > 0 ? mulDown(m, HALF_PI_TAIL_LO) : mulDown(m, HALF_PI_TAIL_HI);
+  const mtHi = m > 0 ? mulUp(m, HALF_PI_TAIL_HI) : mulUp(m, HALF_PI_TAIL_LO);
+  const rLo = addDown(s, subDown(subDown(t, e), mtHi));
+  const rHi = addUp(s, subUp(subUp(t, e), mtLo));
+  return rLo > 0 ? 1 : rHi < 0 ? -1 : 0;
+}
+
+const TRIG_LIMIT = 2 ** 40;
+
+/**
+ * Residues r (bit r of the result, r = 0..3) such that some m ≡ r (mod 4) may have m·π/2 ∈ [lo, hi].
+ * Conservative: 15 (all) for unbounded, very wide or very large arguments.
+ */
+export function halfPiResidues(lo: number, hi: number): number {
+  if (!(hi - lo <= 8) || !(Math.abs(lo) <= TRIG_LIMIT) || !(Math.abs(hi) <= TRIG_LIMIT)) return 15;
+  const mFirst = Math.floor(lo / HALF_PI_HEAD) - 1;
+  const mLast = Math.ceil(hi / HALF_PI_HEAD) + 1;
+  let mask = 0;
+  for (let m = mFirst; m <= mLast; m++) {
+    if (cmpMultipleOfHalfPi(lo, m) <= 0 && cmpMultipleOfHalfPi(hi, m) >= 0) mask |= 1 << (((m % 4) + 4) % 4);
+  }
+  return mask;
+}
+
+/** Widened Math.sin(x) bounds (exact at 0), clamped to [−1, 1]. */
+function sinDown(x: number): number {
+  return x === 0 ? 0 : Math.max(-1, widenDown(Math.sin(x), WIDEN));
+}
+function sinUp(x: number): number {
+  return x === 0 ? 0 : Math.min(1, widenUp(Math.sin(x), WIDEN));
+}
+function cosDown(x: number): number {
+  return x === 0 ? 1 : Math.max(-1, widenDown(Math.cos(x), WIDEN));
+}
+function cosUp(x: number): number {
+  return x === 0 ? 1 : Math.min(1, widenUp(Math.cos(x), WIDEN));
+}
+
+/**
+ * sin: hull of the widened end values plus +1 / −1 when a point π/2 + 2kπ / −π/2 + 2kπ may lie in
+ * a (decided with the double-double π/2, cmpMultipleOfHalfPi). Unbounded → [−1, 1].
+ */
+export function kSin(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const mask = halfPiResidues(alo, ahi);
+  if (mask === 15) {
+    put(out, o, -1, 1);
+    return alo === ahi ? F_ASSUMED : 0;
+  }
+  let lo = Math.min(sinDown(alo), sinDown(ahi));
+  let hi = Math.max(sinUp(alo), sinUp(ahi));
+  if (mask & 2) hi = 1;
+  if (mask & 8) lo = -1;
+  put(out, o, lo, hi);
+  return F_ASSUMED;
+}
+
+/** cos: as sin with maxima at 2kπ (residue 0) and minima at (2k+1)π (residue 2). */
+export function kCos(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const mask = halfPiResidues(alo, ahi);
+  if (mask === 15) {
+    put(out, o, -1, 1);
+    return alo === ahi ? F_ASSUMED : 0;
+  }
+  let lo = Math.min(cosDown(alo), cosDown(ahi));
+  let hi = Math.max(cosUp(alo), cosUp(ahi));
+  if (mask & 1) hi = 1;
+  if (mask & 4) lo = -1;
+  put(out, o, lo, hi);
+  return F_ASSUMED;
+}
+
+/**
+ * tan: a pole (π/2 + kπ, odd residues) possibly in a → ENTIRE + F_UNDEF; otherwise increasing,
+ * [tan(alo)↓, tan(ahi)↑]. Unbounded or |a| > 2^40 → ENTIRE + F_UNDEF (undecided pole).
+ */
+export function kTan(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const mask = halfPiResidues(alo, ahi);
+  if (mask & 10) {
+    put(out, o, -Infinity, Infinity);
+    return F_UNDEF;
+  }
+  const lo = alo === 0 ? 0 : widenDown(Math.tan(alo), WIDEN);
+  const hi = ahi === 0 ? 0 : widenUp(Math.tan(ahi), WIDEN);
+  put(out, o, lo, hi);
+  return F_ASSUMED;
+}
+
+/** atan, increasing, clamped to [−π/2↑, π/2↑]; atan(±Inf) = ±π/2 (enclosed). */
+export function kAtan(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const lo = alo === 0 ? 0 : Math.max(-HALF_PI_UP, widenDown(Math.atan(alo), WIDEN));
+  const hi = ahi === 0 ? 0 : Math.min(HALF_PI_UP, widenUp(Math.atan(ahi), WIDEN));
+  put(out, o, lo, hi);
+  return F_ASSUMED;
+}
+
+/** sinh, increasing; sinh(0) = 0 exactly. */
+export function kSinh(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const lo = alo === 0 || alo === -Infinity ? alo : widenDown(Math.sinh(alo), WIDEN);
+  const hi = ahi === 0 || ahi === Infinity ? ahi : widenUp(Math.sinh(ahi), WIDEN);
+  put(out, o, lo, hi);
+  return F_ASSUMED | ovf1(lo, hi, alo, ahi);
+}
+
+/** cosh, minimum 1 at 0: [cosh(mig)↓, cosh(mag)↑], lower end clamped at 1. */
+export function kCosh(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const mig = alo >= 0 ? alo : ahi <= 0 ? -ahi : 0;
+  const mag = Math.max(-alo, ahi);
+  const lo = mig === 0 ? 1 : Math.max(1, widenDown(Math.cosh(mig), WIDEN));
+  const hi = mag === Infinity ? Infinity : mag === 0 ? 1 : widenUp(Math.cosh(mag), WIDEN);
+  put(out, o, lo, hi);
+  return F_ASSUMED | ovf1(lo, hi, alo, ahi);
+}
+
+/** tanh, increasing, clamped to [−1, 1]; tanh(0) = 0 exactly. */
+export function kTanh(out: Out, o: number, alo: number, ahi: number): number {
+  if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
+  const lo = alo === 0 ? 0 : Math.max(-1, widenDown(Math.tanh(alo), WIDEN));
+  const hi = ahi === 0 ? 0 : Math.min(1, widenUp(Math.tanh(ahi), WIDEN));
+  put(out, o, lo, hi);
+  return F_ASSUMED;
+}
+
+/**
+ * Bounds of x^y at a corner (x ≥ 0, x, y endpoints, possibly infinite), taking limits at the
+ * boundary of the domain: 0^y = 0 (y > 0), 1 (y = 0, the limit along x → 0+ is 1 only on y = 0,
+ * which is enough for a hull), +Inf (y < 0). Writes [down, up] to scratch.
+ */
+function powCorner(x: number, y: number, toUpper: boolean): number {
+  if (x === 0) return y > 0 ? 0 : y === 0 ? 1 : Infinity;
+  if (x === 1 || y === 0) return 1;
+  if (y === 1) return x;
+  if (x === Infinity) return y > 0 ? Infinity : 0;
+  if (y === Infinity) return x > 1 ? Infinity : 0;
+  if (y === -Infinity) return x > 1 ? 0 : Infinity;
+  const v = Math.pow(x, y);
+  return toUpper ? widenUp(v, WIDEN_POW) : Math.max(0, widenDown(v, WIDEN_POW));
+}
+
+/**
+ * Real power a^b = exp(b·log a) on the domain {x > 0} ∪ {x = 0, y > 0} (IEEE 1788 pow). x^y is
+ * monotone in x for fixed y and in y for fixed x, so the hull is attained at the corners of
+ * (a ∩ [0, ∞)) × b (with limits at x = 0). F_UNDEF when the box leaves the domain.
+ */
+export function kPow(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
+  if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
+  if (ahi < 0 || (ahi === 0 && bhi <= 0)) {
+    put(out, o, Infinity, -Infinity);
+    return F_UNDEF;
+  }
+  let flags = alo < 0 ? F_UNDEF : 0;
+  const xlo = alo > 0 ? alo : 0;
+  if (xlo === 0 && blo <= 0) flags |= F_UNDEF;
+  if (ahi === 0) {
+    put(out, o, 0, 0);
+    return flags;
+  }
+  // When x = 0 is in the box and y straddles 0, the y = 0 corner value 1 is already present from (ahi, 0)?
+  // Not necessarily — include the x→0+ limits at y = blo, bhi, which bound the hull (monotone in y).
+  const lo = Math.min(
+    powCorner(xlo, blo, false),
+    powCorner(xlo, bhi, false),
+    powCorner(ahi, blo, false),
+    powCorner(ahi, bhi, false),
+  );
+  const hi = Math.max(
+    powCorner(xlo, blo, true),
+    powCorner(xlo, bhi, true),
+    powCorner(ahi, blo, true),
+    powCorner(ahi, bhi, true),
+  );
+  put(out, o, lo, hi);
+  return flags | F_ASSUMED | ((flags & F_UNDEF) === 0 ? ovf2(lo, hi, alo, ahi, blo, bhi) : 0);
+}
+
+export { up, down };

@@ -1,0 +1,76 @@
+/**
+ * Decimal strings written by the prover: outward rounding to a number of significant digits,
+ * the small relative widening of reported enclosures, exact comparisons and exact ± on decimal
+ * strings. All arithmetic here is decimal.js with an explicit rounding mode per operation.
+ */
+import { Decimal } from 'decimal.js';
+
+/** Exact work on short decimals: 2000 significant digits, directed modes set per call. */
+const Exact = Decimal.clone({ precision: 2000, rounding: Decimal.ROUND_HALF_EVEN });
+const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
+const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
+function ctorOf(m: RoundMode): typeof Decimal {
+  return m === 'floor' ? ExactFloor : m === 'ceil' ? ExactCeil : Exact;
+}
+
+export type RoundMode = 'floor' | 'ceil' | 'nearest';
+
+function modeOf(m: RoundMode): Decimal.Rounding {
+  return m === 'floor' ? Decimal.ROUND_FLOOR : m === 'ceil' ? Decimal.ROUND_CEIL : Decimal.ROUND_HALF_EVEN;
+}
+
+/** s (an exact decimal literal) rounded to `digits` significant digits in the given direction. */
+export function roundDecimal(s: string, digits: number, mode: RoundMode): string {
+  const d = new Exact(s);
+  if (d.isZero()) return '0';
+  return d.toSignificantDigits(digits, modeOf(mode)).toString();
+}
+
+/** Exact comparison of two decimal literals: −1, 0, 1. */
+export function compareDecimal(a: string, b: string): number {
+  return new Exact(a).cmp(new Exact(b));
+}
+
+/** a + b (or a − b) rounded in the given direction at 2000 digits (exact for ordinary inputs). */
+export function addDecimal(a: string, b: string, mode: RoundMode): string {
+  const D = ctorOf(mode);
+  return new D(a).add(new D(b)).toString();
+}
+export function subDecimal(a: string, b: string, mode: RoundMode): string {
+  const D = ctorOf(mode);
+  return new D(a).sub(new D(b)).toString();
+}
+
+/** |a − b| rounded up. */
+export function absDiffUp(a: string, b: string): string {
+  const x = new ExactCeil(a);
+  const y = new ExactCeil(b);
+  return (x.gte(y) ? x.sub(y) : y.sub(x)).toString();
+}
+
+/** Relative widening margin of reported enclosures (2^-30) and the absolute floor (1e-300). */
+export const REPORT_RELATIVE_MARGIN = '9.3132257461547851562e-10';
+export const REPORT_ABSOLUTE_MARGIN = '1e-300';
+
+/**
+ * [lo, hi] widened outward by |·|·2^-30 + 1e-300 and rounded outward to `digits` significant
+ * digits, so an independent checker computing with different rounding lands inside it.
+ */
+export function widenPair(lo: string, hi: string, digits = 20): [string, string] {
+  const Dn = ExactFloor;
+  const Up = ExactCeil;
+  const l = new Dn(lo);
+  const h = new Up(hi);
+  const wl = l.sub(l.abs().mul(REPORT_RELATIVE_MARGIN).toSignificantDigits(30, Decimal.ROUND_CEIL)).sub(REPORT_ABSOLUTE_MARGIN);
+  const wh = h.add(h.abs().mul(REPORT_RELATIVE_MARGIN).toSignificantDigits(30, Decimal.ROUND_CEIL)).add(REPORT_ABSOLUTE_MARGIN);
+  return [wl.toSignificantDigits(digits, Decimal.ROUND_FLOOR).toString(), wh.toSignificantDigits(digits, Decimal.ROUND_CEIL).toString()];
+}
+
+/** Certainly below 1 in absolute value: hi < 1 and lo > −1 (exact). */
+export function pairAbsBelowOne(p: [string, string]): boolean {
+  return compareDecimal(p[1], '1') < 0 && compareDecimal(p[0], '-1') > 0;
+}
+/** Certainly above 1 in absolute value: lo > 1 or hi < −1 (exact). */
+export function pairAbsAboveOne(p: [string, string]): boolean {
+  return compareDecimal(p[0], '1') > 0 || compareDecimal(p[1], '-1') < 0;
+}

@@ -1,0 +1,380 @@
+/**
+ * The Krawczyk test on the multiple-shooting system, written once over an interval arithmetic
+ * (float64 intervals or multiprecision intervals), plus the 1-D interval Newton step.
+ *
+ * Shooting system (DESIGN.md §4): unknowns x_0..x_{p−1} ∈ R^n (vector of N = p·n numbers, point i
+ * at offset i·n), F_i(x) = x_{(i+1) mod p} − f(x_i). Its Jacobian J is block-cyclic bidiagonal:
+ * block row i holds −Df(x_i) at block column i and I at block column (i+1) mod p.
+ *
+ * Krawczyk operator, for a box X, a point m ∈ X and ANY real N×N matrix C:
+ *   K(X) = m − C·F(m) + (I − C·J(X))·(X − m)
+ * where F(m) is an interval enclosure of F at m and J(X) an interval enclosure of J over X.
+ *  - K(X) ⊂ int X  ⇒ F has exactly one zero in X (Krawczyk 1969; uniqueness as in Moore's
+ *    interval analysis, from memory).
+ *  - K(X) ∩ X = ∅ ⇒ F has no zero in X (every zero of F in X lies in K(X)).
+ * The proof needs f continuous (and differentiable, or with valid slope enclosures) on X: an
+ * evaluation whose `status.continuous` ends false yields the outcome `domain`, never a proof.
+ *
+ * Cost: C is dense; the product C·J(X) exploits the two nonzero blocks per block column of J,
+ * so one test costs O(N²·(n + 3)) interval operations and O(N) memory (rows are formed and
+ * consumed one at a time).
+ */
+import type { IntervalArithmetic } from '../interval/arithmetic.js';
+import { resetStatus } from '../interval/arithmetic.js';
+import type { MapEvaluator } from '../model/types.js';
+
+/** A real N×N matrix given entry-wise as degenerate (point) elements of T. */
+export interface Preconditioner<T> {
+  readonly size: number;
+  /** The exact point C[r][c] as a T (degenerate interval, or a tight enclosure of it). */
+  entry(r: number, c: number): T;
+}
+
+export interface ShootingSystem<T> {
+  readonly arith: IntervalArithmetic<T>;
+  readonly evaluator: MapEvaluator<T>;
+  readonly period: number;
+  readonly dim: number;
+}
+
+export type KrawczykOutcome<T> =
+  /** K(X) ⊂ int X: exactly one zero of the shooting system in X. `image` = K(X). */
+  | { kind: 'inside'; image: T[]; assumed: boolean }
+  /** K(X) ∩ X = ∅ in coordinate `index`: no zero in X. */
+  | { kind: 'excluded'; image: T[]; index: number; assumed: boolean }
+  /** Neither; `image` = K(X) (used by epsilon-inflation). */
+  | { kind: 'undecided'; image: T[]; reason: string; assumed: boolean }
+  /** An evaluation left the domain of continuity: nothing is claimed. */
+  | { kind: 'domain'; where: 'centre' | 'box'; point: number };
+
+/**
+ * Enclosure of F(m) for the shooting system at the (thin) point vector m.
+ * Returns null when the evaluation left the domain (status.continuous false).
+ */
+export function shootingResidual<T>(sys: ShootingSystem<T>, m: readonly T[]): { value: T[]; assumed: boolean } | { domain: number } {
+  const { arith, evaluator, period: p, dim: n } = sys;
+  const xi: T[] = new Array<T>(n);
+  const fx: T[] = new Array<T>(n);
+  const out: T[] = new Array<T>(p * n);
+  let assumed = false;
+  for (let i = 0; i < p; i++) {
+    for (let j = 0; j < n; j++) xi[j] = m[i * n + j]!;
+    resetStatus(arith);
+    evaluator.image(xi, fx);
+    if (!arith.status.continuous) return { domain: i };
+    assumed ||= arith.status.assumed;
+    const next = ((i + 1) % p) * n;
+    for (let j = 0; j < n; j++) out[i * n + j] = arith.sub(m[next + j]!, fx[j]!);
+  }
+  return { value: out, assumed };
+}
+
+/**
+ * Interval Jacobian blocks A_i ⊇ Df(X_i) (row-major n×n per point) over the whole box, or the
+ * index of the point whose evaluation left the domain.
+ */
+export function shootingJacobianBlocks<T>(sys: ShootingSystem<T>, box: readonly T[]): { blocks: T[]; images: T[]; assumed: boolean } | { domain: number } {
+  const { arith, evaluator, period: p, dim: n } = sys;
+  const xi: T[] = new Array<T>(n);
+  const fx: T[] = new Array<T>(n);
+  const jac: T[] = new Array<T>(n * n);
+  const blocks: T[] = new Array<T>(p * n * n);
+  const images: T[] = new Array<T>(p * n);
+  let assumed = false;
+  for (let i = 0; i < p; i++) {
+    for (let j = 0; j < n; j++) xi[j] = box[i * n + j]!;
+    resetStatus(arith);
+    evaluator.imageAndJacobian(xi, fx, jac);
+    if (!arith.status.continuous) return { domain: i };
+    assumed ||= arith.status.assumed;
+    for (let k = 0; k < n * n; k++) blocks[i * n * n + k] = jac[k]!;
+    for (let j = 0; j < n; j++) images[i * n + j] = fx[j]!;
+  }
+  return { blocks, images, assumed };
+}
+
+/**
+ * The Krawczyk test for the shooting system on the box X (length N = p·n) with point m ∈ X
+ * (thin elements of T, or tight enclosures of the intended point: the operator is inclusion-
+ * monotone, so an enclosure of m yields an enclosure of K) and preconditioner C.
+ *
+ * `target` (default X) is the box that K(X) must lie in the interior of. Passing an inner
+ * enclosure W ⊂ X of a written box lets a caller verify K(W) ⊂ K(X) ⊂ int(inner W) ⊂ int W for a
+ * box W whose ends are not representable in T (DESIGN.md §5: re-test the written box).
+ *
+ * Special cases: any non-continuous evaluation → `domain`; m not inside X → `undecided`.
+ * Tightness: one interval evaluation of each operand; no wrapping beyond the dense products.
+ */
+export function krawczykShooting<T>(
+  sys: ShootingSystem<T>,
+  m: readonly T[],
+  box: readonly T[],
+  C: Preconditioner<T>,
+  target: readonly T[] = box,
+): KrawczykOutcome<T> {
+  const { arith, period: p, dim: n } = sys;
+  const N = p * n;
+  if (m.length !== N || box.length !== N || C.size !== N || target.length !== N) {
+    throw new RangeError(`krawczykShooting: sizes differ (N=${N}, m=${m.length}, X=${box.length}, C=${C.size})`);
+  }
+  for (let k = 0; k < N; k++) {
+    if (!arith.isSubset(m[k]!, box[k]!)) {
+      return { kind: 'undecided', image: box.slice(), reason: `the point m is not inside X (coordinate ${k})`, assumed: false };
+    }
+  }
+  const res = shootingResidual(sys, m);
+  if ('domain' in res) return { kind: 'domain', where: 'centre', point: res.domain };
+  const jb = shootingJacobianBlocks(sys, box);
+  if ('domain' in jb) return { kind: 'domain', where: 'box', point: jb.domain };
+  const F = res.value;
+  const A = jb.blocks;
+  const assumed = res.assumed || jb.assumed;
+  const d: T[] = new Array<T>(N);
+  for (let k = 0; k < N; k++) d[k] = arith.sub(box[k]!, m[k]!);
+  const zero = arith.fromNumber(0);
+  const one = arith.fromNumber(1);
+  const nn = n * n;
+  const image: T[] = new Array<T>(N);
+  const rowC: T[] = new Array<T>(N);
+  let inside = true;
+  let excludedAt = -1;
+  let firstOut = -1;
+  for (let r = 0; r < N; r++) {
+    for (let k = 0; k < N; k++) rowC[k] = C.entry(r, k);
+    // y_r = m_r − Σ_k C[r,k]·F_k
+    let cf: T = zero;
+    for (let k = 0; k < N; k++) cf = arith.add(cf, arith.mul(rowC[k]!, F[k]!));
+    let acc: T = arith.sub(m[r]!, cf);
+    // (I − C·J(X))[r, col]·d[col];  (C·J)[r, b·n+j] = C[r, prev(b)·n+j] − Σ_l C[r, b·n+l]·A_b[l, j]
+    for (let b = 0; b < p; b++) {
+      const prev = ((b - 1 + p) % p) * n;
+      for (let j = 0; j < n; j++) {
+        const col = b * n + j;
+        let cj: T = rowC[prev + j]!;
+        for (let l = 0; l < n; l++) cj = arith.sub(cj, arith.mul(rowC[b * n + l]!, A[b * nn + l * n + j]!));
+        const e = r === col ? arith.sub(one, cj) : arith.neg(cj);
+        acc = arith.add(acc, arith.mul(e, d[col]!));
+      }
+    }
+    image[r] = acc;
+    if (!arith.isInterior(acc, target[r]!)) {
+      inside = false;
+      if (firstOut < 0) firstOut = r;
+      if (excludedAt < 0 && arith.disjoint(acc, box[r]!)) excludedAt = r;
+    }
+  }
+  if (inside) return { kind: 'inside', image, assumed };
+  if (excludedAt >= 0) return { kind: 'excluded', image, index: excludedAt, assumed };
+  return { kind: 'undecided', image, reason: `K(X) not inside int X (first at coordinate ${firstOut})`, assumed };
+}
+
+/** Dense preconditioner over a row-major Float64Array (float path). */
+export function floatPreconditioner<T>(arith: IntervalArithmetic<T>, c: Float64Array, size: number): Preconditioner<T> {
+  return { size, entry: (r, k) => arith.fromNumber(c[r * size + k]!) };
+}
+
+/** Dense preconditioner from precomputed point elements (multiprecision path). */
+export function pointPreconditioner<T>(entries: readonly T[], size: number): Preconditioner<T> {
+  return { size, entry: (r, k) => entries[r * size + k]! };
+}
+
+export type NewtonStepOutcome<T> =
+  | { kind: 'ok'; image: T; /** N(X) ∩ X, null when empty (then X holds no zero). */ next: T | null; inside: boolean }
+  | { kind: 'domain' }
+  | { kind: 'zero-derivative' };
+
+/**
+ * One 1-D interval Newton step N(X) = m − f(m)/f'(X), m = midPoint(X).
+ * Contract: every zero of f in X lies in N(X) ∩ X; N(X) ⊂ int X ⇒ exactly one zero in X
+ * (Moore 1966, from memory). `f` returns an enclosure of f at a thin argument; `df` an enclosure
+ * of f' over a box. Special cases: f'(X) ∋ 0 → `zero-derivative` (no extended division here);
+ * domain left → `domain`. Tightness: one division; quadratic contraction near a simple zero.
+ */
+export function intervalNewtonStep<T>(
+  arith: IntervalArithmetic<T>,
+  f: (x: T) => T,
+  df: (x: T) => T,
+  X: T,
+): NewtonStepOutcome<T> {
+  const m = arith.midPoint(X);
+  resetStatus(arith);
+  const fm = f(m);
+  const dX = df(X);
+  if (!arith.status.continuous) return { kind: 'domain' };
+  const zero = arith.fromNumber(0);
+  if (!(arith.certainlyLt(zero, dX) || arith.certainlyLt(dX, zero))) return { kind: 'zero-derivative' };
+  const image = arith.sub(m, arith.div(fm, dX));
+  return { kind: 'ok', image, next: arith.intersect(image, X), inside: arith.isInterior(image, X) };
+}
+
+/**
+ * A Krawczyk test prepared once for a fixed centre m and preconditioner C, then applied to many
+ * boxes (epsilon-inflation, uniqueness radius, re-test of the written box).
+ *
+ * Uses the centred splitting (valid for every real C and every point J_m ∈ J(m)):
+ *   I − C·J(X) ⊆ E + C·(J(m) − J(X)),  E = I − C·J(m),
+ * and J(m) − J(X) is block-diagonal with blocks A_i(X) − A_i(m) (the identity blocks cancel), so
+ *   K(X) ⊆ y₀ + E·(X − m) + C·v,   y₀ = m − C·F(m),   v_i = (A_i(X) − A_i(m))·(X_i − m_i).
+ * y₀ and E are formed once (O(N²·(n + 3))). Per box:
+ *  - 'dense' mode: E·d and C·v as dense interval products, O(N²);
+ *  - 'grouped' mode (large N): columns split into G contiguous groups; with precomputed upper
+ *    bounds S_rg ≥ Σ_{c∈g} |C_rc| and T_rg ≥ Σ_{c∈g} |E_rc|, the two products are enclosed by
+ *    ±Σ_g (T_rg·max_{c∈g}|d_c| + S_rg·max_{c∈g}|v_c|), O(N·G). Coarser than dense (a box whose
+ *    coordinates differ by many orders of magnitude inside one group loses), never unsound.
+ */
+export interface KrawczykPlan<T> {
+  readonly sys: ShootingSystem<T>;
+  readonly m: readonly T[];
+  readonly mode: 'dense' | 'grouped';
+  /** m − C·F(m). */
+  readonly y0: readonly T[];
+  /** A_i(m) blocks. */
+  readonly Am: readonly T[];
+  readonly C: Preconditioner<T>;
+  /** dense: E entries N×N. */
+  readonly E: readonly T[] | null;
+  /** grouped: bounds (thin T) N×G for |C| and |E|, and group starts. */
+  readonly Sg: readonly T[] | null;
+  readonly Tg: readonly T[] | null;
+  readonly groupStart: readonly number[];
+  readonly assumed: boolean;
+}
+
+export function prepareKrawczyk<T>(
+  sys: ShootingSystem<T>,
+  m: readonly T[],
+  C: Preconditioner<T>,
+  opts: { mode?: 'dense' | 'grouped' | 'auto'; groups?: number } = {},
+): KrawczykPlan<T> | { domain: number; where: 'centre' } {
+  const { arith: a, period: p, dim: n } = sys;
+  const N = p * n;
+  const nn = n * n;
+  const res = shootingResidual(sys, m);
+  if ('domain' in res) return { domain: res.domain, where: 'centre' };
+  const jb = shootingJacobianBlocks(sys, m);
+  if ('domain' in jb) return { domain: jb.domain, where: 'centre' };
+  const mode = opts.mode === 'dense' || opts.mode === 'grouped' ? opts.mode : N > 256 ? 'grouped' : 'dense';
+  const G = mode === 'grouped' ? Math.min(N, Math.max(1, opts.groups ?? 64)) : 0;
+  const groupStart: number[] = [];
+  for (let g = 0; g < G; g++) groupStart.push(Math.floor((g * N) / G));
+  groupStart.push(N);
+  const zero = a.fromNumber(0);
+  const one = a.fromNumber(1);
+  const A = jb.blocks;
+  const y0: T[] = new Array<T>(N);
+  const E: T[] | null = mode === 'dense' ? new Array<T>(N * N) : null;
+  const Sg: T[] | null = mode === 'grouped' ? new Array<T>(N * G) : null;
+  const Tg: T[] | null = mode === 'grouped' ? new Array<T>(N * G) : null;
+  const rowC: T[] = new Array<T>(N);
+  for (let r = 0; r < N; r++) {
+    for (let k = 0; k < N; k++) rowC[k] = C.entry(r, k);
+    let cf: T = zero;
+    for (let k = 0; k < N; k++) cf = a.add(cf, a.mul(rowC[k]!, res.value[k]!));
+    y0[r] = a.sub(m[r]!, cf);
+    let g = 0;
+    let sC: T = zero;
+    let sE: T = zero;
+    for (let b = 0; b < p; b++) {
+      const prev = ((b - 1 + p) % p) * n;
+      for (let j = 0; j < n; j++) {
+        const col = b * n + j;
+        let cj: T = rowC[prev + j]!;
+        for (let l = 0; l < n; l++) cj = a.sub(cj, a.mul(rowC[b * n + l]!, A[b * nn + l * n + j]!));
+        const e = r === col ? a.sub(one, cj) : a.neg(cj);
+        if (E !== null) E[r * N + col] = e;
+        else {
+          sC = a.add(sC, a.fromNumber(a.magUp(rowC[col]!)));
+          sE = a.add(sE, a.fromNumber(a.magUp(e)));
+          if (col + 1 === groupStart[g + 1]) {
+            Sg![r * G + g] = a.fromNumber(a.hiUp(sC));
+            Tg![r * G + g] = a.fromNumber(a.hiUp(sE));
+            sC = zero;
+            sE = zero;
+            g++;
+          }
+        }
+      }
+    }
+  }
+  return { sys, m, mode, y0, Am: A, C, E, Sg, Tg, groupStart, assumed: res.assumed || jb.assumed };
+}
+
+/**
+ * The Krawczyk test of a prepared plan on box X (m must lie in X); `target` as in
+ * `krawczykShooting`. Same contract and outcomes as `krawczykShooting`.
+ */
+export function krawczykPlanned<T>(plan: KrawczykPlan<T>, box: readonly T[], target: readonly T[] = box): KrawczykOutcome<T> {
+  const { sys, m, y0, Am } = plan;
+  const { arith: a, period: p, dim: n } = sys;
+  const N = p * n;
+  const nn = n * n;
+  for (let k = 0; k < N; k++) {
+    if (!a.isSubset(m[k]!, box[k]!)) {
+      return { kind: 'undecided', image: box.slice(), reason: `the point m is not inside X (coordinate ${k})`, assumed: false };
+    }
+  }
+  const jb = shootingJacobianBlocks(sys, box);
+  if ('domain' in jb) return { kind: 'domain', where: 'box', point: jb.domain };
+  const assumed = plan.assumed || jb.assumed;
+  const zero = a.fromNumber(0);
+  const d: T[] = new Array<T>(N);
+  for (let k = 0; k < N; k++) d[k] = a.sub(box[k]!, m[k]!);
+  const v: T[] = new Array<T>(N);
+  for (let i = 0; i < p; i++) {
+    for (let r = 0; r < n; r++) {
+      let s: T = zero;
+      for (let c = 0; c < n; c++) {
+        const delta = a.sub(jb.blocks[i * nn + r * n + c]!, Am[i * nn + r * n + c]!);
+        s = a.add(s, a.mul(delta, d[i * n + c]!));
+      }
+      v[i * n + r] = s;
+    }
+  }
+  const image: T[] = new Array<T>(N);
+  if (plan.mode === 'dense') {
+    const E = plan.E!;
+    for (let r = 0; r < N; r++) {
+      let acc: T = y0[r]!;
+      for (let c = 0; c < N; c++) {
+        acc = a.add(acc, a.mul(E[r * N + c]!, d[c]!));
+        acc = a.add(acc, a.mul(plan.C.entry(r, c), v[c]!));
+      }
+      image[r] = acc;
+    }
+  } else {
+    const G = plan.groupStart.length - 1;
+    const md: T[] = new Array<T>(G);
+    const mv: T[] = new Array<T>(G);
+    for (let g = 0; g < G; g++) {
+      let xd = 0;
+      let xv = 0;
+      for (let c = plan.groupStart[g]!; c < plan.groupStart[g + 1]!; c++) {
+        xd = Math.max(xd, a.magUp(d[c]!));
+        xv = Math.max(xv, a.magUp(v[c]!));
+      }
+      md[g] = a.fromNumber(xd);
+      mv[g] = a.fromNumber(xv);
+    }
+    const Sg = plan.Sg!;
+    const Tg = plan.Tg!;
+    for (let r = 0; r < N; r++) {
+      let s: T = zero;
+      for (let g = 0; g < G; g++) s = a.add(s, a.add(a.mul(Tg[r * G + g]!, md[g]!), a.mul(Sg[r * G + g]!, mv[g]!)));
+      const bound = a.hiUp(s);
+      image[r] = a.inflate(y0[r]!, bound);
+    }
+  }
+  let inside = true;
+  let excludedAt = -1;
+  let firstOut = -1;
+  for (let r = 0; r < N; r++) {
+    if (!a.isInterior(image[r]!, target[r]!)) {
+      inside = false;
+      if (firstOut < 0) firstOut = r;
+      if (excludedAt < 0 && a.disjoint(image[r]!, box[r]!)) excludedAt = r;
+    }
+  }
+  if (inside) return { kind: 'inside', image, assumed };
+  if (excludedAt >= 0) return { kind: 'excluded', image, index: excludedAt, assumed };
+  return { kind: 'undecided', image, reason: `K(X) not inside int X (first at coordinate ${firstOut})`, assumed };
+}

@@ -1,0 +1,286 @@
+/**
+ * One proof attempt at a fixed precision, generic over the interval arithmetic:
+ * epsilon-inflation to an existence box, writing the box as outward-rounded decimals and
+ * re-testing exactly what was written, the uniqueness radius, minimal period and stability.
+ *
+ * Soundness rests on `krawczykShooting` (krawczyk.ts) and the kernel's enclosures; the centre,
+ * the preconditioner and every search choice here are heuristic and cannot make a claim false.
+ */
+import type { IntervalArithmetic } from '../interval/arithmetic.js';
+import type { MapEvaluator } from '../model/types.js';
+import { absDiffUp, addDecimal, compareDecimal, roundDecimal, subDecimal } from './decimal-out.js';
+import {
+  krawczykPlanned,
+  prepareKrawczyk,
+  shootingJacobianBlocks,
+  type KrawczykPlan,
+  type KrawczykOutcome,
+  type Preconditioner,
+  type ShootingSystem,
+} from './krawczyk.js';
+import { orbitStability } from './stability.js';
+import type { DecimalPair, NotProvenReason, ProvenStability } from './types.js';
+
+export interface AttemptInput<T> {
+  arith: IntervalArithmetic<T>;
+  evaluator: MapEvaluator<T>;
+  period: number;
+  dim: number;
+  /** Thin centre (length p·n). */
+  centre: T[];
+  C: Preconditioner<T>;
+  /** Significant digits of written decimals. */
+  digits: number;
+  /** Search the uniqueness radius (default true). */
+  uniqueness: boolean;
+  maxInflations: number;
+}
+
+export interface AttemptClaims {
+  centre: string[][];
+  boxes: DecimalPair[][];
+  uniquenessRadius: string | null;
+  minimalPeriod: number | null;
+  stability: ProvenStability;
+  assumed: boolean;
+  /** Existence, minimal period and (n <= 2) stability all established. */
+  complete: boolean;
+  /** What is missing when not complete. */
+  missing: string;
+}
+
+export type AttemptResult =
+  | { kind: 'proven'; claims: AttemptClaims }
+  | { kind: 'failed'; reason: NotProvenReason; detail: string };
+
+/** Union hull of two intervals. */
+function hullUnion<T>(a: IntervalArithmetic<T>, x: T, y: T): T {
+  const lo = a.certainlyLe(a.lo(x), a.lo(y)) ? a.lo(x) : a.lo(y);
+  const hi = a.certainlyLe(a.hi(x), a.hi(y)) ? a.hi(y) : a.hi(x);
+  return a.hull(lo, hi);
+}
+
+/** Outer and inner T-enclosures of the decimal box [lo, hi]; inner null when empty in T. */
+function writtenEnclosures<T>(a: IntervalArithmetic<T>, lo: string, hi: string): { outer: T; inner: T | null } {
+  const l = a.fromDecimal(lo);
+  const h = a.fromDecimal(hi);
+  const outer = a.hull(a.lo(l), a.hi(h));
+  const il = a.hi(l);
+  const ih = a.lo(h);
+  const inner = a.certainlyLt(il, ih) ? a.hull(il, ih) : null;
+  return { outer, inner };
+}
+
+function describe<T>(out: KrawczykOutcome<T>): string {
+  switch (out.kind) {
+    case 'inside':
+      return 'K(X) ⊂ int X';
+    case 'excluded':
+      return `K(X) ∩ X = ∅ at coordinate ${out.index}: no orbit in the box`;
+    case 'undecided':
+      return out.reason;
+    case 'domain':
+      return `evaluation left the domain at point ${out.point} (${out.where === 'centre' ? 'at the centre' : 'over the box'})`;
+  }
+}
+
+/** Plan for the written centre strings (m enclosed by `fromDecimal`, tight, maybe not thin). */
+export function writtenPlan<T>(sys: ShootingSystem<T>, C: Preconditioner<T>, centre: readonly string[]): KrawczykPlan<T> | { domain: number } {
+  const m = centre.map((c) => sys.arith.fromDecimal(c));
+  return prepareKrawczyk(sys, m, C);
+}
+
+/**
+ * Verify K(W) ⊂ int W for the decimal box W = [lo, hi] (per coordinate) around the plan's centre:
+ * K is evaluated on the outer enclosure of W (K(W) ⊂ K(outer W), inclusion monotonicity) and
+ * compared with the inner enclosure of W. `centre` must be the strings the plan was made from.
+ */
+export function verifyWrittenBox<T>(
+  plan: KrawczykPlan<T>,
+  centre: readonly string[],
+  lo: readonly string[],
+  hi: readonly string[],
+): KrawczykOutcome<T> | { kind: 'unrepresentable' } {
+  const a = plan.sys.arith;
+  const N = centre.length;
+  const outer: T[] = new Array<T>(N);
+  const inner: T[] = new Array<T>(N);
+  for (let k = 0; k < N; k++) {
+    if (compareDecimal(lo[k]!, centre[k]!) > 0 || compareDecimal(centre[k]!, hi[k]!) > 0) return { kind: 'unrepresentable' };
+    const e = writtenEnclosures(a, lo[k]!, hi[k]!);
+    if (e.inner === null) return { kind: 'unrepresentable' };
+    outer[k] = e.outer;
+    inner[k] = e.inner;
+  }
+  return krawczykPlanned(plan, outer, inner);
+}
+
+export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
+  const { arith: a, period: p, dim: n, C, digits } = inp;
+  const N = p * n;
+  const sys: ShootingSystem<T> = { arith: a, evaluator: inp.evaluator, period: p, dim: n };
+  const m = inp.centre;
+  // Epsilon-inflation (Rump): X ← hull(K(X), m) widened by 10 % of its width + η.
+  const relTiny = Math.pow(2, -(a.bits - 4));
+  const absTiny = 1e-300;
+  const eta = m.map((x) => a.magUp(x) * relTiny + absTiny);
+  let X = m.map((x, k) => a.inflate(x, eta[k]!));
+  const plan = prepareKrawczyk(sys, m, C);
+  if ('domain' in plan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the centre left the domain at point ${plan.domain}` };
+  let last: KrawczykOutcome<T> | null = null;
+  let found = false;
+  for (let it = 0; it < inp.maxInflations; it++) {
+    last = krawczykPlanned(plan, X);
+    if (last.kind === 'inside') {
+      found = true;
+      break;
+    }
+    if (last.kind === 'domain') return { kind: 'failed', reason: 'domain', detail: describe(last) };
+    const K = last.image;
+    const next: T[] = new Array<T>(N);
+    for (let k = 0; k < N; k++) {
+      const w = a.widUp(K[k]!);
+      if (!Number.isFinite(w)) return { kind: 'failed', reason: 'undecided', detail: `Krawczyk image unbounded (coordinate ${k})` };
+      next[k] = a.inflate(hullUnion(a, K[k]!, m[k]!), 0.1 * w + eta[k]!);
+    }
+    X = next;
+  }
+  if (!found || last === null) {
+    const why = last === null ? 'no iteration' : describe(last);
+    const reason: NotProvenReason = last?.kind === 'excluded' ? 'excluded' : 'undecided';
+    return { kind: 'failed', reason, detail: `epsilon-inflation did not reach K(X) ⊂ int X in ${inp.maxInflations} steps: ${why}` };
+  }
+  // Write outward-rounded decimals and re-test exactly what was written.
+  const centreS: string[] = new Array<string>(N);
+  const loS: string[] = new Array<string>(N);
+  const hiS: string[] = new Array<string>(N);
+  for (let k = 0; k < N; k++) {
+    const xk = a.toDecimal(X[k]!);
+    loS[k] = roundDecimal(xk.lo, digits, 'floor');
+    hiS[k] = roundDecimal(xk.hi, digits, 'ceil');
+    const mk = a.toDecimal(m[k]!).lo;
+    const short = roundDecimal(mk, digits, 'nearest');
+    centreS[k] = compareDecimal(loS[k]!, short) <= 0 && compareDecimal(short, hiS[k]!) <= 0 ? short : mk;
+  }
+  const wplan = writtenPlan(sys, C, centreS);
+  if ('domain' in wplan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the written centre left the domain at point ${wplan.domain}` };
+  const check = verifyWrittenBox(wplan, centreS, loS, hiS);
+  if (check.kind !== 'inside') {
+    const why = check.kind === 'unrepresentable' ? 'written box not representable' : describe(check);
+    return { kind: 'failed', reason: 'write-check-failed', detail: `re-test of the written box failed: ${why}` };
+  }
+  let assumed = check.assumed;
+  const outer: T[] = new Array<T>(N);
+  for (let k = 0; k < N; k++) outer[k] = writtenEnclosures(a, loS[k]!, hiS[k]!).outer;
+  // Uniqueness radius.
+  let uniquenessRadius: string | null = null;
+  if (inp.uniqueness) {
+    const u = uniquenessSearch(wplan, centreS, loS, hiS);
+    uniquenessRadius = u.radius;
+    assumed ||= u.assumed;
+  }
+  // Minimal period: pairwise disjoint point boxes.
+  const minimalPeriod = pairwiseDisjoint(a, outer, p, n) ? p : null;
+  // Stability over the written boxes.
+  const jb = shootingJacobianBlocks(sys, outer);
+  let stability: ProvenStability;
+  if ('domain' in jb) stability = { class: 'undecided', note: `Jacobian over the boxes left the domain at point ${jb.domain}` };
+  else {
+    stability = orbitStability(a, jb.blocks, p, n);
+    assumed ||= jb.assumed;
+  }
+  const missing: string[] = [];
+  if (minimalPeriod === null) missing.push('minimal period (boxes overlap)');
+  if (n <= 2 && stability.class === 'undecided') missing.push(`stability (${stability.note ?? 'undecided'})`);
+  const group = (s: readonly string[]): string[][] => Array.from({ length: p }, (_, i) => s.slice(i * n, i * n + n));
+  const boxes: DecimalPair[][] = Array.from({ length: p }, (_, i) =>
+    Array.from({ length: n }, (_, j): DecimalPair => [loS[i * n + j]!, hiS[i * n + j]!]),
+  );
+  return {
+    kind: 'proven',
+    claims: {
+      centre: group(centreS),
+      boxes,
+      uniquenessRadius,
+      minimalPeriod,
+      stability,
+      assumed,
+      complete: missing.length === 0,
+      missing: missing.join('; '),
+    },
+  };
+}
+
+/** Exact pairwise disjointness of the p point boxes (in at least one coordinate). */
+function pairwiseDisjoint<T>(a: IntervalArithmetic<T>, boxes: readonly T[], p: number, n: number): boolean {
+  // Sweep on coordinate 0 with outward double bounds as a filter; exact test on candidates.
+  const order = Array.from({ length: p }, (_, i) => i);
+  const lo0 = order.map((i) => a.loDown(boxes[i * n]!));
+  const hi0 = order.map((i) => a.hiUp(boxes[i * n]!));
+  order.sort((i, j) => lo0[i]! - lo0[j]!);
+  for (let s = 0; s < p; s++) {
+    const i = order[s]!;
+    for (let t = s + 1; t < p; t++) {
+      const j = order[t]!;
+      if (lo0[j]! > hi0[i]!) break;
+      let separated = false;
+      for (let c = 0; c < n && !separated; c++) separated = a.disjoint(boxes[i * n + c]!, boxes[j * n + c]!);
+      if (!separated) return false;
+    }
+  }
+  return true;
+}
+
+/** Largest tested r (3 significant digits) with K(Y) ⊂ int Y for Y = centre ± r ⊇ written box. */
+function uniquenessSearch<T>(
+  plan: KrawczykPlan<T>,
+  centre: readonly string[],
+  lo: readonly string[],
+  hi: readonly string[],
+): { radius: string | null; assumed: boolean } {
+  const N = centre.length;
+  let r0 = '0';
+  for (let k = 0; k < N; k++) {
+    for (const e of [absDiffUp(centre[k]!, lo[k]!), absDiffUp(hi[k]!, centre[k]!)]) if (compareDecimal(e, r0) > 0) r0 = e;
+  }
+  r0 = roundDecimal(r0, 3, 'ceil');
+  if (compareDecimal(r0, '0') === 0) return { radius: null, assumed: false };
+  let assumed = false;
+  const test = (r: string): boolean => {
+    const yl = centre.map((c) => subDecimal(c, r, 'floor'));
+    const yh = centre.map((c) => addDecimal(c, r, 'ceil'));
+    const out = verifyWrittenBox(plan, centre, yl, yh);
+    if (out.kind === 'inside') {
+      assumed ||= out.assumed;
+      return true;
+    }
+    return false;
+  };
+  if (!test(r0)) return { radius: null, assumed: false };
+  let good = r0;
+  let bad: string | null = null;
+  let g = Number(r0); // @heuristic search coordinate only; every tested radius is an exact decimal
+  for (let j = 0; j < 14; j++) {
+    const cand = (g * 16).toPrecision(3);
+    if (Number(cand) > 1e6) break;
+    if (test(cand)) {
+      good = cand;
+      g = Number(cand);
+    } else {
+      bad = cand;
+      break;
+    }
+  }
+  if (bad !== null) {
+    let hiR = Number(bad);
+    for (let j = 0; j < 4; j++) {
+      const cand = Math.sqrt(g * hiR).toPrecision(3);
+      if (compareDecimal(cand, good) <= 0 || compareDecimal(cand, bad) >= 0) break;
+      if (test(cand)) {
+        good = cand;
+        g = Number(cand);
+      } else hiR = Number(cand);
+    }
+  }
+  return { radius: good, assumed };
+}

@@ -1,0 +1,208 @@
+/**
+ * `proveOrbit`: float candidate → proven periodic orbit (or a reason why not).
+ *
+ * Pipeline (DESIGN.md §4–5): float Newton on the shooting system; C ≈ J(m)^{-1} from the
+ * structured solver; Krawczyk in float64 intervals with epsilon-inflation; the box written as
+ * outward-rounded decimals and re-tested; uniqueness radius; minimal period; stability. When
+ * float64 cannot establish existence, minimal period and stability (conditioning, e.g. an orbit
+ * passing within 2^-p of a critical point), the same steps are retried with multiprecision
+ * intervals at 106, 212, 424, … bits up to `maxBits`, with Newton and C recomputed in decimal.js
+ * at that precision. The verdict records every precision tried.
+ */
+import { Decimal } from 'decimal.js';
+import type { IntervalArithmetic } from '../interval/arithmetic.js';
+import type { CompiledMap } from '../model/types.js';
+import { floatPreconditioner, pointPreconditioner } from './krawczyk.js';
+import { decimalContext } from './mp-point.js';
+import { attempt, type AttemptClaims } from './orbit-core.js';
+import { floatShootingInverse, refineFloat, refineMp, type MpRefinement } from './refine.js';
+import { decimalOfDouble } from '../interval/decimal-literal.js';
+import { intervalArithmetic } from '../interval/interval-arith.js';
+import { mpIntervalArithmetic } from '../interval/mp.js';
+import type { NotProvenReason, OrbitVerdict, PrecisionAttempt, ProvenOrbit } from './types.js';
+
+export interface ProveOrbitOptions {
+  /** Highest multiprecision working precision in bits (default 512; 53 disables escalation). */
+  maxBits?: number;
+  /** Refine the candidate by Newton first (default true). */
+  refine?: boolean;
+  /** Search the uniqueness radius (default true). */
+  uniqueness?: boolean;
+  /** Escalate also when existence is proven but minimal period/stability are not (default true). */
+  escalateIncomplete?: boolean;
+  /** Epsilon-inflation steps per precision (default 12). */
+  maxInflations?: number;
+}
+
+/** The interval arithmetics the prover runs on (injected so the prover has no fixed kernel). */
+export interface ProverArithmetics {
+  float: () => IntervalArithmetic<unknown>;
+  mp?: (bits: number) => IntervalArithmetic<unknown>;
+}
+
+/** The precision ladder 106, 212, 424, … (≤ maxBits). */
+export function precisionLadder(maxBits: number): number[] {
+  const out: number[] = [];
+  for (let b = 106; b <= maxBits; b *= 2) out.push(b);
+  if (maxBits > 53 && (out.length === 0 || out[out.length - 1]! < maxBits) && maxBits >= 106) out.push(maxBits);
+  return out;
+}
+
+function validate(map: CompiledMap, points: number[][]): string | null {
+  if (!Array.isArray(points) || points.length < 1) return 'the candidate needs at least one point';
+  for (let i = 0; i < points.length; i++) {
+    const pt = points[i]!;
+    if (!Array.isArray(pt) || pt.length !== map.dim) return `point ${i} has ${pt?.length ?? 0} coordinates, the map has ${map.dim}`;
+    for (const v of pt) if (typeof v !== 'number' || !Number.isFinite(v)) return `point ${i} has a non-finite coordinate`;
+  }
+  return null;
+}
+
+/** Score used to pick the best incomplete result across precisions. */
+function score(c: AttemptClaims): number {
+  return (c.minimalPeriod !== null ? 1 : 0) + (c.stability.class !== 'undecided' ? 1 : 0);
+}
+
+export function proveOrbitWith(
+  ariths: ProverArithmetics,
+  map: CompiledMap,
+  points: number[][],
+  opts: ProveOrbitOptions = {},
+): OrbitVerdict {
+  const t0 = performance.now();
+  const attempts: PrecisionAttempt[] = [];
+  const bad = validate(map, points);
+  if (bad !== null) return { status: 'not-proven', reason: 'bad-input', detail: bad, attempts };
+  const p = points.length;
+  const n = map.dim;
+  const N = p * n;
+  const maxBits = opts.maxBits ?? 512;
+  const uniqueness = opts.uniqueness ?? true;
+  const maxInflations = opts.maxInflations ?? 12;
+  const escalateIncomplete = opts.escalateIncomplete ?? true;
+  const start = new Float64Array(N);
+  for (let i = 0; i < p; i++) for (let j = 0; j < n; j++) start[i * n + j] = points[i]![j]!;
+
+  let refineMs = 0;
+  let best: { claims: AttemptClaims; bits: number } | null = null;
+  let lastFailure: { reason: NotProvenReason; detail: string } = { reason: 'undecided', detail: 'not attempted' };
+  let mpStart: Decimal[] | null = null;
+
+  // float64 attempt
+  {
+    const tr = performance.now();
+    const ref = opts.refine === false ? null : refineFloat(map, start, p, n);
+    const x = ref?.x ?? start;
+    let blocks = ref?.blocks;
+    if (!blocks) {
+      blocks = new Float64Array(p * n * n);
+      for (let i = 0; i < p; i++) map.jacobianFloat(x.subarray(i * n, i * n + n), blocks.subarray(i * n * n, (i + 1) * n * n));
+    }
+    refineMs += performance.now() - tr;
+    mpStart = Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
+    if (ref !== null && !ref.converged) {
+      lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${ref.lastStep})` };
+      attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
+    } else {
+      const Cf = floatShootingInverse(blocks, p, n);
+      if (Cf === null) {
+        lastFailure = { reason: 'singular', detail: 'the shooting Jacobian at the candidate is singular to float precision' };
+        attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
+      } else {
+        const a = ariths.float();
+        const centre = Array.from(x, (v) => a.fromNumber(v));
+        const res = attempt({
+          arith: a,
+          evaluator: map.evaluator(a),
+          period: p,
+          dim: n,
+          centre,
+          C: floatPreconditioner(a, Cf, N),
+          digits: 20,
+          uniqueness,
+          maxInflations,
+        });
+        if (res.kind === 'proven') {
+          best = { claims: res.claims, bits: 53 };
+          attempts.push({ bits: 53, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: res.claims.complete ? 'all claims proven' : `not proven: ${res.claims.missing}` });
+        } else {
+          lastFailure = { reason: res.reason, detail: res.detail };
+          attempts.push({ bits: 53, outcome: 'failed', detail: res.detail });
+        }
+      }
+    }
+  }
+
+  const wantMore = (): boolean => best === null || (escalateIncomplete && !best.claims.complete);
+  const hardStop = lastFailure.reason === 'newton-failed' && best === null && opts.refine !== false;
+  if (ariths.mp && wantMore() && !hardStop) {
+    for (const bits of precisionLadder(maxBits)) {
+      if (!wantMore()) break;
+      const a = ariths.mp(bits);
+      const ev = map.evaluator(a);
+      const D = decimalContext(bits);
+      const tr = performance.now();
+      const ref: MpRefinement = refineMp(a, ev, D, mpStart!, p, n);
+      refineMs += performance.now() - tr;
+      if (!ref.converged || ref.inverse === null) {
+        const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${ref.lastStep})`;
+        attempts.push({ bits, outcome: 'failed', detail });
+        if (best === null) lastFailure = { reason: ref.inverse === null ? 'singular' : 'newton-failed', detail };
+        continue;
+      }
+      mpStart = ref.x;
+      const centre = ref.x.map((v) => a.midPoint(a.fromDecimal(v.toString())));
+      const Centries = ref.inverse.map((v) => a.midPoint(a.fromDecimal(v.toString())));
+      const res = attempt({
+        arith: a,
+        evaluator: ev,
+        period: p,
+        dim: n,
+        centre,
+        C: pointPreconditioner(Centries, N),
+        digits: Math.ceil(bits * 0.30103) + 4,
+        uniqueness,
+        maxInflations,
+      });
+      if (res.kind === 'proven') {
+        attempts.push({ bits, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: res.claims.complete ? 'all claims proven' : `not proven: ${res.claims.missing}` });
+        if (best === null || score(res.claims) > score(best.claims)) best = { claims: res.claims, bits };
+      } else {
+        attempts.push({ bits, outcome: 'failed', detail: res.detail });
+        if (best === null) lastFailure = { reason: res.reason, detail: res.detail };
+      }
+    }
+  }
+  const totalMs = performance.now() - t0;
+  if (best === null) return { status: 'not-proven', reason: lastFailure.reason, detail: lastFailure.detail, attempts };
+  const c = best.claims;
+  const orbit: ProvenOrbit = {
+    period: p,
+    dim: n,
+    centre: c.centre,
+    boxes: c.boxes,
+    uniquenessRadius: c.uniquenessRadius,
+    minimalPeriod: c.minimalPeriod,
+    stability: c.stability,
+    bits: best.bits,
+    attempts,
+    assumed: c.assumed,
+    timing: { refineMs, proveMs: totalMs - refineMs, totalMs },
+  };
+  return { status: 'proven', orbit };
+}
+
+/** The default arithmetics: float64 intervals and decimal.js multiprecision intervals. */
+export const defaultArithmetics: ProverArithmetics = {
+  float: () => intervalArithmetic() as IntervalArithmetic<unknown>,
+  mp: (bits: number) => mpIntervalArithmetic(bits) as IntervalArithmetic<unknown>,
+};
+
+/**
+ * Prove the periodic orbit near the float candidate `points` (p × n) of `map`.
+ * Claims are made only from rigorous enclosures (see the module comment); everything else is
+ * 'not-proven' with a reason, or 'undecided' inside the verdict.
+ */
+export function proveOrbit(map: CompiledMap, points: number[][], opts: ProveOrbitOptions = {}): OrbitVerdict {
+  return proveOrbitWith(defaultArithmetics, map, points, opts);
+}

@@ -1,0 +1,151 @@
+/**
+ * Rigorous stability enclosures of a proven orbit, over its boxes X_0..X_{p−1}
+ * (DESIGN.md §4 "Stability"), generic over an interval arithmetic.
+ *
+ *  - n = 1: multiplier Λ = Π f'(X_i) (interval product; contains f'(x_{p−1})···f'(x_0) for the
+ *    orbit's true points since x_i ∈ X_i).
+ *  - n = 2: trace T and determinant D of the monodromy matrix M = Df(X_{p−1})···Df(X_0).
+ *    D = Π det Df(X_i) (multiplicative, no wrapping). T is formed in moving orthogonal frames to
+ *    avoid the wrapping of a plain interval matrix product (whose width grows like the spectral
+ *    radius of |Df|, not of Df): with float rotations Q_k from QR of the float products and
+ *    Q_{−1} = I, M = Q_{p−1}·R_{p−1}···R_0 where R_k = Q_k^{-1}·Df(X_k)·Q_{k−1} is evaluated in
+ *    intervals with Q_k^{-1} enclosed as adj(Q_k)/det(Q_k). Any nonsingular Q_k gives a rigorous
+ *    enclosure; the rotations only make it tight (each R_k is nearly upper triangular).
+ *    Eigenvalues λ = (T ± √(T² − 4D))/2: real when T² − 4D > 0 certainly; the larger in modulus
+ *    is λ₁ = (T + sign(T)·√(T² − 4D))/2 and the other λ₂ = D/λ₁ (no cancellation); complex when
+ *    T² − 4D < 0 certainly, both of modulus √D. Otherwise moduli are not claimed.
+ *  - n ≥ 3: not claimed (class 'undecided').
+ * Every reported enclosure is widened by 2^-30 relative + 1e-300 absolute (decimal-out.ts) and the
+ * class is decided from the widened enclosures only.
+ */
+import type { IntervalArithmetic } from '../interval/arithmetic.js';
+import { compareDecimal as cmp, pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
+import type { DecimalPair, ProvenStability } from './types.js';
+
+function pairOf<T>(arith: IntervalArithmetic<T>, x: T): DecimalPair {
+  const d = arith.toDecimal(x);
+  return widenPair(d.lo, d.hi);
+}
+
+/**
+ * Stability of the orbit whose Jacobian blocks over the boxes are `blocks` (p·n·n, row-major
+ * per point, enclosing Df(X_i)).
+ */
+export function orbitStability<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
+  if (n === 1) return stability1(arith, blocks, p);
+  if (n === 2) return stability2(arith, blocks, p);
+  return { class: 'undecided', note: `stability for dimension ${n} >= 3 is not implemented` };
+}
+
+function stability1<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
+  let lambda: T = blocks[0]!;
+  for (let i = 1; i < p; i++) lambda = arith.mul(lambda, blocks[i]!);
+  if (!isBounded(arith, lambda)) return { class: 'undecided', note: 'the multiplier enclosure is unbounded (overflow)' };
+  const multiplier = pairOf(arith, lambda);
+  if (pairAbsBelowOne(multiplier)) return { class: 'attracting', multiplier };
+  if (pairAbsAboveOne(multiplier)) return { class: 'repelling', multiplier };
+  return { class: 'undecided', multiplier, note: 'the multiplier enclosure contains a value of modulus 1 or straddles it' };
+}
+
+function isBounded<T>(arith: IntervalArithmetic<T>, x: T): boolean {
+  return Number.isFinite(arith.magUp(x)) || arith.kind === 'mp-interval';
+}
+
+/** @heuristic float rotation (c, s) taking the first column of b (2×2 row-major) to (h, 0). */
+function rotationOf(b: Float64Array): [number, number] {
+  const x = b[0]!;
+  const y = b[2]!;
+  const h = Math.hypot(x, y);
+  if (!(h > 0) || !Number.isFinite(h)) return [1, 0];
+  return [x / h, y / h];
+}
+
+function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
+  const a = arith;
+  const mul2 = (x: readonly T[], y: readonly T[]): T[] => [
+    a.add(a.mul(x[0]!, y[0]!), a.mul(x[1]!, y[2]!)),
+    a.add(a.mul(x[0]!, y[1]!), a.mul(x[1]!, y[3]!)),
+    a.add(a.mul(x[2]!, y[0]!), a.mul(x[3]!, y[2]!)),
+    a.add(a.mul(x[2]!, y[1]!), a.mul(x[3]!, y[3]!)),
+  ];
+  // Determinant: product of the per-step determinants.
+  let det = a.fromNumber(1);
+  for (let k = 0; k < p; k++) {
+    const b = blocks.slice(k * 4, k * 4 + 4);
+    det = a.mul(det, a.sub(a.mul(b[0]!, b[3]!), a.mul(b[1]!, b[2]!)));
+  }
+  // Trace in moving frames.
+  let qPrevF = new Float64Array([1, 0, 0, 1]);
+  let qPrev: T[] = [a.fromNumber(1), a.fromNumber(0), a.fromNumber(0), a.fromNumber(1)];
+  let prod: T[] = [a.fromNumber(1), a.fromNumber(0), a.fromNumber(0), a.fromNumber(1)];
+  const midF = new Float64Array(4);
+  const bF = new Float64Array(4);
+  for (let k = 0; k < p; k++) {
+    const blk = blocks.slice(k * 4, k * 4 + 4);
+    for (let e = 0; e < 4; e++) midF[e] = a.midNumber(blk[e]!);
+    bF[0] = midF[0]! * qPrevF[0]! + midF[1]! * qPrevF[2]!;
+    bF[1] = midF[0]! * qPrevF[1]! + midF[1]! * qPrevF[3]!;
+    bF[2] = midF[2]! * qPrevF[0]! + midF[3]! * qPrevF[2]!;
+    bF[3] = midF[2]! * qPrevF[1]! + midF[3]! * qPrevF[3]!;
+    const [c, s] = rotationOf(bF);
+    const qF = new Float64Array([c, -s, s, c]);
+    const q: T[] = [a.fromNumber(c), a.fromNumber(-s), a.fromNumber(s), a.fromNumber(c)];
+    // Q^{-1} enclosed: adj(Q)/det(Q), det(Q) = c² + s² enclosed in intervals.
+    const dq = a.add(a.mul(q[0]!, q[3]!), a.neg(a.mul(q[1]!, q[2]!)));
+    const qInv: T[] = [a.div(q[3]!, dq), a.div(a.neg(q[1]!), dq), a.div(a.neg(q[2]!), dq), a.div(q[0]!, dq)];
+    const rk = mul2(qInv, mul2(blk, qPrev));
+    prod = mul2(rk, prod);
+    qPrevF = qF;
+    qPrev = q;
+  }
+  const m = mul2(qPrev, prod);
+  const trace = a.add(m[0]!, m[3]!);
+  if (!isBounded(a, trace) || !isBounded(a, det)) {
+    return { class: 'undecided', note: 'the monodromy enclosure is unbounded (overflow)' };
+  }
+  const tracePair = pairOf(a, trace);
+  const detPair = pairOf(a, det);
+  const zero = a.fromNumber(0);
+  const disc = a.sub(a.sqr(trace), a.mul(a.fromNumber(4), det));
+  let moduli: DecimalPair[] | undefined;
+  if (a.certainlyLt(zero, disc)) {
+    const root = a.sqrt(disc);
+    const half = a.fromNumber(0.5);
+    let l1: T;
+    let l2: T;
+    if (a.certainlyLt(zero, trace)) {
+      l1 = a.mul(a.add(trace, root), half);
+      l2 = a.certainlyLt(zero, l1) ? a.div(det, l1) : a.mul(a.sub(trace, root), half);
+    } else if (a.certainlyLt(trace, zero)) {
+      l1 = a.mul(a.sub(trace, root), half);
+      l2 = a.certainlyLt(l1, zero) ? a.div(det, l1) : a.mul(a.add(trace, root), half);
+    } else {
+      l1 = a.mul(a.add(trace, root), half);
+      l2 = a.mul(a.sub(trace, root), half);
+    }
+    const m1 = pairOf(a, a.abs(l1));
+    const m2 = pairOf(a, a.abs(l2));
+    moduli = compareLo(m1, m2) <= 0 ? [m1, m2] : [m2, m1];
+  } else if (a.certainlyLt(disc, zero) && a.certainlyLt(zero, det)) {
+    const mod = pairOf(a, a.sqrt(det));
+    moduli = [mod, [mod[0], mod[1]]];
+  }
+  const out: ProvenStability = { class: 'undecided', trace: tracePair, determinant: detPair };
+  if (moduli === undefined) {
+    out.note = 'the sign of T² − 4D is not decided';
+    return out;
+  }
+  out.eigenvalueModuli = moduli;
+  const below = moduli.map((x) => pairAbsBelowOne(x));
+  const above = moduli.map((x) => pairAbsAboveOne(x));
+  if (below.every(Boolean)) out.class = 'attracting';
+  else if (above.every(Boolean)) out.class = 'repelling';
+  else if ((below[0] && above[1]) || (below[1] && above[0])) out.class = 'saddle';
+  else out.note = 'an eigenvalue modulus enclosure contains 1';
+  return out;
+}
+
+function compareLo(x: DecimalPair, y: DecimalPair): number {
+  // Decimal strings: compare numerically through the exact comparator in decimal-out.
+  return cmp(x[0], y[0]);
+}

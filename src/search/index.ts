@@ -1,0 +1,27 @@
+/**
+ * @heuristic Float candidate search (non-rigorous): multi-start damped Newton on the
+ * multiple-shooting system, minimal period, de-duplication of cyclic shifts, approximate
+ * multipliers. Candidates are observations for the prover, never results.
+ */
+export type { Candidate, Multiplier, StabilityGuess, SearchOptions, RefineOptions } from './types.js';
+export {
+  findCandidates,
+  findOrbitFromSeed,
+  findOrbitsFromLongOrbit,
+  nearestCandidate,
+  searchRegion,
+  type SearchRegion,
+  type LongOrbitOptions,
+} from './find.js';
+export { ShootingNewton, type ShootingNewtonResult } from './newton.js';
+export {
+  minimalPeriodApprox,
+  canonicalRotation,
+  comparePoints,
+  sameOrbitUpToShift,
+  approximateMultipliers,
+  multiplierModulus,
+  guessStability,
+} from './orbit.js';
+export { createRng, type Rng } from './prng.js';
+export { SearchOptionError } from './errors.js';

@@ -1,0 +1,51 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+// DESIGN.md §2: the checker shares no arithmetic, parser or proof code with the prover.
+const FORBIDDEN = ['interval', 'expr', 'model', 'search', 'prove', 'linalg', 'windows', 'count'];
+const dir = join(__dirname, '../../src/checker');
+
+/** Every module specifier in import / export-from / dynamic import statements. */
+export function importSpecifiers(src: string): string[] {
+  const out: string[] = [];
+  const re = /(?:^|[\s;])(?:import|export)\s[^'"]*?from\s*['"]([^'"]+)['"]|(?:^|[\s;])import\s*['"]([^'"]+)['"]|import\s*\(\s*['"]([^'"]+)['"]\s*\)|require\s*\(\s*['"]([^'"]+)['"]\s*\)/g;
+  for (const m of src.matchAll(re)) out.push((m[1] ?? m[2] ?? m[3] ?? m[4])!);
+  return out;
+}
+
+function allowed(spec: string): boolean {
+  if (spec === 'decimal.js' || spec.startsWith('node:')) return true;
+  if (spec === '../certificate/types.js') return true;
+  return /^\.\/[\w-]+\.js$/.test(spec); // sibling checker files only
+}
+
+describe('checker independence', () => {
+  const files = readdirSync(dir).filter((f) => f.endsWith('.ts'));
+  it('has files to scan', () => {
+    expect(files.length).toBeGreaterThanOrEqual(5);
+  });
+  it('the scanner recognises the import forms it must police', () => {
+    const src = `import { a } from '../interval/round.js';\nimport type { T } from "../expr/ast.js";\nexport { x } from '../prove/orbit.js';\nconst m = await import('../linalg/dense.js');\nimport '../model/load.js';`;
+    expect(importSpecifiers(src)).toEqual(['../interval/round.js', '../expr/ast.js', '../prove/orbit.js', '../linalg/dense.js', '../model/load.js']);
+    expect(importSpecifiers(src).some(allowed)).toBe(false);
+  });
+  for (const f of files) {
+    it(`${f} imports only decimal.js, node builtins, certificate types and sibling checker files`, () => {
+      const specs = importSpecifiers(readFileSync(join(dir, f), 'utf8'));
+      const bad = specs.filter((s) => !allowed(s) || FORBIDDEN.some((d) => s.includes(`/${d}/`)));
+      expect(bad).toEqual([]);
+    });
+  }
+  it('stays small enough to audit (< 1,500 lines of code, comments and blank lines not counted)', () => {
+    let total = 0;
+    let code = 0;
+    for (const f of files) {
+      const lines = readFileSync(join(dir, f), 'utf8').split('\n');
+      total += lines.length;
+      code += lines.filter((l) => l.trim() !== '' && !/^\s*(\/\/|\/\*\*?|\*)/.test(l)).length;
+    }
+    console.log(`checker size: ${total} lines, ${code} lines of code, in ${files.length} files`);
+    expect(code).toBeLessThan(1500);
+  });
+});
