@@ -31,7 +31,7 @@ export class CertificateWriteError extends Error {
     super(message);
   }
   render(): string {
-    return `error ${this.code}: ${this.path}: ${this.message}\n  hint: ${this.hint}`;
+    return `${this.path}: error [${this.code}]: ${this.message}\n  hint: ${this.hint}`;
   }
 }
 

@@ -54,6 +54,7 @@ export class Elementary {
   /** exp on |r| ≤ 1/256. */
   private expSmall(g: IvCtx, r: Iv): Iv {
     const m = g.mag(r);
+    if (m.gt('0.01')) throw new Error('internal: series argument outside |r| ≤ 1/100');
     let t = new g.Up(1);
     let n = 0;
     const eps = this.eps(g);
@@ -70,6 +71,7 @@ export class Elementary {
   /** Σ_{k=0}^{N} s^k z^{2k+1}/(2k+1) with s = −1 (atan) or +1 (atanh); |z| ≤ 1/4. */
   private atanCore(g: IvCtx, z: Iv, hyperbolic: boolean): Iv {
     const m = g.mag(z);
+    if (m.gt('0.5')) throw new Error('internal: series argument outside |z| ≤ 1/2');
     const m2 = g.Up.mul(m, m);
     const eps = this.eps(g);
     let pw = m; // |z|^{2N+3} after loop
@@ -88,6 +90,7 @@ export class Elementary {
   /** sin (odd = true) or cos on |r| ≤ 1. */
   private sinCosSmall(g: IvCtx, r: Iv, odd: boolean, hyperbolic = false): Iv {
     const m = g.mag(r);
+    if (m.gt(1)) throw new Error('internal: series argument outside |r| ≤ 1');
     const eps = this.eps(g);
     let p = odd ? 1 : 0; // first dropped power after loop
     let t = odd ? m : new g.Up(1);

@@ -241,7 +241,7 @@ export class Evaluator {
     if (!b.d && kb.eq(b.v.hi) && kb.isInteger() && kb.abs().lte(MAX_INT_POWER)) {
       const k = Number(kb.toString());
       const v = c.powInt(a.v, k);
-      if (!a.d) return { v, d: null };
+      if (!a.d || k === 0) return { v, d: null };
       return { v, d: this.chain(c.mul(c.literal(String(k)), c.powInt(a.v, k - 1)), a) };
     }
     if (a.v.lo.lte(0)) throw new DomainViolation(`evaluation leaves the domain of ^ (non-integer exponent) at base ${fmt(a.v)}`);

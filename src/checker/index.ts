@@ -153,6 +153,9 @@ export function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   if (d.formatVersion !== 1) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version 1)`);
   if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit")`);
   const sha = str(d.sha256, '$.sha256');
+  // the hash first: the document must be exactly what was proven
+  const expected = certificateHash(d);
+  if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
   const p = int(d.period, '$.period', 1, limits.maxPeriod);
   const map = obj(d.map, '$.map');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
@@ -171,6 +174,7 @@ export function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     const path = `$.map.params.${k}`;
     if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (or it repeats a state name)`);
     const v = paramsRaw[k];
+    if (typeof v !== 'string' && !Array.isArray(v)) reject(path, `expected a decimal string or a [lo, hi] pair of decimal strings at ${path}`);
     paramText.set(k, typeof v === 'string' ? [dec(v, path), dec(v, path)] : ivl(v, path));
   }
   const stepRaw = obj(map.step, '$.map.step');
@@ -224,9 +228,6 @@ export function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   }
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
 
-  // ---- hash: the document must be exactly what was proven ----
-  const expected = certificateHash(d);
-  if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
 
   // ---- the mathematics ----
   const c = ivCtx(digits);
@@ -250,8 +251,8 @@ export function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   }
   const hintedHigh = digits > (opts.digits ?? DEFAULT_DIGITS) || digits > 40;
   const withDecimalC = (): ReturnType<typeof preconditioner> =>
-    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, M, true) : null;
-  let C = hintedHigh ? withDecimalC() : preconditioner(s, M, false);
+    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, X, true) : null;
+  let C = hintedHigh ? withDecimalC() : preconditioner(s, X, false);
   if (!C && !hintedHigh) C = withDecimalC();
   if (!C) reject('$.orbit.centre', 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner');
   let kx = krawczyk(s, C!, M, X, Xexact, 'existence');

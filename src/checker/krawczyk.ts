@@ -2,7 +2,8 @@
  * Krawczyk test on the multiple-shooting system F_i(x) = x_{(i+1) mod p} − f(x_i), i < p, and the
  * stability enclosures. Rigorous parts: F(m), J(X), C·F(m), I − C·J(X), the product with X − m and
  * the final interior test (exact comparisons against the certificate's own box ends).
- * Non-rigorous part (any C is valid): the preconditioner C ≈ J(m)^{-1}, by an LU factorisation
+ * Non-rigorous part (any C is valid): the preconditioner C ≈ mid(J(X))^{-1} (≈ J(m)^{-1} for smooth
+ * maps; better at kinks of abs/min/max), by an LU factorisation
  * with partial pivoting that skips structural zeros, in floats (digits ≤ 17) or in round-to-nearest
  * decimals at the working precision (high-precision certificates).
  */
@@ -117,8 +118,8 @@ export interface Precond {
   vals: Decimal[][];
 }
 
-/** @heuristic C ≈ J(m)^{-1}; entries below 10^-(digits+3)·(row max) are dropped (any C is valid). */
-export function preconditioner(s: Shooting, centre: readonly Iv[], highPrecision: boolean): Precond | null {
+/** @heuristic C ≈ mid(J(box))^{-1}; entries below 10^-(digits+3)·(row max) are dropped (any C is valid). */
+export function preconditioner(s: Shooting, box: readonly Iv[], highPrecision: boolean): Precond | null {
   const { c, p, n } = s;
   const N = p * n;
   const Dn = c.Near;
@@ -128,7 +129,7 @@ export function preconditioner(s: Shooting, centre: readonly Iv[], highPrecision
   const a: (number | Decimal)[][] = [];
   for (let r = 0; r < N; r++) a.push(new Array(N).fill(zero));
   for (let i = 0; i < p; i++) {
-    const { jac } = image(s, centre.slice(i * n, i * n + n), true);
+    const { jac } = image(s, box.slice(i * n, i * n + n), true);
     for (let r = 0; r < n; r++) {
       for (let q = 0; q < n; q++) {
         const mid = c.midpoint(jac![r * n + q]!);

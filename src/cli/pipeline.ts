@@ -4,7 +4,8 @@
  * The CLI's `prove` and `demo` commands are this function plus rendering.
  */
 import { join } from 'node:path';
-import { buildCertificate, type ProvenOrbitData } from '../certificate/build.js';
+import { buildCertificate } from '../certificate/build.js';
+import type { ProvenOrbit } from '../prove/types.js';
 import { certificateFileName, writeCertificate } from '../certificate/write.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
@@ -42,7 +43,7 @@ export interface OrbitOutcome {
   status: OrbitStatus;
   /** Why not proven / why the checker rejected. */
   reason?: string;
-  orbit?: ProvenOrbitData;
+  orbit?: ProvenOrbit;
   certificatePath?: string;
   check?: CheckReportLike;
 }

@@ -100,7 +100,7 @@ export function compileFlat(tape: Tape, params: readonly ParamEnclosure[]): Flat
     if (typeof f !== 'function') throw new Error(`internal: src/interval/flat.ts has no ${name}`);
     return f;
   });
-  // eslint-disable-next-line @typescript-eslint/no-implied-eval -- code generated from the checked tape only
+  // code generated from the checked tape only (see the header)
   const factory = new Function(...OP_FUNCTIONS, `"use strict";\nreturn function flatImage(R) {\n${body}\n};`) as (
     ...fs: unknown[]
   ) => (R: Float64Array) => void;

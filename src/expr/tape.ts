@@ -91,12 +91,11 @@ export function buildTape(formulas: readonly ParsedFormula[], stateNames: readon
   const active: number[] = [];
   const literals: string[] = [];
   const literalIndex = new Map<string, number>();
-  const memo = new Map<string, number>();
+  const memo = new SlotTable();
 
   const emit = (code: OpCode, x: number, y: number, payload: number): number => {
-    const key = `${code},${x},${y},${payload}`;
-    const hit = memo.get(key);
-    if (hit !== undefined) return hit;
+    const hit = memo.find(code, x, y, payload);
+    if (hit >= 0) return hit;
     const slot = op.length;
     op.push(code);
     a.push(x);
@@ -104,7 +103,7 @@ export function buildTape(formulas: readonly ParsedFormula[], stateNames: readon
     n.push(payload);
     const act = code === Op.state ? 1 : (x >= 0 && active[x] === 1) || (y >= 0 && active[y] === 1) ? 1 : 0;
     active.push(act);
-    memo.set(key, slot);
+    memo.insert(code, x, y, payload, slot);
     return slot;
   };
   const leaf = (e: Expr & { kind: 'number' | 'name' }): number => {
@@ -127,29 +126,27 @@ export function buildTape(formulas: readonly ParsedFormula[], stateNames: readon
 
   const outputs: number[] = [];
   for (const f of formulas) {
-    // iterative post-order: frames hold the node and the slots of children done so far
-    const nodeStack: Expr[] = [f.tree];
-    const doneStack: number[] = [0];
+    // iterative post-order (two-stack method): `order` reversed lists children before parents
+    const order: Expr[] = [];
+    const pending: Expr[] = [f.tree];
+    while (pending.length > 0) {
+      const e = pending.pop()!;
+      order.push(e);
+      if (e.kind === 'neg') pending.push(e.arg);
+      else if (e.kind === 'binary') {
+        pending.push(e.left);
+        if (!(e.op === '^' && integerExponent(e.right) !== undefined)) pending.push(e.right);
+      } else if (e.kind === 'call') for (const arg of e.args) pending.push(arg);
+    }
     const results: number[] = [];
-    while (nodeStack.length > 0) {
-      const e = nodeStack[nodeStack.length - 1]!;
-      const done = doneStack[doneStack.length - 1]!;
+    for (let k = order.length - 1; k >= 0; k--) {
+      const e = order[k]!;
       if (e.kind === 'number' || e.kind === 'name') {
-        nodeStack.pop();
-        doneStack.pop();
         results.push(leaf(e));
         continue;
       }
-      const children = childrenToCompile(e);
-      if (done < children.length) {
-        doneStack[doneStack.length - 1] = done + 1;
-        nodeStack.push(children[done]!);
-        doneStack.push(0);
-        continue;
-      }
-      nodeStack.pop();
-      doneStack.pop();
-      const args = results.splice(results.length - children.length, children.length);
+      const arity = childCount(e);
+      const args = results.splice(results.length - arity, arity);
       results.push(combine(e, args, emit));
     }
     outputs.push(results[0]!);
@@ -169,6 +166,63 @@ export function buildTape(formulas: readonly ParsedFormula[], stateNames: readon
   };
 }
 
+/**
+ * Hash table (open addressing, linear probing) from (op, a, b, n) to a slot, in typed arrays:
+ * common-subexpression merging without per-node garbage (10^6-character formulas stay fast).
+ */
+class SlotTable {
+  private keys = new Int32Array(4 * 1024);
+  private slots = new Int32Array(1024).fill(-1);
+  private count = 0;
+
+  private static hash(code: number, x: number, y: number, n: number): number {
+    let h = Math.imul(code + 1, 0x9e3779b1);
+    h = Math.imul(h ^ (x + 1), 0x85ebca6b);
+    h = Math.imul(h ^ (y + 1), 0xc2b2ae35);
+    h = Math.imul(h ^ n, 0x27d4eb2f);
+    return (h ^ (h >>> 15)) >>> 0;
+  }
+
+  find(code: number, x: number, y: number, n: number): number {
+    const mask = this.slots.length - 1;
+    for (let i = SlotTable.hash(code, x, y, n) & mask; ; i = (i + 1) & mask) {
+      const s = this.slots[i]!;
+      if (s < 0) return -1;
+      const k = 4 * i;
+      if (this.keys[k] === code && this.keys[k + 1] === x && this.keys[k + 2] === y && this.keys[k + 3] === n) return s;
+    }
+  }
+
+  insert(code: number, x: number, y: number, n: number, slot: number): void {
+    if (2 * (this.count + 1) > this.slots.length) this.grow();
+    this.put(code, x, y, n, slot);
+    this.count++;
+  }
+
+  private put(code: number, x: number, y: number, n: number, slot: number): void {
+    const mask = this.slots.length - 1;
+    let i = SlotTable.hash(code, x, y, n) & mask;
+    while (this.slots[i]! >= 0) i = (i + 1) & mask;
+    this.slots[i] = slot;
+    const k = 4 * i;
+    this.keys[k] = code;
+    this.keys[k + 1] = x;
+    this.keys[k + 2] = y;
+    this.keys[k + 3] = n;
+  }
+
+  private grow(): void {
+    const oldKeys = this.keys;
+    const oldSlots = this.slots;
+    this.keys = new Int32Array(oldKeys.length * 2);
+    this.slots = new Int32Array(oldSlots.length * 2).fill(-1);
+    for (let i = 0; i < oldSlots.length; i++) {
+      const s = oldSlots[i]!;
+      if (s >= 0) this.put(oldKeys[4 * i]!, oldKeys[4 * i + 1]!, oldKeys[4 * i + 2]!, oldKeys[4 * i + 3]!, s);
+    }
+  }
+}
+
 /** An exponent that is an integer literal, possibly signed: x^2, x^-3, x^(2). */
 function integerExponent(e: Expr): number | undefined {
   let sign = 1;
@@ -183,17 +237,16 @@ function integerExponent(e: Expr): number | undefined {
   return sign * v === 0 ? 0 : sign * v;
 }
 
-function childrenToCompile(e: Expr): readonly Expr[] {
+function childCount(e: Expr): number {
   switch (e.kind) {
     case 'neg':
-      return [e.arg];
+      return 1;
     case 'binary':
-      if (e.op === '^' && integerExponent(e.right) !== undefined) return [e.left];
-      return [e.left, e.right];
+      return e.op === '^' && integerExponent(e.right) !== undefined ? 1 : 2;
     case 'call':
-      return e.args;
+      return e.args.length;
     default:
-      return [];
+      return 0;
   }
 }
 

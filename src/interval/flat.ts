@@ -23,6 +23,8 @@ import * as K from './kernel.js';
 const PHI = 2 ** -53 * (1 + 2 ** -52);
 const ETA = 2 ** -1074;
 const MAXV = Number.MAX_VALUE;
+/** Above 2^-969 the η term is unnecessary (round.ts, TINY) and avoiding the subnormal η keeps x86 fast. */
+const TINY = 2 ** -969;
 
 /** Record kernel flags in the status register. */
 function flag(R: Float64Array, f: number): void {
@@ -71,8 +73,8 @@ export function fAdd(R: Float64Array, d: number, a: number, b: number): void {
   const bhi = R[2 * b + 1]!;
   const s = alo + blo;
   const t = ahi + bhi;
-  const lo = s - (PHI * Math.abs(s) + ETA);
-  const hi = t + (PHI * Math.abs(t) + ETA);
+  const lo = (Math.abs(s) >= TINY ? s - PHI * Math.abs(s) : s - (PHI * Math.abs(s) + ETA));
+  const hi = (Math.abs(t) >= TINY ? t + PHI * Math.abs(t) : t + (PHI * Math.abs(t) + ETA));
   const w = hi - lo;
   if (w >= 0 && w <= MAXV) {
     R[2 * d] = lo;
@@ -90,8 +92,8 @@ export function fSub(R: Float64Array, d: number, a: number, b: number): void {
   const bhi = R[2 * b + 1]!;
   const s = alo - bhi;
   const t = ahi - blo;
-  const lo = s - (PHI * Math.abs(s) + ETA);
-  const hi = t + (PHI * Math.abs(t) + ETA);
+  const lo = (Math.abs(s) >= TINY ? s - PHI * Math.abs(s) : s - (PHI * Math.abs(s) + ETA));
+  const hi = (Math.abs(t) >= TINY ? t + PHI * Math.abs(t) : t + (PHI * Math.abs(t) + ETA));
   const w = hi - lo;
   if (w >= 0 && w <= MAXV) {
     R[2 * d] = lo;
@@ -113,8 +115,8 @@ export function fMul(R: Float64Array, d: number, a: number, b: number): void {
   const p4 = ahi * bhi;
   const mn = Math.min(Math.min(p1, p2), Math.min(p3, p4));
   const mx = Math.max(Math.max(p1, p2), Math.max(p3, p4));
-  const lo = mn - (PHI * Math.abs(mn) + ETA);
-  const hi = mx + (PHI * Math.abs(mx) + ETA);
+  const lo = (Math.abs(mn) >= TINY ? mn - PHI * Math.abs(mn) : mn - (PHI * Math.abs(mn) + ETA));
+  const hi = (Math.abs(mx) >= TINY ? mx + PHI * Math.abs(mx) : mx + (PHI * Math.abs(mx) + ETA));
   const w = hi - lo;
   if (w >= 0 && w <= MAXV) {
     R[2 * d] = lo;
@@ -137,8 +139,8 @@ export function fDiv(R: Float64Array, d: number, a: number, b: number): void {
     const q4 = ahi / bhi;
     const mn = Math.min(Math.min(q1, q2), Math.min(q3, q4));
     const mx = Math.max(Math.max(q1, q2), Math.max(q3, q4));
-    const lo = mn - (PHI * Math.abs(mn) + ETA);
-    const hi = mx + (PHI * Math.abs(mx) + ETA);
+    const lo = (Math.abs(mn) >= TINY ? mn - PHI * Math.abs(mn) : mn - (PHI * Math.abs(mn) + ETA));
+    const hi = (Math.abs(mx) >= TINY ? mx + PHI * Math.abs(mx) : mx + (PHI * Math.abs(mx) + ETA));
     const w = hi - lo;
     if (w >= 0 && w <= MAXV) {
       R[2 * d] = lo;
@@ -158,18 +160,18 @@ export function fSqr(R: Float64Array, d: number, a: number): void {
   if (x >= 0) {
     const p = x * x;
     const q = y * y;
-    lo = p - (PHI * p + ETA);
-    hi = q + (PHI * q + ETA);
+    lo = (p >= TINY ? p - PHI * p : p - (PHI * p + ETA));
+    hi = (q >= TINY ? q + PHI * q : q + (PHI * q + ETA));
   } else if (y <= 0) {
     const p = y * y;
     const q = x * x;
-    lo = p - (PHI * p + ETA);
-    hi = q + (PHI * q + ETA);
+    lo = (p >= TINY ? p - PHI * p : p - (PHI * p + ETA));
+    hi = (q >= TINY ? q + PHI * q : q + (PHI * q + ETA));
   } else {
     const m = -x > y ? -x : y;
     const q = m * m;
     lo = 0;
-    hi = q + (PHI * q + ETA);
+    hi = (q >= TINY ? q + PHI * q : q + (PHI * q + ETA));
   }
   if (lo < 0) lo = 0;
   const w = hi - lo;

@@ -21,9 +21,7 @@
  */
 
 import {
-  ETA,
   MAX,
-  PHI,
   addDown,
   addUp,
   divDown,
@@ -384,14 +382,14 @@ export const WIDEN_POW = 3;
 /** Lower bound of a value y that Math.* returned, assuming |error| ≤ 1 ulp; ±Inf handled. */
 export function widenDown(y: number, steps: number): number {
   if (y === Infinity) y = MAX;
-  for (let i = 0; i < steps; i++) y = y - (PHI * Math.abs(y) + ETA);
+  for (let i = 0; i < steps; i++) y = down(y);
   return y;
 }
 
 /** Upper bound counterpart of widenDown. */
 export function widenUp(y: number, steps: number): number {
   if (y === -Infinity) y = -MAX;
-  for (let i = 0; i < steps; i++) y = y + (PHI * Math.abs(y) + ETA);
+  for (let i = 0; i < steps; i++) y = up(y);
   return y;
 }
 

@@ -275,7 +275,7 @@ export interface SinCos {
 }
 
 /** Largest decimal exponent of |x| for which sin/cos/tan reduce the argument (else [−1, 1]). */
-export const TRIG_MAX_EXPONENT = 300;
+export const TRIG_MAX_EXPONENT = 400; // covers every finite double (< 1.8e308)
 
 function clampUnit(a: DecimalEnclosure): DecimalEnclosure {
   const lo = a.lo.lt('-1') ? new Decimal('-1') : a.lo;
@@ -321,7 +321,7 @@ export function sinCosPoint(x: Decimal, p: number): SinCos {
     case 0:
       return { sin: s, cos: co };
     case 1:
-      return { sin: co, cos: s };
+      return { sin: co, cos: ineg(s) };
     case 2:
       return { sin: ineg(s), cos: ineg(co) };
     default:

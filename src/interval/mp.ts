@@ -20,12 +20,12 @@
  *    src/interval/mp-elementary.ts for each method. `status.assumed` is never set by this
  *    arithmetic. decimal.js exp/ln/pow (upstream issue 244) are not used for any bound.
  *  - sin, cos: extrema at m·π/2 are located with the rigorous π; when it cannot be decided
- *    whether an extremum lies in the box, it is included. Ends with decimal exponent above 300
- *    give [−1, 1]. tan: a box that may contain a pole gives the entire line and
+ *    whether an extremum lies in the box, it is included. Ends with decimal exponent above 400
+ *    give [−1, 1] (beyond every finite double). tan: a box that may contain a pole gives the entire line and
  *    status.continuous = false.
  *
  * Domain (status.continuous = false, IEEE 1788 `trv`): division by a box containing 0 (result
- * unbounded, or entire), sqrt/log of a box reaching below 0 (≤ 0 for log), pow outside
+ * unbounded, or entire; [0, 0] for a zero numerator), sqrt/log of a box reaching below 0 (≤ 0 for log), pow outside
  * a > 0 (a = 0 allowed when b > 0), tan across a possible pole, exp/sinh/cosh overflow
  * (argument above 1e15, upper end +Infinity), NaN inputs. A box wholly outside the domain
  * gives the entire line (this representation has no empty interval).
@@ -102,9 +102,34 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
   const up = (x: Decimal): Decimal => (x.constructor === Up ? x : new Up(x));
   const isNonNeg = (x: Decimal): boolean => x.isZero() || x.isPos();
   const isNonPos = (x: Decimal): boolean => x.isZero() || x.isNeg();
+  // decimal.js flushes results with decimal exponent below minE = −9e15 to 0 and above
+  // maxE = 9e15 to ±Infinity, whatever the rounding mode. Products and quotients of finite
+  // non-zero operands are repaired outward: |v| < 1e−9e15 = TINY after an underflow, |v| > 1e9e15
+  // = HUGE after an overflow (which also clears status.continuous).
+  const TINY = new Dn('1e-9000000000000000');
+  const HUGE = new Dn('1e9000000000000000');
+  function repairDn(r: Decimal, x: Decimal, y: Decimal): Decimal {
+    if ((r.isFinite() && !r.isZero()) || !x.isFinite() || !y.isFinite() || x.isZero()) return r;
+    const negative = x.isNeg() !== y.isNeg();
+    if (r.isZero()) return negative ? TINY.neg() : ZERO;
+    status.continuous = false;
+    return negative ? NEG_INF : HUGE;
+  }
+  function repairUp(r: Decimal, x: Decimal, y: Decimal): Decimal {
+    if ((r.isFinite() && !r.isZero()) || !x.isFinite() || !y.isFinite() || x.isZero()) return r;
+    const negative = x.isNeg() !== y.isNeg();
+    if (r.isZero()) return negative ? ZERO : TINY;
+    status.continuous = false;
+    return negative ? HUGE.neg() : POS_INF;
+  }
   // 0 · ±∞ = 0 for endpoint products (IEEE 1788 multiplication of extended intervals).
-  const mulDn = (x: Decimal, y: Decimal): Decimal => (x.isZero() || y.isZero() ? ZERO : dn(x).times(y));
-  const mulUp = (x: Decimal, y: Decimal): Decimal => (x.isZero() || y.isZero() ? ZERO : up(x).times(y));
+  const mulDn = (x: Decimal, y: Decimal): Decimal =>
+    x.isZero() || y.isZero() ? ZERO : repairDn(dn(x).times(y), x, y);
+  const mulUp = (x: Decimal, y: Decimal): Decimal =>
+    x.isZero() || y.isZero() ? ZERO : repairUp(up(x).times(y), x, y);
+  // y != 0 wherever these are used.
+  const divDn = (x: Decimal, y: Decimal): Decimal => repairDn(dn(x).div(y), x, y);
+  const divUp = (x: Decimal, y: Decimal): Decimal => repairUp(up(x).div(y), x, y);
   const roundDn = (x: Decimal): Decimal => (x.isFinite() ? new Dn(x).toSD(digits, Decimal.ROUND_FLOOR) : x);
   const roundUp = (x: Decimal): Decimal => (x.isFinite() ? new Up(x).toSD(digits, Decimal.ROUND_CEIL) : x);
   const outward = (e: DecimalEnclosure): MpInterval => ({ lo: roundDn(e.lo), hi: roundUp(e.hi) });
@@ -153,17 +178,18 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
   function div(a: MpInterval, b: MpInterval): MpInterval {
     if (isNaNBox(a) || isNaNBox(b)) return domainError();
     if (b.lo.isPos() && !b.lo.isZero()) {
-      if (isNonNeg(a.lo)) return { lo: dn(a.lo).div(b.hi), hi: up(a.hi).div(b.lo) };
-      if (isNonPos(a.hi)) return { lo: dn(a.lo).div(b.lo), hi: up(a.hi).div(b.hi) };
-      return { lo: dn(a.lo).div(b.lo), hi: up(a.hi).div(b.lo) };
+      if (isNonNeg(a.lo)) return { lo: divDn(a.lo, b.hi), hi: divUp(a.hi, b.lo) };
+      if (isNonPos(a.hi)) return { lo: divDn(a.lo, b.lo), hi: divUp(a.hi, b.hi) };
+      return { lo: divDn(a.lo, b.lo), hi: divUp(a.hi, b.lo) };
     }
     if (b.hi.isNeg() && !b.hi.isZero()) {
-      if (isNonNeg(a.lo)) return { lo: dn(a.hi).div(b.hi), hi: up(a.lo).div(b.lo) };
-      if (isNonPos(a.hi)) return { lo: dn(a.hi).div(b.lo), hi: up(a.lo).div(b.hi) };
-      return { lo: dn(a.hi).div(b.hi), hi: up(a.lo).div(b.hi) };
+      if (isNonNeg(a.lo)) return { lo: divDn(a.hi, b.hi), hi: divUp(a.lo, b.lo) };
+      if (isNonPos(a.hi)) return { lo: divDn(a.hi, b.lo), hi: divUp(a.lo, b.hi) };
+      return { lo: divDn(a.hi, b.hi), hi: divUp(a.lo, b.hi) };
     }
     // 0 ∈ b: not continuous. One-sided divisors give a half-line, others the entire line.
     status.continuous = false;
+    if (a.lo.isZero() && a.hi.isZero() && !(b.lo.isZero() && b.hi.isZero())) return { lo: ZERO, hi: ZERO };
     if (b.lo.isZero() && !b.hi.isZero()) return mul(a, { lo: dn(ONE).div(b.hi), hi: POS_INF });
     if (b.hi.isZero() && !b.lo.isZero()) return mul(a, { lo: NEG_INF, hi: up(ONE).div(b.lo) });
     return ENTIRE;
@@ -345,13 +371,18 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
 
   function powI(a: MpInterval, b: MpInterval): MpInterval {
     if (isNaNBox(a) || isNaNBox(b)) return domainError();
-    if (isNonPos(a.hi) && !(a.hi.isZero() && b.lo.isPos() && !b.lo.isZero())) return domainError();
+    const bPositive = b.lo.isPos() && !b.lo.isZero();
+    if (a.hi.isZero() && b.hi.isPos() && !b.hi.isZero()) {
+      // 0^y = 0 for y > 0; only the part y > 0 of b is in the domain (IEEE 1788 pow)
+      if (!(a.lo.isZero() && bPositive)) status.continuous = false;
+      return { lo: ZERO, hi: ZERO };
+    }
+    if (isNonPos(a.hi)) return domainError();
     if (a.lo.isNeg() && !a.lo.isZero()) {
       status.continuous = false;
       a = { lo: ZERO, hi: a.hi };
     }
-    if (a.lo.isZero() && !(b.lo.isPos() && !b.lo.isZero())) status.continuous = false;
-    if (a.hi.isZero()) return { lo: ZERO, hi: ZERO }; // 0^b = 0 for b > 0
+    if (a.lo.isZero() && !bPositive) status.continuous = false;
     const l = logRaw(a);
     return expI(mul(b, l));
   }

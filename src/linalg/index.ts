@@ -32,6 +32,7 @@ export {
   monodromy,
   monodromyEigenvalues,
   eigenvaluesApprox,
+  eigenvaluesQR,
   characteristicPolynomial,
   polynomialRoots,
 } from './eigen.js';

@@ -27,6 +27,42 @@ export interface FormulaMap extends CompiledMap {
   secondOrder<T>(arith: Arithmetic<T>): SecondOrderEvaluator<T>;
 }
 
+/**
+ * The map with parameter `name` promoted to a last state variable with step `name' = name` and
+ * region its current value (or interval), so every evaluator (Jacobian, second order, flat)
+ * also differentiates with respect to it — what fold/flip systems in unknowns (x, θ) need.
+ * Throws `unknown-parameter` for a name that is not a parameter.
+ */
+export function withParameterAsState(map: FormulaMap, name: string): FormulaMap {
+  const def = map.definition;
+  const value = def.params[name];
+  if (value === undefined) {
+    throw new MapLanguageError({
+      code: 'unknown-parameter',
+      message: `the map has no parameter '${name}'`,
+      key: `params.${name}`,
+      file: def.origin,
+      line: 0,
+      column: 0,
+      text: name,
+      hint: suggestionHint(name, Object.keys(def.params), 'give one of the map parameters'),
+    });
+  }
+  const params: Record<string, ParamValue> = Object.create(null) as Record<string, ParamValue>;
+  for (const [k, v] of Object.entries(def.params)) if (k !== name) params[k] = v;
+  const step: Record<string, string> = Object.create(null) as Record<string, string>;
+  const region: Record<string, [string, string]> = Object.create(null) as Record<string, [string, string]>;
+  for (const s of def.state) {
+    step[s] = def.step[s]!;
+    region[s] = def.region[s]!;
+  }
+  step[name] = name;
+  const b = paramBounds(value);
+  region[name] = [b.lo, b.hi];
+  const extended: MapDefinition = { ...def, state: [...def.state, name], params, step, region };
+  return compileMap(extended);
+}
+
 export type ParamOverrides = readonly ParamOverride[] | ReadonlyMap<string, ParamValue> | Readonly<Record<string, ParamValue>>;
 
 function overrideList(o: ParamOverrides | undefined): ParamOverride[] {

@@ -5,6 +5,7 @@
  * exact decimal "3.83", never a double).
  */
 import { readFileSync } from 'node:fs';
+import { basename } from 'node:path';
 import { isAlias, isMap, isScalar, isSeq, parseDocument, type Node, type Scalar } from 'yaml';
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { locate } from '../expr/lexer.js';
@@ -221,6 +222,7 @@ export function parseMapSource(text: string, file?: string): MapDefinition {
     region[name] = decimalPair(value, `region.${name}`, 'a region');
   }
 
+  if (title === '' && file !== undefined) title = basename(file).replace(/\.(ya?ml|json)$/i, '');
   const def: MapDefinition = { title, state, params, step, region };
   if (description !== undefined) def.description = description;
   if (file !== undefined) def.origin = file;

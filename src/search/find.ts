@@ -8,6 +8,7 @@ import { compileMap } from '../model/compile.js';
 import { SearchOptionError } from './errors.js';
 import { ShootingNewton, type ShootingNewtonResult } from './newton.js';
 import {
+  canonicalRotation,
   comparePoints,
   makeCandidate,
   minimalPeriodApprox,
@@ -117,14 +118,15 @@ class CandidateCollector {
     for (let i = 0; i < p; i++) mean += x[i * n]!;
     mean /= p;
     const key = Math.round(mean / this.bucketWidth);
-    const candidate = makeCandidate(this.map, x, p, result.residual, this.tol);
+    const points = canonicalRotation(x, p, n, this.tol);
     const mergeTol = Math.max(uncertainty, this.maxUncertainty);
     const reach = Math.ceil(mergeTol / this.bucketWidth) + 1;
     for (let k = key - reach; k <= key + reach; k++) {
       for (const known of this.buckets.get(k) ?? []) {
         const tol = Math.max(uncertainty, this.uncertainty.get(known)!);
-        if (sameOrbitUpToShift(known.points, candidate.points, tol)) {
+        if (sameOrbitUpToShift(known.points, points, tol)) {
           if (result.residual < known.residual || uncertainty < this.uncertainty.get(known)!) {
+            const candidate = makeCandidate(this.map, points, result.residual);
             known.points = candidate.points;
             known.residual = candidate.residual;
             known.multipliers = candidate.multipliers;
@@ -135,6 +137,7 @@ class CandidateCollector {
         }
       }
     }
+    const candidate = makeCandidate(this.map, points, result.residual);
     let bucket = this.buckets.get(key);
     if (bucket === undefined) this.buckets.set(key, (bucket = []));
     bucket.push(candidate);
@@ -194,8 +197,10 @@ function fillIterated(
 }
 
 /** Default effort by state dimension (see findCandidates). */
-function defaultEffort(n: number): { grid: number; random: number; attractor: number } {
-  if (n === 1) return { grid: 1000, random: 400, attractor: 200 };
+function defaultEffort(n: number, p: number): { grid: number; random: number; attractor: number } {
+  // 1-D: a chaotic map has up to ~2^p/p orbits of period p; about 4 grid points per periodic
+  // point of f^p find them all for the logistic map at r = 4 (bench/search-bench.ts), capped.
+  if (n === 1) return { grid: Math.min(40000, Math.max(1000, 2 ** Math.min(p + 2, 30))), random: 400, attractor: 200 };
   if (n === 2) return { grid: 40, random: 600, attractor: 400 };
   return { grid: Math.max(2, Math.round(Math.pow(600, 1 / n))), random: 600, attractor: 400 };
 }
@@ -213,7 +218,8 @@ function defaultEffort(n: number): { grid: number; random: number; attractor: nu
  * converged (max|F| ≤ 1e-10·(1 + max|x|)), stays inside the region enlarged by 1e-6 of its width,
  * and has minimal period exactly p (tolerance 1e-7·(1 + region scale)). Cyclic shifts and
  * repeats are merged. Seeds that escape or produce NaN are dropped silently.
- * Default effort: n = 1: 1000 grid + 400 random + 200 attractor seeds; n = 2: 40×40 grid +
+ * Default effort: n = 1: min(40000, max(1000, 2^(p+2))) grid + 400 random + 200 attractor
+ * seeds; n = 2: 40×40 grid +
  * 600 random + 400 attractor seeds. Result sorted lexicographically by first point.
  * Throws SearchOptionError for bad options, and the compiler's MapLanguageError for bad `params`.
  */
@@ -222,7 +228,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const map = opts.params === undefined ? givenMap : compileMap(givenMap.definition, opts.params);
   const n = map.dim;
   const region = searchRegion(map);
-  const effort = defaultEffort(n);
+  const effort = defaultEffort(n, p);
   const grid = checkCount(opts.gridPerAxis, 'gridPerAxis', effort.grid);
   const randomSeeds = checkCount(opts.randomSeeds, 'randomSeeds', effort.random);
   const attractorSeeds = checkCount(opts.attractorSeeds, 'attractorSeeds', effort.attractor);

@@ -105,18 +105,11 @@ export function multiplierModulus(m: Multiplier): number {
   return typeof m === 'number' ? Math.abs(m) : Math.hypot(m.re, m.im);
 }
 
-/** Builds the reported candidate from a converged shooting vector of minimal period p. */
-export function makeCandidate(
-  map: CompiledMap,
-  x: ArrayLike<number>,
-  p: number,
-  residual: number,
-  tol: number,
-): Candidate {
-  const points = canonicalRotation(x, p, map.dim, tol);
+/** Builds the reported candidate from the canonically rotated points of a converged orbit. */
+export function makeCandidate(map: CompiledMap, points: number[][], residual: number): Candidate {
   const multipliers = approximateMultipliers(map, points);
   return {
-    period: p,
+    period: points.length,
     points,
     residual,
     multipliers,

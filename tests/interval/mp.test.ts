@@ -305,9 +305,10 @@ describe('elementary functions against decimal.js at 3× the working digits', ()
   const domains: Record<Unary, fc.Arbitrary<{ lo: string; hi: string; inner: Decimal }>> = {
     exp: box(30, -12, 2),
     log: box(30, -12, 12).filter((b) => exact(b.lo).gt(0)),
-    sin: box(30, -12, 3),
-    cos: box(30, -12, 3),
-    tan: box(30, -12, 0).filter((b) => exact(b.hi).minus(b.lo).lt(0.5)),
+    // mix in boxes in [0.1, 10) so that every quadrant of the reduction is exercised
+    sin: fc.oneof(box(30, -12, 3), box(30, -1, 0), box(30, 0, 0)),
+    cos: fc.oneof(box(30, -12, 3), box(30, -1, 0), box(30, 0, 0)),
+    tan: fc.oneof(box(30, -12, 0), box(30, -1, 0)).filter((b) => exact(b.hi).minus(b.lo).lt(0.5)),
     atan: box(30, -12, 12),
     sinh: box(30, -12, 2),
     cosh: box(30, -12, 2),
@@ -333,6 +334,17 @@ describe('elementary functions against decimal.js at 3× the working digits', ()
       );
     });
   }
+
+  it('sin, cos, tan on a sweep x = k/4, |x| <= 10, cover every quadrant of the reduction', () => {
+    for (let k = -40; k <= 40; k++) {
+      const s = exact(k).div(4);
+      const a = A.fromDecimal(s.toString());
+      for (const name of ['sin', 'cos', 'tan'] as const) {
+        const v = ORACLES[name](new ORACLE(s));
+        expect(contains(A[name](a), exact(v), oracleTolerance(v))).toBe(true);
+      }
+    }
+  });
 
   it('point results are tight (a few units of the working precision) and nested across precisions', () => {
     const B = mpIntervalArithmetic(2 * BITS);
@@ -483,6 +495,24 @@ describe('domain flags (status.continuous)', () => {
     A.log(A.constant('0', '1'));
     A.add(A.fromDecimal('1'), A.fromDecimal('2'));
     expect(A.status.continuous).toBe(false);
+  });
+
+  it('decimal.js exponent limits (±9e15): underflow and overflow are repaired outward', () => {
+    // closed forms: (1e−5e15)² = 1e−1e16 underflows, (1e5e15)² = 1e1e16 overflows
+    resetStatus(A);
+    const tiny = A.fromDecimal('1e-5000000000000000');
+    const t2 = A.mul(tiny, tiny);
+    expect(t2.lo.gte(0) && t2.hi.gt(0) && t2.hi.lte('1e-9000000000000000')).toBe(true);
+    const nt = A.mul(A.neg(tiny), tiny);
+    expect(nt.lo.lt(0) && nt.hi.lte(0)).toBe(true);
+    expect(A.status.continuous).toBe(true);
+    const huge = A.fromDecimal('1e5000000000000000');
+    const h2 = A.mul(huge, huge);
+    expect(h2.lo.gte('1e9000000000000000') && !h2.hi.isFinite()).toBe(true);
+    expect(A.status.continuous).toBe(false);
+    resetStatus(A);
+    const q = A.div(tiny, huge);
+    expect(q.lo.gte(0) && q.hi.gt(0)).toBe(true);
   });
 
   it('results over the part of the domain that is hit are still enclosures', () => {

@@ -84,3 +84,21 @@ describe('describeMap', () => {
     expect(describeMap(m, intervalArithmetic()).imageContinuous).toBe(false);
   });
 });
+
+describe('withParameterAsState', () => {
+  it('logistic with r as a variable: ∂f/∂r = x(1 − x), ∂²f/∂x∂r = 1 − 2x (closed form, derived by hand)', async () => {
+    const { withParameterAsState } = await import('../../src/model/compile.js');
+    const m = withParameterAsState(compileMap(getCatalogueMap('logistic')!), 'r');
+    expect(m.dim).toBe(2);
+    expect(m.definition.region['r']).toEqual(['3.83', '3.83']);
+    const jac = new Float64Array(4);
+    m.jacobianFloat([0.25, 3.5], jac);
+    expect([...jac]).toEqual([3.5 * 0.5, 0.25 * 0.75, 0, 1]);
+    const hess: Interval[] = [];
+    m.secondOrder(I).evaluate([I.fromNumber(0.25), I.fromNumber(3.5)], [], [], hess);
+    // hess[(i*n + j)*n + k], i = 0 (x'), j = 0 (x), k = 1 (r)
+    expect(hess[1]!.lo).toBeLessThanOrEqual(0.5);
+    expect(hess[1]!.hi).toBeGreaterThanOrEqual(0.5);
+    expect(() => withParameterAsState(m, 'q')).toThrow(MapLanguageError);
+  });
+});

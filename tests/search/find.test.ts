@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import Decimal from 'decimal.js';
+import { Decimal } from 'decimal.js';
 import {
   findCandidates,
   findOrbitFromSeed,
@@ -13,6 +13,7 @@ import {
   SearchOptionError,
   type Candidate,
 } from '../../src/search/index.js';
+import type { CompiledMap } from '../../src/model/types.js';
 import { henonFixture, logisticFixture } from './fixtures.js';
 
 const realMultiplier = (c: Candidate, k = 0): number => {
@@ -40,8 +41,8 @@ describe('findCandidates on the logistic map (@heuristic)', () => {
     // Independent check: scan g(x) = f³(x) − x on a fine grid in decimal.js (exact decimal r).
     const D = Decimal.clone({ precision: 40 });
     const r = new D('3.83');
-    const f = (x: Decimal): Decimal => r.mul(x).mul(new D(1).sub(x));
-    const g = (x: Decimal): Decimal => f(f(f(x))).sub(x);
+    const f = (x: Decimal.Instance): Decimal.Instance => r.mul(x).mul(new D(1).sub(x));
+    const g = (x: Decimal.Instance): Decimal.Instance => f(f(f(x))).sub(x);
     const steps = 4000;
     const roots: number[] = [];
     let prev = g(new D(0).add(new D(1).div(2 * steps)));
@@ -137,6 +138,80 @@ describe('findCandidates on the logistic map (@heuristic)', () => {
       expect((e as SearchOptionError).path).toBe('period');
     }
     expect(() => findCandidates(map, { period: 2, near: [0.1, 0.2] })).toThrow(SearchOptionError);
+  });
+});
+
+describe('domain errors (@heuristic)', () => {
+  it('seeds running into log of a negative number (NaN) are dropped silently; both fixed points of log(x) + 2 are found', () => {
+    // g(x) = x − log x − 2 is convex with g(1) = −1 < 0 and g → +∞ at 0⁺ and ∞: exactly two
+    // fixed points (derived by hand). Half the region is outside the domain of log.
+    const map: CompiledMap = {
+      definition: {
+        title: 'log fixture',
+        state: ['x'],
+        params: {},
+        step: { x: 'log(x) + 2' },
+        region: { x: ['-4', '4'] },
+      },
+      dim: 1,
+      evalFloat(x, out) {
+        out[0] = Math.log(x[0]!) + 2;
+      },
+      jacobianFloat(x, out) {
+        out[0] = x[0]! > 0 ? 1 / x[0]! : NaN;
+      },
+      evaluator() {
+        throw new Error('not needed');
+      },
+    };
+    const cands = findCandidates(map, { period: 1 });
+    expect(cands).toHaveLength(2);
+    for (const c of cands) expect(Math.abs(c.points[0]![0]! - Math.log(c.points[0]![0]!) - 2)).toBeLessThan(1e-14);
+    expect(cands.map((c) => c.stabilityGuess)).toEqual(['repelling', 'attracting']); // f' = 1/x: > 1 below x = 1, < 1 above
+    expect(findCandidates(map, { period: 2 })).toEqual([]); // f is increasing: no 2-cycle (common practice)
+  });
+});
+
+describe('a 3-D product map (eigenvalues for n ≥ 3)', () => {
+  it('(x, y, z) ↦ (r x(1−x), r y(1−y), z/2) at r = 3.83: 4 fixed points with the product multipliers (closed form)', () => {
+    const r = 3.83;
+    const map: CompiledMap = {
+      definition: {
+        title: 'product fixture',
+        state: ['x', 'y', 'z'],
+        params: {},
+        step: { x: '3.83*x*(1-x)', y: '3.83*y*(1-y)', z: 'z/2' },
+        region: { x: ['0', '1'], y: ['0', '1'], z: ['-1', '1'] },
+      },
+      dim: 3,
+      evalFloat(v, out) {
+        out[0] = r * v[0]! * (1 - v[0]!);
+        out[1] = r * v[1]! * (1 - v[1]!);
+        out[2] = v[2]! / 2;
+      },
+      jacobianFloat(v, out) {
+        out.fill(0);
+        out[0] = r * (1 - 2 * v[0]!);
+        out[4] = r * (1 - 2 * v[1]!);
+        out[8] = 0.5;
+      },
+      evaluator() {
+        throw new Error('not needed');
+      },
+    };
+    const cands = findCandidates(map, { period: 1 });
+    // Fixed points: x, y ∈ {0, 1 − 1/r}, z = 0; multipliers {r or 2 − r} × {r or 2 − r} × {1/2}.
+    expect(cands).toHaveLength(4);
+    for (const c of cands) {
+      const [x, y, z] = c.points[0]!;
+      expect(z).toBeCloseTo(0, 12);
+      const mx = x! < 0.5 ? r : 2 - r;
+      const my = y! < 0.5 ? r : 2 - r;
+      const expected = [mx, my, 0.5].sort((a, b) => Math.abs(b) - Math.abs(a));
+      const got = c.multipliers.map((m) => (typeof m === 'number' ? m : NaN));
+      got.forEach((m, i) => expect(m).toBeCloseTo(expected[i]!, 8));
+      expect(c.stabilityGuess).toBe('saddle');
+    }
   });
 });
 

@@ -33,7 +33,7 @@ export async function findCommand(mapArg: string, o: FindCommandOptions): Promis
     return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
   }
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderFind(cands, header, def.state) + '\n', stderr: '', exitCode };
+  return { stdout: renderFind(cands, header, def.state, period) + '\n', stderr: '', exitCode };
 }
 
 function multiplierText(m: unknown): string {
@@ -46,8 +46,8 @@ function multiplierText(m: unknown): string {
 }
 
 /** Pure renderer for `find`. Numbers here are floats, labelled with ≈. */
-export function renderFind(cands: readonly CandidateLike[], header: string, state: string[]): string {
-  const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period`];
+export function renderFind(cands: readonly CandidateLike[], header: string, state: string[], period: number): string {
+  const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period ${period}`];
   if (cands.length === 0) {
     lines.push('none found in the region. hint: try --near x,... or another --period.');
     return lines.join('\n');

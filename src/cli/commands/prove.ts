@@ -1,6 +1,6 @@
 import { relative, resolve } from 'node:path';
 import { type CommandResult } from '../errors.js';
-import { formatInterval, table, widthUp } from '../format.js';
+import { formatInterval, shortDown, table, widthUp } from '../format.js';
 import { parseBoundedInt, parseNear, parsePeriod } from '../options.js';
 import { certifyOrbits, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
 import { loadMap, paramsLine } from './common.js';
@@ -136,13 +136,20 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
     pointsCell(o, r.map.state),
     stabilityCell(o.orbit),
     o.orbit ? o.orbit.stability.class : '',
-    o.orbit ? (o.orbit.uniquenessRadius ?? '—') : '',
+    o.orbit ? (o.orbit.uniquenessRadius !== null ? shortDown(o.orbit.uniquenessRadius, 3) : '—') : '',
     o.orbit ? `${o.orbit.bits}` : '',
     o.certificatePath ? displayPath(o.certificatePath, cwd) : '',
   ]);
   out.push('');
   out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within', 'bits', 'certificate'], rows));
   out.push('');
+  for (const o of r.outcomes) {
+    if (o.check && o.status === 'verified') {
+      out.push(`#${o.index}: the independent checker re-verified: ${o.check.claimsVerified.join(', ')}`);
+    } else if (o.orbit && o.orbit.assumed && o.status !== 'verified') {
+      out.push(`#${o.index}: note: the fast engine's enclosures rest on the accuracy of built-in elementary functions`);
+    }
+  }
   out.push(summaryLine(r));
   return out.join('\n');
 }

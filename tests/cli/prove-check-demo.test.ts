@@ -1,0 +1,120 @@
+/**
+ * prove / check / demo through `runCli`: exit codes, labels ("proven, re-verified" only when the
+ * independent checker agreed), certificate files, overwrite protection, tampering.
+ */
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Decimal } from 'decimal.js';
+import { afterAll, describe, expect, it } from 'vitest';
+import { certificateHash } from '../../src/certificate/canonical.js';
+import { runCli } from '../../src/cli/program.js';
+
+const D = Decimal.clone({ precision: 50 });
+const scratch = mkdtempSync(join(tmpdir(), 'orbitseal-prove-test-'));
+afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+const fresh = (name: string) => mkdtempSync(join(scratch, `${name}-`));
+
+describe('orbitseal prove', () => {
+  it('prove logistic --period 3 --param r=3.83: two orbits proven and re-verified, one attracting, one repelling; exit 0', async () => {
+    const out = fresh('p3');
+    const r = await runCli(['prove', 'logistic', '--period', '3', '--param', 'r=3.83', '--out', out]);
+    expect(r.stderr).toBe('');
+    expect(r.exitCode).toBe(0);
+    // two period-3 orbits once r > 1 + √8 (C. Zhang, arXiv:1204.0546); one attracting, one repelling
+    expect(r.stdout).toMatch(/candidates \(float search, not proofs\): 2 of minimal period 3/);
+    expect(r.stdout.match(/proven, re-verified/g)).toHaveLength(2);
+    expect(r.stdout).toMatch(/attracting/);
+    expect(r.stdout).toMatch(/repelling/);
+    expect(r.stdout).toMatch(/summary: 2 proven and re-verified by the independent checker\./);
+    expect(readdirSync(out).sort()).toEqual(['logistic-map-p3-1.json', 'logistic-map-p3-2.json']);
+    const cert = JSON.parse(readFileSync(join(out, 'logistic-map-p3-1.json'), 'utf8'));
+    expect(cert.map.params).toEqual({ r: '3.83' });
+    expect(cert.sha256).toBe(certificateHash(cert));
+  });
+
+  it('the same command again refuses to overwrite (exit 2, says --force); --force replaces', async () => {
+    const out = fresh('again');
+    const argv = ['prove', 'logistic', '--period', '1', '--param', 'r=2.5', '--out', out];
+    expect((await runCli(argv)).exitCode).toBe(0);
+    const again = await runCli(argv);
+    expect(again.exitCode).toBe(2);
+    expect(again.stderr).toMatch(/CERT_EXISTS[\s\S]*already exists[\s\S]*--force/);
+    const forced = await runCli([...argv, '--force']);
+    expect(forced.exitCode).toBe(0);
+  });
+
+  it('--no-check labels results "fast engine only", never "re-verified"', async () => {
+    const r = await runCli(['prove', 'logistic', '--period', '1', '--param', 'r=2.5', '--out', fresh('nocheck'), '--no-check']);
+    expect(r.exitCode).toBe(0);
+    expect(r.stdout).toMatch(/proven \(fast engine only, not re-verified\)/);
+    expect(r.stdout).not.toMatch(/re-verified by the independent checker\.$/m);
+    expect(r.stdout).not.toMatch(/proven, re-verified/);
+  });
+
+  it('--near picks one orbit; --json is one document whose boxes contain the closed form', async () => {
+    const r = await runCli(['prove', 'logistic', '--period', '1', '--param', 'r=2.5', '--near', '0.6', '--out', fresh('near'), '--json']);
+    expect(r.exitCode).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.orbits).toHaveLength(1);
+    const o = doc.orbits[0];
+    expect(o.status).toBe('verified');
+    // fixed point 1 − 1/r = 0.6 and multiplier 2 − r = −0.5 (closed form, derived by hand)
+    expect(new D(o.boxes[0][0][0]).lte('0.6') && new D('0.6').lte(o.boxes[0][0][1])).toBe(true);
+    expect(new D(o.stability.multiplier[0]).lte('-0.5') && new D('-0.5').lte(o.stability.multiplier[1])).toBe(true);
+    expect(o.stability.class).toBe('attracting');
+    expect(o.check.claimsVerified).toContain('existence');
+  });
+
+  it('no candidate → nothing proven, exit 1 (logistic r = 3.8 has no period-3 orbit: window opens at 1 + √8; arXiv:1204.0546)', async () => {
+    const r = await runCli(['prove', 'logistic', '--period', '3', '--param', 'r=3.8', '--out', fresh('none')]);
+    expect(r.exitCode).toBe(1);
+    expect(r.stdout).toMatch(/nothing proven/);
+  });
+});
+
+describe('orbitseal check', () => {
+  it('VERIFIED for honest files (exit 0); REJECTED for a tampered parameter (exit 1); UNREADABLE for garbage', async () => {
+    const out = fresh('check');
+    expect((await runCli(['prove', 'logistic', '--period', '2', '--param', 'r=3.2', '--out', out, '--no-check'])).exitCode).toBe(0);
+    const ok = await runCli(['check', out]);
+    expect(ok.exitCode).toBe(0);
+    expect(ok.stdout).toMatch(/^VERIFIED\s+.*logistic-map-p2-1\.json\s+re-verified: existence/m);
+    expect(ok.stdout).toMatch(/1 verified, 0 rejected, 0 unreadable/);
+
+    // change r from 3.2 to 3.3 and re-hash: the mathematics must catch it, not the hash
+    const file = join(out, 'logistic-map-p2-1.json');
+    const cert = JSON.parse(readFileSync(file, 'utf8'));
+    cert.map.params.r = '3.3';
+    cert.sha256 = certificateHash(cert);
+    writeFileSync(join(out, 'tampered.json'), JSON.stringify(cert));
+    writeFileSync(join(out, 'garbage.json'), '{"format": ');
+    const mixed = await runCli(['check', out]);
+    expect(mixed.exitCode).toBe(1);
+    expect(mixed.stdout).toMatch(/^REJECTED\s+.*tampered\.json/m);
+    expect(mixed.stdout).toMatch(/^UNREADABLE\s+.*garbage\.json/m);
+    expect(mixed.stdout).toMatch(/1 verified, 1 rejected, 1 unreadable/);
+
+    const json = await runCli(['check', file, '--json']);
+    expect(JSON.parse(json.stdout).reports[0].verdict).toBe('VERIFIED');
+  });
+});
+
+describe('orbitseal demo', () => {
+  it('demo --out DIR: proves and re-verifies the orchard moth census orbits in a few seconds, exit 0', async () => {
+    const out = fresh('demo');
+    const t0 = performance.now();
+    const r = await runCli(['demo', '--out', out]);
+    const seconds = (performance.now() - t0) / 1000;
+    expect(r.exitCode).toBe(0);
+    expect(r.stdout).toMatch(/orchard moth census/);
+    // fixed points 0 and K(1 − 1/r) = 12·2.83/3.83 ≈ 8.8668407 (closed form, derived by hand),
+    // two 3-cycles for r = 3.83 > 1 + √8 (arXiv:1204.0546)
+    expect(r.stdout).toMatch(/N ∈ \[8\.86684073\d*, 8\.86684073\d*\]/);
+    expect(r.stdout.match(/proven, re-verified/g)!.length).toBe(4);
+    expect(r.stdout).toMatch(/attracting/);
+    expect(readdirSync(out).filter((f) => f.endsWith('.json'))).toHaveLength(4);
+    expect(r.stdout).toContain(`orbitseal check ${out}`);
+    expect(seconds).toBeLessThan(30);
+  });
+});
