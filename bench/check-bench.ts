@@ -187,8 +187,9 @@ function line(name: string, rep: CheckReport, ms: number): string {
   return `${name.padEnd(44)} ${rep.verdict.padEnd(9)} ${(ms / 1000).toFixed(2).padStart(7)} s  (digits ${rep.digits}${rep.reason ? `; ${rep.reason.slice(0, 120)}` : ''})`;
 }
 
-export async function runCheckBench(): Promise<string[]> {
-  const out: string[] = [];
+export async function runCheckBench(onLine?: (line: string) => void): Promise<string[]> {
+  const lines: string[] = [];
+  const out = { push: (l: string): void => { lines.push(l); onLine?.(l); } };
   const cases: (() => Case)[] = [
     () => logistic4(10, 0x2cbn, 40, undefined),
     () => logistic4(100, 0x5851f42d4c957f2d1b873593n, 40, undefined),
@@ -221,9 +222,9 @@ export async function runCheckBench(): Promise<string[]> {
       }
     }
   }
-  return out;
+  return lines;
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
-  for (const l of await runCheckBench()) console.log(l);
+  await runCheckBench((l) => console.log(l));
 }

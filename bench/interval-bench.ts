@@ -17,7 +17,7 @@ import * as I from '../src/interval/interval.js';
 import { Interval } from '../src/interval/interval.js';
 
 const N = 1_000_000;
-const PASSES = 7;
+const PASSES = 15;
 
 interface Inputs {
   xlo: Float64Array;

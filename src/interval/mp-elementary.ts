@@ -20,7 +20,8 @@
  *    y0 ≈ ln x (decimal.js, unverified), δ = x·exp(−y0) − 1 enclosed with the rigorous exp, and
  *    ln x = y0 + ln(1+δ) with δ/(1+δ) <= ln(1+δ) <= δ (δ > −1).
  *  - sin, cos: reduction x = k·π/2 + r with the rigorous π (precision raised by the decimal
- *    exponent of x), Taylor series of sin r and cos r with Lagrange remainder |r|^n/n!.
+ *    exponent of x), t = r/2^h with |t| <= 2^−5, Taylor series of sin t and cos t with Lagrange
+ *    remainder |t|^n/n!, then h interval doublings (sin 2t = 2 sin t cos t, cos 2t = 1 − 2 sin²t).
  *  - atan: y0 ≈ atan x (decimal.js, unverified), δ = (x·cos y0 − sin y0)/(cos y0 + x·sin y0)
  *    enclosed with the rigorous sin/cos, atan x = y0 + atan δ and |atan δ − δ| <= |δ|³/3.
  *  - sinh, cosh: |x| < 1 Taylor series (Lagrange remainder <= cosh(1)·|x|^n/n! <= 2·|x|^n/n!);
@@ -123,6 +124,14 @@ function idiv(c: MpContext, a: DecimalEnclosure, b: DecimalEnclosure): DecimalEn
     return { lo: Dn.div(a.hi, b.hi), hi: Up.div(a.lo, b.hi) };
   }
   return null;
+}
+
+/** a² (tight when a straddles 0). */
+function isqr(c: MpContext, a: DecimalEnclosure): DecimalEnclosure {
+  if (nonNeg(a.lo)) return { lo: c.Dn.mul(a.lo, a.lo), hi: c.Up.mul(a.hi, a.hi) };
+  if (nonPos(a.hi)) return { lo: c.Dn.mul(a.hi, a.hi), hi: c.Up.mul(a.lo, a.lo) };
+  const m = mag(a);
+  return { lo: new Decimal('0'), hi: c.Up.mul(m, m) };
 }
 
 /** a / k for a positive integer k. */
@@ -286,7 +295,7 @@ function clampUnit(a: DecimalEnclosure): DecimalEnclosure {
 /** Enclosures of sin(x) and cos(x) for a finite point x with exponent <= TRIG_MAX_EXPONENT. */
 export function sinCosPoint(x: Decimal, p: number): SinCos {
   if (x.isZero()) return { sin: point(new Decimal('0')), cos: point(ONE) };
-  const c = contextFor(p + 5 + Math.max(0, x.e + 1));
+  const c = contextFor(p + 7 + Math.max(0, x.e + 1));
   let r: DecimalEnclosure = point(x);
   let quadrant = 0;
   if (x.abs().gt('0.785')) {
@@ -295,6 +304,14 @@ export function sinCosPoint(x: Decimal, p: number): SinCos {
     const k = c.Nr.div(x, halfPi.lo).round();
     r = isub(c, point(x), imul(c, point(k), halfPi));
     quadrant = Number(((BigInt(k.toFixed(0)) % 4n) + 4n) % 4n);
+  }
+  // Halve h times (|r|/2^h <= 2^−5) for a shorter series, then double back with
+  // sin 2t = 2·sin t·cos t and cos 2t = 1 − 2·sin² t; each doubling at most doubles the relative
+  // width, which the 2 extra digits of c absorb (h <= 5).
+  const h = Math.max(0, Math.ceil(Math.log2(mag(r).toNumber())) + 5);
+  if (h > 0) {
+    const scale = String(2 ** h);
+    r = { lo: c.Dn.div(r.lo, scale), hi: c.Up.div(r.hi, scale) };
   }
   const rho = mag(r);
   const tol = rho.lt(ONE) ? c.Dn.mul(rho, tolerance(c, 2)) : tolerance(c, 2);
@@ -314,6 +331,12 @@ export function sinCosPoint(x: Decimal, p: number): SinCos {
     const signed = (n >> 1) % 2 === 0 ? term : ineg(term);
     if (n % 2 === 1) sinSum = iadd(c, sinSum, signed);
     else cosSum = iadd(c, cosSum, signed);
+  }
+  for (let i = 0; i < h; i++) {
+    const sc = imul(c, sinSum, cosSum);
+    const sq = isqr(c, sinSum);
+    sinSum = imulInt(c, sc, 2);
+    cosSum = isub(c, point(ONE), imulInt(c, sq, 2));
   }
   const s = clampUnit(sinSum);
   const co = clampUnit(cosSum);

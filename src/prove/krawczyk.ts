@@ -22,6 +22,7 @@
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { resetStatus } from '../interval/arithmetic.js';
 import type { MapEvaluator } from '../model/types.js';
+import { down, up } from '../interval/round.js';
 
 /** A real N×N matrix given entry-wise as degenerate (point) elements of T. */
 export interface Preconditioner<T> {
@@ -169,8 +170,8 @@ export function krawczykShooting<T>(
 }
 
 /** Dense preconditioner over a row-major Float64Array (float path). */
-export function floatPreconditioner<T>(arith: IntervalArithmetic<T>, c: Float64Array, size: number): Preconditioner<T> {
-  return { size, entry: (r, k) => arith.fromNumber(c[r * size + k]!) };
+export function floatPreconditioner<T>(arith: IntervalArithmetic<T>, c: Float64Array, size: number): DensePreconditioner<T> {
+  return { size, dense: c, entry: (r, k) => arith.fromNumber(c[r * size + k]!) };
 }
 
 /** Dense preconditioner from precomputed point elements (multiprecision path). */
@@ -214,37 +215,41 @@ export function intervalNewtonStep<T>(
  * Uses the centred splitting (valid for every real C and every point J_m ∈ J(m)):
  *   I − C·J(X) ⊆ E + C·(J(m) − J(X)),  E = I − C·J(m),
  * and J(m) − J(X) is block-diagonal with blocks A_i(X) − A_i(m) (the identity blocks cancel), so
- *   K(X) ⊆ y₀ + E·(X − m) + C·v,   y₀ = m − C·F(m),   v_i = (A_i(X) − A_i(m))·(X_i − m_i).
- * y₀ and E are formed once (O(N²·(n + 3))). Per box:
- *  - 'dense' mode: E·d and C·v as dense interval products, O(N²);
- *  - 'grouped' mode (large N): columns split into G contiguous groups; with precomputed upper
- *    bounds S_rg ≥ Σ_{c∈g} |C_rc| and T_rg ≥ Σ_{c∈g} |E_rc|, the two products are enclosed by
- *    ±Σ_g (T_rg·max_{c∈g}|d_c| + S_rg·max_{c∈g}|v_c|), O(N·G). Coarser than dense (a box whose
- *    coordinates differ by many orders of magnitude inside one group loses), never unsound.
+ *   K(X) ⊆ y₀ + E·(X − m) + C·v,   y₀ = m − C·F(m),   v_i = (A_i(X) − A_i(m))·(X_i − m_i)
+ * and, with the columns split into G contiguous groups and upper bounds
+ * T_rg ≥ Σ_{c∈g} |E_rc|, S_rg ≥ Σ_{c∈g} |C_rc| formed once,
+ *   K(X)_r ⊆ y₀_r ± Σ_g (T_rg·max_{c∈g}|d_c| + S_rg·max_{c∈g}|v_c|),   d = X − m.
+ * Preparation costs O(N²·(n + 3)) operations (directed float64 operations of the kernel when the
+ * arithmetic is float64 and C is given densely; interval operations of T otherwise); each box then
+ * costs O(N·(G + n²)). With G = N (the default up to N = 64) the bound is the usual magnitude form
+ * of the dense product; with fewer groups it is coarser when coordinates within one group differ
+ * by orders of magnitude, never unsound. Double upper bounds are formed with the kernel's `up`
+ * (successor formula, round.ts), so underflow/overflow only makes them coarser.
  */
 export interface KrawczykPlan<T> {
   readonly sys: ShootingSystem<T>;
   readonly m: readonly T[];
-  readonly mode: 'dense' | 'grouped';
   /** m − C·F(m). */
   readonly y0: readonly T[];
   /** A_i(m) blocks. */
   readonly Am: readonly T[];
-  readonly C: Preconditioner<T>;
-  /** dense: E entries N×N. */
-  readonly E: readonly T[] | null;
-  /** grouped: bounds (thin T) N×G for |C| and |E|, and group starts. */
-  readonly Sg: readonly T[] | null;
-  readonly Tg: readonly T[] | null;
-  readonly groupStart: readonly number[];
+  /** Group bounds, row-major N×G: |E| and |C|. */
+  readonly Tg: Float64Array;
+  readonly Sg: Float64Array;
+  readonly groupStart: Int32Array;
   readonly assumed: boolean;
+}
+
+/** A preconditioner that also exposes its dense float64 entries (enables the fast preparation). */
+export interface DensePreconditioner<T> extends Preconditioner<T> {
+  readonly dense: Float64Array;
 }
 
 export function prepareKrawczyk<T>(
   sys: ShootingSystem<T>,
   m: readonly T[],
   C: Preconditioner<T>,
-  opts: { mode?: 'dense' | 'grouped' | 'auto'; groups?: number } = {},
+  opts: { groups?: number; fast?: boolean } = {},
 ): KrawczykPlan<T> | { domain: number; where: 'centre' } {
   const { arith: a, period: p, dim: n } = sys;
   const N = p * n;
@@ -253,58 +258,99 @@ export function prepareKrawczyk<T>(
   if ('domain' in res) return { domain: res.domain, where: 'centre' };
   const jb = shootingJacobianBlocks(sys, m);
   if ('domain' in jb) return { domain: jb.domain, where: 'centre' };
-  const mode = opts.mode === 'dense' || opts.mode === 'grouped' ? opts.mode : N > 256 ? 'grouped' : 'dense';
-  const G = mode === 'grouped' ? Math.min(N, Math.max(1, opts.groups ?? 64)) : 0;
-  const groupStart: number[] = [];
-  for (let g = 0; g < G; g++) groupStart.push(Math.floor((g * N) / G));
-  groupStart.push(N);
-  const zero = a.fromNumber(0);
-  const one = a.fromNumber(1);
+  const G = Math.min(N, Math.max(1, opts.groups ?? 64));
+  const groupStart = new Int32Array(G + 1);
+  for (let g = 0; g <= G; g++) groupStart[g] = Math.floor((g * N) / G);
+  const groupOf = new Int32Array(N);
+  for (let g = 0; g < G; g++) for (let c = groupStart[g]!; c < groupStart[g + 1]!; c++) groupOf[c] = g;
   const A = jb.blocks;
+  const F = res.value;
   const y0: T[] = new Array<T>(N);
-  const E: T[] | null = mode === 'dense' ? new Array<T>(N * N) : null;
-  const Sg: T[] | null = mode === 'grouped' ? new Array<T>(N * G) : null;
-  const Tg: T[] | null = mode === 'grouped' ? new Array<T>(N * G) : null;
-  const rowC: T[] = new Array<T>(N);
-  for (let r = 0; r < N; r++) {
-    for (let k = 0; k < N; k++) rowC[k] = C.entry(r, k);
-    let cf: T = zero;
-    for (let k = 0; k < N; k++) cf = a.add(cf, a.mul(rowC[k]!, res.value[k]!));
-    y0[r] = a.sub(m[r]!, cf);
-    let g = 0;
-    let sC: T = zero;
-    let sE: T = zero;
-    for (let b = 0; b < p; b++) {
-      const prev = ((b - 1 + p) % p) * n;
-      for (let j = 0; j < n; j++) {
-        const col = b * n + j;
-        let cj: T = rowC[prev + j]!;
-        for (let l = 0; l < n; l++) cj = a.sub(cj, a.mul(rowC[b * n + l]!, A[b * nn + l * n + j]!));
-        const e = r === col ? a.sub(one, cj) : a.neg(cj);
-        if (E !== null) E[r * N + col] = e;
-        else {
-          sC = a.add(sC, a.fromNumber(a.magUp(rowC[col]!)));
-          sE = a.add(sE, a.fromNumber(a.magUp(e)));
-          if (col + 1 === groupStart[g + 1]) {
-            Sg![r * G + g] = a.fromNumber(a.hiUp(sC));
-            Tg![r * G + g] = a.fromNumber(a.hiUp(sE));
-            sC = zero;
-            sE = zero;
-            g++;
+  const Tg = new Float64Array(N * G);
+  const Sg = new Float64Array(N * G);
+  const dense = (C as Partial<DensePreconditioner<T>>).dense;
+  if (dense !== undefined && a.bits === 53 && opts.fast !== false) {
+    // float64 fast path: endpoints are exact doubles; every bound is directed with up/down.
+    const Fl = new Float64Array(N);
+    const Fh = new Float64Array(N);
+    for (let k = 0; k < N; k++) {
+      Fl[k] = a.loDown(F[k]!);
+      Fh[k] = a.hiUp(F[k]!);
+    }
+    const Al = new Float64Array(p * nn);
+    const Ah = new Float64Array(p * nn);
+    for (let k = 0; k < p * nn; k++) {
+      Al[k] = a.loDown(A[k]!);
+      Ah[k] = a.hiUp(A[k]!);
+    }
+    for (let r = 0; r < N; r++) {
+      const row = r * N;
+      let cfl = 0;
+      let cfh = 0;
+      for (let k = 0; k < N; k++) {
+        const c = dense[row + k]!;
+        if (c === 0) continue;
+        const p1 = c * Fl[k]!;
+        const p2 = c * Fh[k]!;
+        cfl = down(cfl + down(Math.min(p1, p2)));
+        cfh = up(cfh + up(Math.max(p1, p2)));
+      }
+      y0[r] = a.sub(m[r]!, a.hull(a.fromNumber(cfl), a.fromNumber(cfh)));
+      for (let b = 0; b < p; b++) {
+        const prev = ((b - 1 + p) % p) * n;
+        for (let j = 0; j < n; j++) {
+          const col = b * n + j;
+          let lo = dense[row + prev + j]!;
+          let hi = lo;
+          for (let l = 0; l < n; l++) {
+            const c = dense[row + b * n + l]!;
+            if (c === 0) continue;
+            const p1 = c * Al[b * nn + l * n + j]!;
+            const p2 = c * Ah[b * nn + l * n + j]!;
+            lo = down(lo - up(Math.max(p1, p2)));
+            hi = up(hi - down(Math.min(p1, p2)));
           }
+          const delta = r === col ? 1 : 0;
+          const el = down(delta - hi);
+          const eh = up(delta - lo);
+          const g = r * G + groupOf[col]!;
+          Tg[g] = up(Tg[g]! + Math.max(Math.abs(el), Math.abs(eh)));
+          Sg[g] = up(Sg[g]! + Math.abs(dense[row + col]!));
+        }
+      }
+    }
+  } else {
+    const zero = a.fromNumber(0);
+    const one = a.fromNumber(1);
+    const rowC: T[] = new Array<T>(N);
+    for (let r = 0; r < N; r++) {
+      for (let k = 0; k < N; k++) rowC[k] = C.entry(r, k);
+      let cf: T = zero;
+      for (let k = 0; k < N; k++) cf = a.add(cf, a.mul(rowC[k]!, F[k]!));
+      y0[r] = a.sub(m[r]!, cf);
+      for (let b = 0; b < p; b++) {
+        const prev = ((b - 1 + p) % p) * n;
+        for (let j = 0; j < n; j++) {
+          const col = b * n + j;
+          let cj: T = rowC[prev + j]!;
+          for (let l = 0; l < n; l++) cj = a.sub(cj, a.mul(rowC[b * n + l]!, A[b * nn + l * n + j]!));
+          const e = r === col ? a.sub(one, cj) : a.neg(cj);
+          const g = r * G + groupOf[col]!;
+          Tg[g] = up(Tg[g]! + a.magUp(e));
+          Sg[g] = up(Sg[g]! + a.magUp(rowC[col]!));
         }
       }
     }
   }
-  return { sys, m, mode, y0, Am: A, C, E, Sg, Tg, groupStart, assumed: res.assumed || jb.assumed };
+  return { sys, m, y0, Am: A, Tg, Sg, groupStart, assumed: res.assumed || jb.assumed };
 }
 
 /**
- * The Krawczyk test of a prepared plan on box X (m must lie in X); `target` as in
+ * The Krawczyk test of a prepared plan on box X (the plan's m must lie in X); `target` as in
  * `krawczykShooting`. Same contract and outcomes as `krawczykShooting`.
  */
 export function krawczykPlanned<T>(plan: KrawczykPlan<T>, box: readonly T[], target: readonly T[] = box): KrawczykOutcome<T> {
-  const { sys, m, y0, Am } = plan;
+  const { sys, m, y0, Am, Tg, Sg, groupStart } = plan;
   const { arith: a, period: p, dim: n } = sys;
   const N = p * n;
   const nn = n * n;
@@ -317,61 +363,45 @@ export function krawczykPlanned<T>(plan: KrawczykPlan<T>, box: readonly T[], tar
   if ('domain' in jb) return { kind: 'domain', where: 'box', point: jb.domain };
   const assumed = plan.assumed || jb.assumed;
   const zero = a.fromNumber(0);
+  const G = groupStart.length - 1;
+  const md = new Float64Array(G);
+  const mv = new Float64Array(G);
   const d: T[] = new Array<T>(N);
   for (let k = 0; k < N; k++) d[k] = a.sub(box[k]!, m[k]!);
-  const v: T[] = new Array<T>(N);
-  for (let i = 0; i < p; i++) {
-    for (let r = 0; r < n; r++) {
+  for (let g = 0, c = 0; g < G; g++) {
+    for (; c < groupStart[g + 1]!; c++) {
+      const i = Math.floor(c / n);
+      const r = c - i * n;
       let s: T = zero;
-      for (let c = 0; c < n; c++) {
-        const delta = a.sub(jb.blocks[i * nn + r * n + c]!, Am[i * nn + r * n + c]!);
-        s = a.add(s, a.mul(delta, d[i * n + c]!));
+      for (let k = 0; k < n; k++) {
+        const delta = a.sub(jb.blocks[i * nn + r * n + k]!, Am[i * nn + r * n + k]!);
+        s = a.add(s, a.mul(delta, d[i * n + k]!));
       }
-      v[i * n + r] = s;
+      md[g] = Math.max(md[g]!, a.magUp(d[c]!));
+      mv[g] = Math.max(mv[g]!, a.magUp(s));
     }
   }
   const image: T[] = new Array<T>(N);
-  if (plan.mode === 'dense') {
-    const E = plan.E!;
-    for (let r = 0; r < N; r++) {
-      let acc: T = y0[r]!;
-      for (let c = 0; c < N; c++) {
-        acc = a.add(acc, a.mul(E[r * N + c]!, d[c]!));
-        acc = a.add(acc, a.mul(plan.C.entry(r, c), v[c]!));
-      }
-      image[r] = acc;
-    }
-  } else {
-    const G = plan.groupStart.length - 1;
-    const md: T[] = new Array<T>(G);
-    const mv: T[] = new Array<T>(G);
-    for (let g = 0; g < G; g++) {
-      let xd = 0;
-      let xv = 0;
-      for (let c = plan.groupStart[g]!; c < plan.groupStart[g + 1]!; c++) {
-        xd = Math.max(xd, a.magUp(d[c]!));
-        xv = Math.max(xv, a.magUp(v[c]!));
-      }
-      md[g] = a.fromNumber(xd);
-      mv[g] = a.fromNumber(xv);
-    }
-    const Sg = plan.Sg!;
-    const Tg = plan.Tg!;
-    for (let r = 0; r < N; r++) {
-      let s: T = zero;
-      for (let g = 0; g < G; g++) s = a.add(s, a.add(a.mul(Tg[r * G + g]!, md[g]!), a.mul(Sg[r * G + g]!, mv[g]!)));
-      const bound = a.hiUp(s);
-      image[r] = a.inflate(y0[r]!, bound);
-    }
-  }
   let inside = true;
   let excludedAt = -1;
   let firstOut = -1;
   for (let r = 0; r < N; r++) {
-    if (!a.isInterior(image[r]!, target[r]!)) {
+    let bound = 0;
+    for (let g = 0; g < G; g++) {
+      const t = Tg[r * G + g]!;
+      const u = Sg[r * G + g]!;
+      if (t !== 0) bound = up(bound + up(t * md[g]!));
+      if (u !== 0) bound = up(bound + up(u * mv[g]!));
+    }
+    if (!(bound < Infinity)) {
+      return { kind: 'undecided', image: box.slice(), reason: 'Krawczyk bound overflowed', assumed };
+    }
+    const k = a.inflate(y0[r]!, bound);
+    image[r] = k;
+    if (!a.isInterior(k, target[r]!)) {
       inside = false;
       if (firstOut < 0) firstOut = r;
-      if (excludedAt < 0 && a.disjoint(image[r]!, box[r]!)) excludedAt = r;
+      if (excludedAt < 0 && a.disjoint(k, box[r]!)) excludedAt = r;
     }
   }
   if (inside) return { kind: 'inside', image, assumed };

@@ -8,7 +8,7 @@
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import type { MapEvaluator } from '../model/types.js';
-import { absDiffUp, addDecimal, compareDecimal, roundDecimal, subDecimal } from './decimal-out.js';
+import { absDiffUp, compareDecimal, roundDecimal } from './decimal-out.js';
 import {
   krawczykPlanned,
   prepareKrawczyk,
@@ -119,14 +119,16 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   const { arith: a, period: p, dim: n, C, digits } = inp;
   const N = p * n;
   const sys: ShootingSystem<T> = { arith: a, evaluator: inp.evaluator, period: p, dim: n };
-  const m = inp.centre;
+  // The Krawczyk point is the written centre: the candidate rounded to `digits` digits, enclosed.
+  const centreS: string[] = inp.centre.map((x) => roundDecimal(a.toDecimal(x).lo, digits, 'nearest'));
+  const m = centreS.map((c) => a.fromDecimal(c));
+  const plan = prepareKrawczyk(sys, m, C);
+  if ('domain' in plan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the centre left the domain at point ${plan.domain}` };
   // Epsilon-inflation (Rump): X ← hull(K(X), m) widened by 10 % of its width + η.
   const relTiny = Math.pow(2, -(a.bits - 4));
   const absTiny = 1e-300;
   const eta = m.map((x) => a.magUp(x) * relTiny + absTiny);
   let X = m.map((x, k) => a.inflate(x, eta[k]!));
-  const plan = prepareKrawczyk(sys, m, C);
-  if ('domain' in plan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the centre left the domain at point ${plan.domain}` };
   let last: KrawczykOutcome<T> | null = null;
   let found = false;
   for (let it = 0; it < inp.maxInflations; it++) {
@@ -151,20 +153,14 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
     return { kind: 'failed', reason, detail: `epsilon-inflation did not reach K(X) ⊂ int X in ${inp.maxInflations} steps: ${why}` };
   }
   // Write outward-rounded decimals and re-test exactly what was written.
-  const centreS: string[] = new Array<string>(N);
   const loS: string[] = new Array<string>(N);
   const hiS: string[] = new Array<string>(N);
   for (let k = 0; k < N; k++) {
     const xk = a.toDecimal(X[k]!);
     loS[k] = roundDecimal(xk.lo, digits, 'floor');
     hiS[k] = roundDecimal(xk.hi, digits, 'ceil');
-    const mk = a.toDecimal(m[k]!).lo;
-    const short = roundDecimal(mk, digits, 'nearest');
-    centreS[k] = compareDecimal(loS[k]!, short) <= 0 && compareDecimal(short, hiS[k]!) <= 0 ? short : mk;
   }
-  const wplan = writtenPlan(sys, C, centreS);
-  if ('domain' in wplan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the written centre left the domain at point ${wplan.domain}` };
-  const check = verifyWrittenBox(wplan, centreS, loS, hiS);
+  const check = verifyWrittenBox(plan, centreS, loS, hiS);
   if (check.kind !== 'inside') {
     const why = check.kind === 'unrepresentable' ? 'written box not representable' : describe(check);
     return { kind: 'failed', reason: 'write-check-failed', detail: `re-test of the written box failed: ${why}` };
@@ -175,7 +171,7 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   // Uniqueness radius.
   let uniquenessRadius: string | null = null;
   if (inp.uniqueness) {
-    const u = uniquenessSearch(wplan, centreS, loS, hiS);
+    const u = uniquenessSearch(plan, centreS, loS, hiS);
     uniquenessRadius = u.radius;
     assumed ||= u.assumed;
   }
@@ -246,10 +242,24 @@ function uniquenessSearch<T>(
   r0 = roundDecimal(r0, 3, 'ceil');
   if (compareDecimal(r0, '0') === 0) return { radius: null, assumed: false };
   let assumed = false;
+  const ar = plan.sys.arith;
+  const m = plan.m;
   const test = (r: string): boolean => {
-    const yl = centre.map((c) => subDecimal(c, r, 'floor'));
-    const yh = centre.map((c) => addDecimal(c, r, 'ceil'));
-    const out = verifyWrittenBox(plan, centre, yl, yh);
+    // Y = centre ± r: outer enclosure from the ends of m and r, inner one likewise (T operations).
+    const rr = ar.fromDecimal(r);
+    const outer: T[] = new Array<T>(N);
+    const inner: T[] = new Array<T>(N);
+    for (let k = 0; k < N; k++) {
+      const mk = m[k]!;
+      const ol = ar.lo(ar.sub(ar.lo(mk), ar.hi(rr)));
+      const oh = ar.hi(ar.add(ar.hi(mk), ar.hi(rr)));
+      const il = ar.hi(ar.sub(ar.hi(mk), ar.lo(rr)));
+      const ih = ar.lo(ar.add(ar.lo(mk), ar.lo(rr)));
+      if (!ar.certainlyLt(il, ih)) return false;
+      outer[k] = ar.hull(ol, oh);
+      inner[k] = ar.hull(il, ih);
+    }
+    const out = krawczykPlanned(plan, outer, inner);
     if (out.kind === 'inside') {
       assumed ||= out.assumed;
       return true;

@@ -35,6 +35,21 @@ export function doublingPeriod(p: number, k: bigint): number {
   return j;
 }
 
+/**
+ * True when the logistic r = 4 orbit of k has minimal period p: θ and 1 − θ give the same point
+ * sin²(πθ), so besides 2^j k ≢ k we need 2^j k ≢ −k (mod 2^p − 1) for 0 < j < p.
+ */
+export function logistic4Primitive(p: number, k: bigint): boolean {
+  const m = (1n << BigInt(p)) - 1n;
+  if (doublingPeriod(p, k) !== p) return false;
+  let t = k % m;
+  for (let j = 0; j < p; j++) {
+    if ((t + k) % m === 0n) return false;
+    t = (t * 2n) % m;
+  }
+  return true;
+}
+
 /** 40 significant digits of a decimal.js value, as a string. */
 export function s40(x: Decimal): string {
   return new D60(x).toSD(40).toString();

@@ -1,7 +1,7 @@
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { checkCertificate } from '../../src/checker/index.js';
-import { D60, doublingPeriod, logistic4Orbit, makeCert, s40, widen } from './certs.js';
+import { D60, logistic4Primitive, logistic4Orbit, makeCert, s40, widen } from './certs.js';
 
 const logistic = { state: ['x'], step: { x: 'r*x*(1 - x)' } };
 
@@ -43,7 +43,7 @@ describe('closed-form certificates are VERIFIED', () => {
   for (const p of [10, 100]) {
     it(`logistic r = 4, period ${p} via sin²(πk/(2^p − 1)), multiplier +2^p (doubling-map conjugacy, derived by hand)`, () => {
       const k = 0x5851f42d4c957f2d1b873593n % ((1n << BigInt(p)) - 1n);
-      expect(doublingPeriod(p, k)).toBe(p);
+      expect(logistic4Primitive(p, k)).toBe(true);
       const cert = makeCert({
         ...logistic, params: { r: '4' }, centre: logistic4Orbit(p, k), rad: '1e-25', uniquenessRadius: '1e-24',
         stability: { class: 'repelling', multiplier: widen(new D60(2).pow(p), '1e-15') },

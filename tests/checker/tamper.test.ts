@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { checkCertificate } from '../../src/checker/index.js';
-import { D60, doublingPeriod, logistic4Orbit, makeCert, s40, seal, widen } from './certs.js';
+import { D60, logistic4Primitive, logistic4Orbit, makeCert, s40, seal, widen } from './certs.js';
 
 type Doc = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
 const H = Decimal.clone({ precision: 400 });
@@ -31,7 +31,7 @@ const baseArb: fc.Arbitrary<Doc> = fc.oneof(
   fc.record({ p: fc.integer({ min: 3, max: 8 }), k: fc.bigInt({ min: 1n, max: 250n }) }).map(({ p, k }) => {
     const m = (1n << BigInt(p)) - 1n;
     let kk = (k % (m - 1n)) + 1n;
-    while (doublingPeriod(p, kk) !== p) kk = (kk % (m - 1n)) + 1n;
+    while (!logistic4Primitive(p, kk)) kk = (kk % (m - 1n)) + 1n;
     return makeCert({
       state: ['x'], params: { r: '4' }, step: { x: '4*x - r*x^2' }, centre: logistic4Orbit(p, kk), rad: '1e-22',
       uniquenessRadius: '1e-21', stability: { class: 'repelling', multiplier: widen(new D60(2).pow(p), '1e-12') },
