@@ -51,8 +51,23 @@ function certificate(c: Case): Record<string, unknown> {
   return doc;
 }
 
+/** Smallest k' ≥ k whose logistic orbit has minimal period p (2^j k' ≢ ±k' mod 2^p − 1, 0 < j < p). */
+function primitive(p: number, k: bigint): bigint {
+  const m = (1n << BigInt(p)) - 1n;
+  for (let kk = k % m; ; kk = (kk + 1n) % m) {
+    let t = (kk * 2n) % m;
+    let ok = kk !== 0n;
+    for (let j = 1; j < p && ok; j++) {
+      if (t === kk || (t + kk) % m === 0n) ok = false;
+      t = (t * 2n) % m;
+    }
+    if (ok) return kk;
+  }
+}
+
 function logistic4(p: number, k: bigint, digits: number, relRad: string | undefined, hints?: Record<string, number>): Case {
   const m = (1n << BigInt(p)) - 1n;
+  k = primitive(p, k);
   const H = Decimal.clone({ precision: digits + 30 });
   const pi = H.acos(-1);
   const centre: string[][] = [];

@@ -46,7 +46,7 @@ export class Elementary {
 
   /** Tail threshold for a context: 10^-(digits+2). */
   private eps(g: IvCtx): Decimal {
-    return new g.Up(10).pow(-(g.digits + 2));
+    return new g.Up('10').pow(-(g.digits + 2));
   }
 
   // ---- series cores (argument intervals narrow, bounds as stated) ----
@@ -55,7 +55,7 @@ export class Elementary {
   private expSmall(g: IvCtx, r: Iv): Iv {
     const m = g.mag(r);
     if (m.gt('0.01')) throw new Error('internal: series argument outside |r| ≤ 1/100');
-    let t = new g.Up(1);
+    let t = new g.Up('1');
     let n = 0;
     const eps = this.eps(g);
     do {
@@ -83,7 +83,7 @@ export class Elementary {
     let rem = g.Up.div(pw, 2 * n + 3);
     if (hyperbolic) rem = g.Up.div(rem, g.Down.sub(1, m2));
     const w = hyperbolic ? g.sqr(z) : g.neg(g.sqr(z));
-    const s = series(g, w, n, (k) => recip(g, 2 * k + 1), new g.Up(0));
+    const s = series(g, w, n, (k) => recip(g, 2 * k + 1), new g.Up('0'));
     return g.add(g.mul(z, s), g.sym(rem));
   }
 
@@ -93,7 +93,7 @@ export class Elementary {
     if (m.gt(1)) throw new Error('internal: series argument outside |r| ≤ 1');
     const eps = this.eps(g);
     let p = odd ? 1 : 0; // first dropped power after loop
-    let t = odd ? m : new g.Up(1);
+    let t = odd ? m : new g.Up('1');
     do {
       t = g.Up.div(g.Up.mul(g.Up.mul(t, m), m), (p + 1) * (p + 2));
       p += 2;
@@ -103,7 +103,7 @@ export class Elementary {
     const facts: Iv[] = [];
     const coef = (j: number): Iv =>
       (facts[j] ??= j === 0 ? (odd ? g.one : g.one) : g.div(coef(j - 1), g.literal(String(odd ? (2 * j) * (2 * j + 1) : (2 * j - 1) * (2 * j)))));
-    const s = series(g, w, n, coef, new g.Up(0));
+    const s = series(g, w, n, coef, new g.Up('0'));
     return g.add(odd ? g.mul(r, s) : s, g.sym(g.Up.mul(t, 2)));
   }
 
@@ -114,7 +114,7 @@ export class Elementary {
     if (!p) {
       const a = this.atanCore(g, recip(g, 5), false);
       const b = this.atanCore(g, recip(g, 239), false);
-      p = g.sub(g.scale(new g.Down(16), a), g.scale(new g.Down(4), b));
+      p = g.sub(g.scale(new g.Down('16'), a), g.scale(new g.Down('4'), b));
       this.piCache.set(g.digits, p);
     }
     return p;
@@ -122,7 +122,7 @@ export class Elementary {
   private ln2(g: IvCtx): Iv {
     let v = this.ln2Cache.get(g.digits);
     if (!v) {
-      v = g.scale(new g.Down(2), this.atanCore(g, recip(g, 3), true));
+      v = g.scale(new g.Down('2'), this.atanCore(g, recip(g, 3), true));
       this.ln2Cache.set(g.digits, v);
     }
     return v;
@@ -131,7 +131,7 @@ export class Elementary {
     let v = this.ln10Cache.get(g.digits);
     if (!v) {
       // ln 10 = 3 ln 2 + ln(5/4), ln(5/4) = 2 atanh(1/9)
-      v = g.add(g.scale(new g.Down(3), this.ln2(g)), g.scale(new g.Down(2), this.atanCore(g, recip(g, 9), true)));
+      v = g.add(g.scale(new g.Down('3'), this.ln2(g)), g.scale(new g.Down('2'), this.atanCore(g, recip(g, 9), true)));
       this.ln10Cache.set(g.digits, v);
     }
     return v;
@@ -144,7 +144,7 @@ export class Elementary {
     if (x.isZero()) return g0.one;
     let s = 0;
     const ax = x.abs();
-    let bound = new Decimal(1).div(256);
+    let bound = new Decimal('1').div(256);
     while (ax.gt(bound)) {
       bound = bound.times(2);
       s++;
@@ -165,14 +165,14 @@ export class Elementary {
     const X = g.literal(x.toString());
     if (x.gt('0.8') && x.lt('1.25')) {
       // |z| ≤ 1/9: no reduction, no cancellation near 1
-      return g0.round(g.scale(new g.Down(2), this.atanCore(g, g.div(g.sub(X, g.one), g.add(X, g.one)), true)));
+      return g0.round(g.scale(new g.Down('2'), this.atanCore(g, g.div(g.sub(X, g.one), g.add(X, g.one)), true)));
     }
     const y = g.div(X, g.literal(`1e${e10}`)); // exact: a shift of the decimal point, y in [1, 10)
     const j = y.lo.lt('1.45') ? 0 : y.lo.lt('2.9') ? 1 : y.lo.lt('5.8') ? 2 : 3;
     const m = g.div(y, g.literal(String(2 ** j)));
     const z = g.div(g.sub(m, g.one), g.add(m, g.one));
-    const lm = g.scale(new g.Down(2), this.atanCore(g, z, true));
-    const res = g.add(g.add(g.scale(new g.Down(e10), this.ln10(g)), g.scale(new g.Down(j), this.ln2(g))), lm);
+    const lm = g.scale(new g.Down('2'), this.atanCore(g, z, true));
+    const res = g.add(g.add(g.scale(new g.Down(String(e10)), this.ln10(g)), g.scale(new g.Down(String(j)), this.ln2(g))), lm);
     return g0.round(res);
   }
 
@@ -189,14 +189,14 @@ export class Elementary {
     } else {
       let y = X;
       for (let i = 0; i < 3; i++) y = g.div(y, g.add(g.one, g.sqrt(g.add(g.one, g.sqr(y)))));
-      v = g.scale(new g.Down(8), this.atanCore(g, y, false));
+      v = g.scale(new g.Down('8'), this.atanCore(g, y, false));
     }
     return g0.round(v);
   }
 
   /** sin (which = 0) or cos (which = 1) at a point. */
   sinCosPoint(g0: IvCtx, x: Decimal, which: 0 | 1): Iv {
-    if (x.abs().gt(new Decimal(10).pow(g0.digits))) return { lo: new g0.Down(-1), hi: new g0.Up(1) };
+    if (x.abs().gt(new Decimal('10').pow(g0.digits))) return { lo: new g0.Down('-1'), hi: new g0.Up('1') };
     const g = ivCtx(g0.digits + GUARD + Math.max(0, x.e + 1));
     const hp = g.scale(new g.Down('0.5'), this.pi(g));
     const k = new g.Near(x).div(hp.lo).round();
@@ -225,11 +225,11 @@ export class Elementary {
     const g = ivCtx(g0.digits + GUARD);
     if (x.abs().lt(1)) return g0.round(g.div(this.sinhPoint(g, x), this.coshPoint(g, x)));
     // tanh|x| = 1 − 2/(exp(2|x|) + 1), decreasing in the clamp L ≤ 2|x|.
-    const cap = new Decimal(3 * (g.digits + 10));
+    const cap = new Decimal(String(3 * (g.digits + 10)));
     const two = g.Down.mul(x.abs(), 2); // exact: g has guard digits
     const L = two.gt(cap) ? cap : two;
     const t = g.sub(g.one, g.div(g.literal('2'), g.add(this.expPoint(g, L), g.one)));
-    const v = two.gt(cap) ? { lo: t.lo, hi: new g.Up(1) } : t;
+    const v = two.gt(cap) ? { lo: t.lo, hi: new g.Up('1') } : t;
     return g0.round(x.isNeg() ? g.neg(v) : v);
   }
 
@@ -259,7 +259,7 @@ export class Elementary {
   coshInterval(g: IvCtx, a: Iv): Iv {
     if (a.lo.gte(0)) return this.increasing(g, a, (c, x) => this.coshPoint(c, x));
     if (a.hi.lte(0)) return this.increasing(g, g.neg(a), (c, x) => this.coshPoint(c, x));
-    return { lo: new g.Down(1), hi: g.Up.max(this.coshPoint(g, a.lo).hi, this.coshPoint(g, a.hi).hi) };
+    return { lo: new g.Down('1'), hi: g.Up.max(this.coshPoint(g, a.lo).hi, this.coshPoint(g, a.hi).hi) };
   }
 
   /** Could [a.lo, a.hi] contain a point phase·(π/2) + k·period·(π/2) for an integer k? */
@@ -267,8 +267,8 @@ export class Elementary {
     const e = Math.max(a.lo.e, a.hi.e, 0);
     const g = ivCtx(g0.digits + GUARD + e + 1);
     const hp = g.scale(new g.Down('0.5'), this.pi(g));
-    const per = g.scale(new g.Down(period), hp);
-    const off = g.scale(new g.Down(phase), hp);
+    const per = g.scale(new g.Down(String(period)), hp);
+    const off = g.scale(new g.Down(String(phase)), hp);
     const ta = g.div(g.sub(g.literal(a.lo.toString()), off), per);
     const tb = g.div(g.sub(g.literal(a.hi.toString()), off), per);
     return tb.hi.floor().gte(ta.lo.ceil());
@@ -276,8 +276,8 @@ export class Elementary {
 
   sinCosInterval(g: IvCtx, a: Iv, which: 0 | 1): Iv {
     if (a.lo.eq(a.hi)) return this.sinCosPoint(g, a.lo, which);
-    const full = { lo: new g.Down(-1), hi: new g.Up(1) };
-    if (g.Down.sub(a.hi, a.lo).gte(7) || a.lo.abs().gt(new Decimal(10).pow(g.digits)) || a.hi.abs().gt(new Decimal(10).pow(g.digits))) return full;
+    const full = { lo: new g.Down('-1'), hi: new g.Up('1') };
+    if (g.Down.sub(a.hi, a.lo).gte(7) || a.lo.abs().gt(new Decimal('10').pow(g.digits)) || a.hi.abs().gt(new Decimal('10').pow(g.digits))) return full;
     const h = g.hull(this.sinCosPoint(g, a.lo, which), this.sinCosPoint(g, a.hi, which));
     // sin: max at π/2, min at −π/2; cos: max at 0, min at π (mod 2π)
     const maxPhase = which === 0 ? 1 : 0;

@@ -165,7 +165,7 @@ export class Evaluator {
     readonly c: IvCtx,
     private readonly params: ReadonlyMap<string, Iv>,
   ) {
-    this.slope = { lo: new c.Down(-1), hi: new c.Up(1) };
+    this.slope = { lo: new c.Down('-1'), hi: new c.Up('1') };
   }
 
   private lit(text: string): Iv {
@@ -200,7 +200,7 @@ export class Evaluator {
       case 'par':
         return { v: this.params.get(node.name)!, d: null };
       case 'const':
-        return { v: node.name === 'pi' ? c.round(el.pi(c)) : el.expPoint(c, new c.Down(1)), d: null };
+        return { v: node.name === 'pi' ? c.round(el.pi(c)) : el.expPoint(c, new c.Down('1')), d: null };
       case 'var': {
         if (!grad) return { v: x[node.index]!, d: null };
         const d = x.map((_, j) => (j === node.index ? c.one : c.zero));
@@ -260,10 +260,10 @@ export class Evaluator {
         case 'sqrt': {
           const v = c.sqrt(u);
           if (a.d && v.lo.lte(0)) throw new DomainViolation('sqrt is not differentiable at 0');
-          return { v, d: a.d && this.chain(c.div(c.one, c.scale(new c.Down(2), v)), a) };
+          return { v, d: a.d && this.chain(c.div(c.one, c.scale(new c.Down('2'), v)), a) };
         }
         case 'sqr':
-          return { v: c.sqr(u), d: a.d && this.chain(c.scale(new c.Down(2), u), a) };
+          return { v: c.sqr(u), d: a.d && this.chain(c.scale(new c.Down('2'), u), a) };
         case 'exp': {
           const v = el.expInterval(c, u);
           return { v, d: this.chain(v, a) };

@@ -7,7 +7,9 @@
  *  1. decimal.js 10.6.0: + − × ÷ and sqrt correctly rounded in the rounding direction set on the
  *     constructor (ROUND_FLOOR for lower ends, ROUND_CEIL for upper ends, contexts made with
  *     `Decimal.clone`, never global settings); exact comparisons; the constructor keeping every
- *     digit of a decimal string. decimal.js exp/ln/pow/trig are never used for enclosures.
+ *     digit of a decimal string (only strings and Decimals are passed to constructors; small
+ *     integer JS numbers, which decimal.js converts exactly, appear as operands such as k in k!).
+ *     decimal.js exp/ln/pow/trig are never used for enclosures.
  *  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
  *     our own strict reader, json.ts), and node:crypto SHA-256.
  *  3. The mathematics, stated where it is used: Krawczyk's theorem (K(X) ⊂ int X ⇒ exactly one

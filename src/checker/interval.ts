@@ -42,8 +42,8 @@ export class IvCtx {
     this.Down = Decimal.clone({ ...base, rounding: Decimal.ROUND_FLOOR });
     this.Up = Decimal.clone({ ...base, rounding: Decimal.ROUND_CEIL });
     this.Near = Decimal.clone({ ...base, rounding: Decimal.ROUND_HALF_EVEN });
-    this.zero = this.point(new this.Down(0));
-    this.one = this.point(new this.Down(1));
+    this.zero = this.point(new this.Down('0'));
+    this.one = this.point(new this.Down('1'));
   }
 
   point(x: Decimal): Iv {
@@ -136,7 +136,7 @@ export class IvCtx {
     if (a.lo.gte(0)) return { lo: this.mD(a.lo, a.lo), hi: this.mU(a.hi, a.hi) };
     if (a.hi.lte(0)) return { lo: this.mD(a.hi, a.hi), hi: this.mU(a.lo, a.lo) };
     const m = a.hi.gt(this.negU(a.lo)) ? a.hi : a.lo;
-    return { lo: new this.Down(0), hi: this.mU(m, m) };
+    return { lo: new this.Down('0'), hi: this.mU(m, m) };
   }
 
   /** x^k for an integer k, by binary powering of |x| (only ×, ÷ in directed rounding). */
@@ -147,7 +147,7 @@ export class IvCtx {
     const even = k % 2 === 0;
     const m = this.abs(a);
     const pw = (x: Decimal, up: boolean): Decimal => {
-      let result = new this.Down(1);
+      let result = new this.Down('1');
       let base = x;
       let e = k;
       while (e > 0) {
@@ -172,7 +172,7 @@ export class IvCtx {
   abs(a: Iv): Iv {
     if (a.lo.gte(0)) return a;
     if (a.hi.lte(0)) return this.neg(a);
-    return { lo: new this.Down(0), hi: this.Up.max(this.negU(a.lo), a.hi) };
+    return { lo: new this.Down('0'), hi: this.Up.max(this.negU(a.lo), a.hi) };
   }
 
   min(a: Iv, b: Iv): Iv {

@@ -51,8 +51,8 @@ const floatField: Field<number> = {
 };
 function decimalField(D: Decimal.Constructor): Field<Decimal> {
   return {
-    zero: new D(0),
-    one: new D(1),
+    zero: new D('0'),
+    one: new D('1'),
     isZero: (a) => a.isZero(),
     absGt: (a, b) => a.abs().gt(b.abs()),
     sub: (a, b) => D.sub(a, b),
@@ -147,7 +147,7 @@ export function preconditioner(s: Shooting, box: readonly Iv[], highPrecision: b
   if (!inv) return null;
   const cols: Int32Array[] = [];
   const vals: Decimal[][] = [];
-  const drop = useDec ? new c.Near(10).pow(-(c.digits + 3)) : 1e-20;
+  const drop = useDec ? new c.Near('10').pow(-(c.digits + 3)) : 1e-20;
   for (let r = 0; r < N; r++) {
     let rowMax = 0;
     let rowMaxD: Decimal | null = null;
@@ -292,7 +292,7 @@ export function stability(c: IvCtx, D: Iv[][], n: number): Stability {
   const detDirect = c.sub(c.mul(M[0]!, M[3]!), c.mul(M[1]!, M[2]!));
   const det = { lo: c.Down.max(detDirect.lo, detProd.lo), hi: c.Up.min(detDirect.hi, detProd.hi) };
   if (det.lo.gt(det.hi)) throw new DomainViolation('internal: determinant enclosures disjoint');
-  const disc = c.sub(c.sqr(T), c.scale(new c.Down(4), det));
+  const disc = c.sub(c.sqr(T), c.scale(new c.Down('4'), det));
   const out: Stability = { cls: 'undecided', trace: T, determinant: det };
   if (disc.lo.gt(0)) {
     const sq = c.sqrt(disc);

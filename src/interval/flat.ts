@@ -8,9 +8,11 @@
  *  - R[1] = 1 once some result rests on the Math.* accuracy assumption (F_ASSUMED).
  * Operations take register indices: fAdd(R, d, a, b) sets register d to a + b. d may alias a or b.
  *
- * Enclosures are exactly those of kernel.ts: + − × ÷ and sqr have an inlined fast path (successor
- * formula of Rump et al. 2009, see round.ts) that is taken only when the result is finite and
- * ordered; everything else (infinite ends, empty, NaN, 0·∞, division by a box touching 0, overflow)
+ * Enclosures are those of kernel.ts, except that + − × ÷ and sqr have an inlined fast path
+ * (successor formula of Rump et al. 2009, see round.ts, with ε = 2^-1000 for η) that is taken only
+ * when both result ends are finite (the check hi − lo ≤ MAX also rejects NaN and, through ∞ − ∞,
+ * every infinite or empty operand); the fast path is one step outward even for exact results, so
+ * it may be one ulp wider than the kernel's tight result. Everything else (infinite ends, empty, NaN, 0·∞, division by a box touching 0, overflow)
  * falls to the kernel, which handles all special cases and reports flags. The fast path of × rounds
  * min/max of the four rounded products outward, which is valid because down(min_i fl(p_i)) ≤
  * pred(fl(p_j)) ≤ p_j for the exact minimum p_j (round-to-nearest is monotone).
@@ -21,10 +23,14 @@
 import * as K from './kernel.js';
 
 const PHI = 2 ** -53 * (1 + 2 ** -52);
-const ETA = 2 ** -1074;
+/**
+ * Absolute term of the fast-path rounding. Rump et al. use η = 2^-1074; any larger ε is also
+ * valid (fl(φ|c| + ε) ≥ fl(φ|c| + η) and rounding is monotone, so c + fl(φ|c| + ε) still rounds to
+ * ≥ succ(c)). ε = 2^-1000 is a normal number: an operation with the subnormal η as operand takes a
+ * microcode assist on x86 (≈10× slower). Cost: for |c| < 2^-947 the step is ε instead of one ulp.
+ */
+const EPS = 2 ** -1000;
 const MAXV = Number.MAX_VALUE;
-/** Above 2^-969 the η term is unnecessary (round.ts, TINY) and avoiding the subnormal η keeps x86 fast. */
-const TINY = 2 ** -969;
 
 /** Record kernel flags in the status register. */
 function flag(R: Float64Array, f: number): void {
@@ -65,42 +71,48 @@ export function fCopy(R: Float64Array, d: number, a: number): void {
   R[2 * d + 1] = R[2 * a + 1]!;
 }
 
+// Fast paths are kept small (V8 inlines a limited cumulative bytecode size into the caller); the
+// special cases live in out-of-line functions that re-read the registers (nothing has been
+// written when they run, so d may alias a or b).
+
+function addSlow(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kAdd(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}
+function subSlow(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kSub(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}
+function mulSlow(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kMul(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}
+function divSlow(R: Float64Array, d: number, a: number, b: number): void {
+  flag(R, K.kDiv(R, 2 * d, R[2 * a]!, R[2 * a + 1]!, R[2 * b]!, R[2 * b + 1]!));
+}
+function sqrSlow(R: Float64Array, d: number, a: number): void {
+  flag(R, K.kSqr(R, 2 * d, R[2 * a]!, R[2 * a + 1]!));
+}
+
 /** d := a + b. */
 export function fAdd(R: Float64Array, d: number, a: number, b: number): void {
-  const alo = R[2 * a]!;
-  const ahi = R[2 * a + 1]!;
-  const blo = R[2 * b]!;
-  const bhi = R[2 * b + 1]!;
-  const s = alo + blo;
-  const t = ahi + bhi;
-  const lo = (Math.abs(s) >= TINY ? s - PHI * Math.abs(s) : s - (PHI * Math.abs(s) + ETA));
-  const hi = (Math.abs(t) >= TINY ? t + PHI * Math.abs(t) : t + (PHI * Math.abs(t) + ETA));
-  const w = hi - lo;
-  if (w >= 0 && w <= MAXV) {
+  const s = R[2 * a]! + R[2 * b]!;
+  const t = R[2 * a + 1]! + R[2 * b + 1]!;
+  const lo = s - (PHI * Math.abs(s) + EPS);
+  const hi = t + (PHI * Math.abs(t) + EPS);
+  if (hi - lo <= MAXV) {
     R[2 * d] = lo;
     R[2 * d + 1] = hi;
-    return;
-  }
-  flag(R, K.kAdd(R, 2 * d, alo, ahi, blo, bhi));
+  } else addSlow(R, d, a, b);
 }
 
 /** d := a − b. */
 export function fSub(R: Float64Array, d: number, a: number, b: number): void {
-  const alo = R[2 * a]!;
-  const ahi = R[2 * a + 1]!;
-  const blo = R[2 * b]!;
-  const bhi = R[2 * b + 1]!;
-  const s = alo - bhi;
-  const t = ahi - blo;
-  const lo = (Math.abs(s) >= TINY ? s - PHI * Math.abs(s) : s - (PHI * Math.abs(s) + ETA));
-  const hi = (Math.abs(t) >= TINY ? t + PHI * Math.abs(t) : t + (PHI * Math.abs(t) + ETA));
-  const w = hi - lo;
-  if (w >= 0 && w <= MAXV) {
+  const s = R[2 * a]! - R[2 * b + 1]!;
+  const t = R[2 * a + 1]! - R[2 * b]!;
+  const lo = s - (PHI * Math.abs(s) + EPS);
+  const hi = t + (PHI * Math.abs(t) + EPS);
+  if (hi - lo <= MAXV) {
     R[2 * d] = lo;
     R[2 * d + 1] = hi;
-    return;
-  }
-  flag(R, K.kSub(R, 2 * d, alo, ahi, blo, bhi));
+  } else subSlow(R, d, a, b);
 }
 
 /** d := a · b. */
@@ -113,17 +125,14 @@ export function fMul(R: Float64Array, d: number, a: number, b: number): void {
   const p2 = alo * bhi;
   const p3 = ahi * blo;
   const p4 = ahi * bhi;
-  const mn = Math.min(Math.min(p1, p2), Math.min(p3, p4));
-  const mx = Math.max(Math.max(p1, p2), Math.max(p3, p4));
-  const lo = (Math.abs(mn) >= TINY ? mn - PHI * Math.abs(mn) : mn - (PHI * Math.abs(mn) + ETA));
-  const hi = (Math.abs(mx) >= TINY ? mx + PHI * Math.abs(mx) : mx + (PHI * Math.abs(mx) + ETA));
-  const w = hi - lo;
-  if (w >= 0 && w <= MAXV) {
+  const mn = Math.min(p1, p2, p3, p4);
+  const mx = Math.max(p1, p2, p3, p4);
+  const lo = mn - (PHI * Math.abs(mn) + EPS);
+  const hi = mx + (PHI * Math.abs(mx) + EPS);
+  if (hi - lo <= MAXV) {
     R[2 * d] = lo;
     R[2 * d + 1] = hi;
-    return;
-  }
-  flag(R, K.kMul(R, 2 * d, alo, ahi, blo, bhi));
+  } else mulSlow(R, d, a, b);
 }
 
 /** d := a / b (IEEE 1788 set-based; 0 ∈ b marks the status non-continuous). */
@@ -132,55 +141,34 @@ export function fDiv(R: Float64Array, d: number, a: number, b: number): void {
   const ahi = R[2 * a + 1]!;
   const blo = R[2 * b]!;
   const bhi = R[2 * b + 1]!;
-  if (blo > 0 || bhi < 0) {
-    const q1 = alo / blo;
-    const q2 = alo / bhi;
-    const q3 = ahi / blo;
-    const q4 = ahi / bhi;
-    const mn = Math.min(Math.min(q1, q2), Math.min(q3, q4));
-    const mx = Math.max(Math.max(q1, q2), Math.max(q3, q4));
-    const lo = (Math.abs(mn) >= TINY ? mn - PHI * Math.abs(mn) : mn - (PHI * Math.abs(mn) + ETA));
-    const hi = (Math.abs(mx) >= TINY ? mx + PHI * Math.abs(mx) : mx + (PHI * Math.abs(mx) + ETA));
-    const w = hi - lo;
-    if (w >= 0 && w <= MAXV) {
-      R[2 * d] = lo;
-      R[2 * d + 1] = hi;
-      return;
-    }
-  }
-  flag(R, K.kDiv(R, 2 * d, alo, ahi, blo, bhi));
+  const q1 = alo / blo;
+  const q2 = alo / bhi;
+  const q3 = ahi / blo;
+  const q4 = ahi / bhi;
+  const mn = Math.min(q1, q2, q3, q4);
+  const mx = Math.max(q1, q2, q3, q4);
+  const lo = mn - (PHI * Math.abs(mn) + EPS);
+  const hi = mx + (PHI * Math.abs(mx) + EPS);
+  if ((blo > 0 || bhi < 0) && hi - lo <= MAXV) {
+    R[2 * d] = lo;
+    R[2 * d + 1] = hi;
+  } else divSlow(R, d, a, b);
 }
 
-/** d := a². */
+/** d := a² (minimum at 0 handled: lower end 0 when a straddles 0, clamped at 0). */
 export function fSqr(R: Float64Array, d: number, a: number): void {
   const x = R[2 * a]!;
   const y = R[2 * a + 1]!;
-  let lo: number;
-  let hi: number;
-  if (x >= 0) {
-    const p = x * x;
-    const q = y * y;
-    lo = (p >= TINY ? p - PHI * p : p - (PHI * p + ETA));
-    hi = (q >= TINY ? q + PHI * q : q + (PHI * q + ETA));
-  } else if (y <= 0) {
-    const p = y * y;
-    const q = x * x;
-    lo = (p >= TINY ? p - PHI * p : p - (PHI * p + ETA));
-    hi = (q >= TINY ? q + PHI * q : q + (PHI * q + ETA));
-  } else {
-    const m = -x > y ? -x : y;
-    const q = m * m;
-    lo = 0;
-    hi = (q >= TINY ? q + PHI * q : q + (PHI * q + ETA));
-  }
-  if (lo < 0) lo = 0;
-  const w = hi - lo;
-  if (w >= 0 && w <= MAXV) {
+  const p = x * x;
+  const q = y * y;
+  const mn = x >= 0 ? p : y <= 0 ? q : 0;
+  const mx = Math.max(p, q);
+  const lo = Math.max(0, mn - (PHI * mn + EPS));
+  const hi = mx + (PHI * mx + EPS);
+  if (hi - lo <= MAXV) {
     R[2 * d] = lo;
     R[2 * d + 1] = hi;
-    return;
-  }
-  flag(R, K.kSqr(R, 2 * d, x, y));
+  } else sqrSlow(R, d, a);
 }
 
 /** d := −a (exact). */

@@ -56,7 +56,7 @@ export function nextDownDouble(x: number): number {
 }
 
 /** Exact value of a (finite) double as a Decimal of the given constructor (no rounding). */
-export function decimalOfDouble(ctor: Decimal.Constructor, x: number): Decimal {
+export function decimalValueOfDouble(ctor: Decimal.Constructor, x: number): Decimal {
   return new ctor(exactDecimalOfDouble(x));
 }
 
@@ -90,5 +90,6 @@ export function doubleDown(x: Decimal): number {
 /** The smallest double >= x (mirror of doubleDown). */
 export function doubleUp(x: Decimal): number {
   if (x.isNaN()) return NaN;
-  return -doubleDown(x.neg());
+  const d = -doubleDown(x.neg());
+  return d === 0 ? 0 : d; // drop −0
 }

@@ -5,41 +5,60 @@
  * Representation: MpInterval = { lo, hi } (immutable Decimals, lo <= hi; ±Infinity marks an
  * unbounded end). Lower ends are computed in a Decimal clone with ROUND_FLOOR, upper ends in a
  * clone with ROUND_CEIL, both at `digits = ceil(bits·log10 2) + 2` significant digits; the
- * global Decimal settings are never read or changed.
+ * global Decimal settings are never read or changed. Any Decimal may be passed in as an end
+ * (of any clone, with any number of digits); results are rounded to `digits`.
  *
- * Enclosure method per operation (tests: tests/interval/mp.test.ts):
+ * Enclosure method per operation (tests: tests/interval/mp.test.ts, mp-itf1788.test.ts):
  *  - add, sub, mul, div, neg, abs, min, max, sqr: endpoint formulas with decimal.js + − × ÷,
  *    which round correctly in the set direction (DESIGN.md §5). Tight: each end within one unit
  *    in the last place (ulp) of the exact result.
  *  - pown: binary powering of |ends| with directed products (rigorous, a few ulps).
  *  - sqrt: decimal.js sqrt in the directed context, then checked exactly (s² <= x for the lower
  *    end, s² >= x for the upper one, in a context wide enough for the product to be exact) and
- *    moved one step outward if the check fails. Rigorous whatever decimal.js does.
- *  - pi, e, exp, log, sin, cos, tan, atan, sinh, cosh, tanh, pow: rigorous from first principles
- *    (range reduction + series with explicit remainder, only + − × ÷), see
- *    src/interval/mp-elementary.ts for each method. `status.assumed` is never set by this
- *    arithmetic. decimal.js exp/ln/pow (upstream issue 244) are not used for any bound.
+ *    moved outward if the check fails: rigorous whatever decimal.js's sqrt does.
+ *  - pi, e, exp, log, sin, cos, tan, atan, sinh, cosh, tanh, pow: rigorous from first
+ *    principles (range reduction + series with explicit remainder bounds, only + − × ÷ in
+ *    directed rounding), see src/interval/mp-elementary.ts for each method. `status.assumed` is
+ *    never set by this arithmetic; decimal.js exp/ln/pow (upstream issue 244) bound nothing.
+ *    Tight to a few ulps for point arguments.
  *  - sin, cos: extrema at m·π/2 are located with the rigorous π; when it cannot be decided
- *    whether an extremum lies in the box, it is included. Ends with decimal exponent above 400
- *    give [−1, 1] (beyond every finite double). tan: a box that may contain a pole gives the entire line and
- *    status.continuous = false.
+ *    whether an extremum lies in the box, it is included. tan: a box that may contain a pole
+ *    gives the entire line and status.continuous = false.
  *
- * Domain (status.continuous = false, IEEE 1788 `trv`): division by a box containing 0 (result
- * unbounded, or entire; [0, 0] for a zero numerator), sqrt/log of a box reaching below 0 (≤ 0 for log), pow outside
- * a > 0 (a = 0 allowed when b > 0), tan across a possible pole, exp/sinh/cosh overflow
- * (argument above 1e15, upper end +Infinity), NaN inputs. A box wholly outside the domain
- * gives the entire line (this representation has no empty interval).
+ * Special values and domain (status.continuous = false marks IEEE 1788 `trv`; it is never
+ * reset here, see resetStatus):
+ *   | operation            | input                          | result            | continuous |
+ *   |----------------------|--------------------------------|-------------------|------------|
+ *   | div                  | 0 ∈ b, b ≠ [0,0], a = [0,0]    | [0, 0]            | false      |
+ *   | div                  | b = [0, d] or [d, 0], d ≠ 0    | a·[1/d, +∞] etc.  | false      |
+ *   | div                  | b straddles 0 or b = [0, 0]    | [−∞, +∞]          | false      |
+ *   | pown(a, n), n < 0    | 0 ∈ a                          | as div            | false      |
+ *   | pown(a, 0)           | any a                          | [1, 1]            | unchanged  |
+ *   | sqrt                 | lo < 0 <= hi / hi < 0          | sqrt[0, hi] / ent.| false      |
+ *   | log                  | lo <= 0 < hi / hi <= 0         | [−∞, log hi]/ent. | false      |
+ *   | pow(a, b)            | lo(a) < 0, or 0 ∈ a, b ⊄ (0,∞) | on the domain part| false      |
+ *   | pow(a, b)            | a = [0, 0], b > 0              | [0, 0]            | unchanged  |
+ *   | exp, sinh, cosh      | end > 1e15 (overflow)          | end +∞            | false      |
+ *   | exp                  | end < −1e15                    | [0, tiny]         | unchanged  |
+ *   | sin, cos             | |end| >= 1e401 or ±∞           | [−1, 1]           | unchanged  |
+ *   | tan                  | possible pole, |end| >= 1e401  | [−∞, +∞]          | false      |
+ *   | atan, tanh           | ±∞ ends                        | ±π/2, ±1 ends     | unchanged  |
+ *   | any                  | NaN end                        | [−∞, +∞]          | false      |
+ *   | mul, div             | decimal.js exponent overflow   | end ±∞ / ±1e9e15  | false      |
+ *   | mul, div             | exponent underflow (< 1e−9e15) | end 0 or ±1e−9e15 | unchanged  |
+ * add/sub do not repair decimal.js's exponent limits (±9e15): keep magnitudes far inside them.
  *
  * Conversions: fromNumber is the exact double (rounded outward when it needs more than `digits`
  * digits, e.g. subnormals); fromDecimal/constant are exact when the literal fits in `digits`
  * significant digits, outward otherwise; loDown/hiUp/widUp/magUp/migDown convert to doubles with
  * an exact comparison (src/interval/mp-convert.ts); toDecimal returns decimal.js toString of the
  * ends, which is exact (it may use exponent notation such as "1.25e-30", and "-Infinity" /
- * "Infinity" for unbounded ends).
+ * "Infinity" for unbounded ends). midPoint is the working-precision rounding of (lo + hi)/2
+ * clamped into the box (0, or twice the finite end, for unbounded boxes).
  */
 import { Decimal } from 'decimal.js';
 import type { EvalStatus, IntervalArithmetic } from './arithmetic.js';
-import { decimalOfDouble, doubleDown, doubleUp } from './mp-convert.js';
+import { decimalValueOfDouble, doubleDown, doubleUp } from './mp-convert.js';
 import {
   atanPoint,
   contextFor,
@@ -404,11 +423,11 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
     fromNumber(x: number): MpInterval {
       if (!Number.isFinite(x)) {
         status.continuous = false;
-        if (x === Infinity) return { lo: roundDn(decimalOfDouble(Dn, Number.MAX_VALUE)), hi: POS_INF };
-        if (x === -Infinity) return { lo: NEG_INF, hi: roundUp(decimalOfDouble(Up, -Number.MAX_VALUE)) };
+        if (x === Infinity) return { lo: roundDn(decimalValueOfDouble(Dn, Number.MAX_VALUE)), hi: POS_INF };
+        if (x === -Infinity) return { lo: NEG_INF, hi: roundUp(decimalValueOfDouble(Up, -Number.MAX_VALUE)) };
         return ENTIRE;
       }
-      const d = decimalOfDouble(Dn, x);
+      const d = decimalValueOfDouble(Dn, x);
       return { lo: roundDn(d), hi: roundUp(d) };
     },
     fromDecimal(x: string): MpInterval {
@@ -530,7 +549,7 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
     inflate(a, r) {
       if (!(r >= 0)) throw new RangeError(`inflate: radius must be >= 0, got ${r}`);
       if (r === Infinity) return ENTIRE;
-      const rr = decimalOfDouble(Nr, r);
+      const rr = decimalValueOfDouble(Nr, r);
       return { lo: dn(a.lo).minus(rr), hi: up(a.hi).plus(rr) };
     },
     toDecimal(a) {

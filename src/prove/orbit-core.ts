@@ -47,6 +47,10 @@ export interface AttemptClaims {
   complete: boolean;
   /** What is missing when not complete. */
   missing: string;
+  /** Phase times, ms: preparation + epsilon-inflation + written re-test; uniqueness; the rest. */
+  existenceMs: number;
+  uniquenessMs: number;
+  claimsMs: number;
 }
 
 export type AttemptResult =
@@ -119,6 +123,7 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   const { arith: a, period: p, dim: n, C, digits } = inp;
   const N = p * n;
   const sys: ShootingSystem<T> = { arith: a, evaluator: inp.evaluator, period: p, dim: n };
+  const t0 = performance.now();
   // The Krawczyk point is the written centre: the candidate rounded to `digits` digits, enclosed.
   const centreS: string[] = inp.centre.map((x) => roundDecimal(a.toDecimal(x).lo, digits, 'nearest'));
   const m = centreS.map((c) => a.fromDecimal(c));
@@ -168,6 +173,7 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   let assumed = check.assumed;
   const outer: T[] = new Array<T>(N);
   for (let k = 0; k < N; k++) outer[k] = writtenEnclosures(a, loS[k]!, hiS[k]!).outer;
+  const t1 = performance.now();
   // Uniqueness radius.
   let uniquenessRadius: string | null = null;
   if (inp.uniqueness) {
@@ -175,6 +181,7 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
     uniquenessRadius = u.radius;
     assumed ||= u.assumed;
   }
+  const t2 = performance.now();
   // Minimal period: pairwise disjoint point boxes.
   const minimalPeriod = pairwiseDisjoint(a, outer, p, n) ? p : null;
   // Stability over the written boxes.
@@ -203,6 +210,9 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
       assumed,
       complete: missing.length === 0,
       missing: missing.join('; '),
+      existenceMs: t1 - t0,
+      uniquenessMs: t2 - t1,
+      claimsMs: performance.now() - t2,
     },
   };
 }
@@ -267,30 +277,36 @@ function uniquenessSearch<T>(
     return false;
   };
   if (!test(r0)) return { radius: null, assumed: false };
+  // @heuristic search on doubles; every tested radius is an exact 3-digit decimal >= r0.
   let good = r0;
-  let bad: string | null = null;
-  let g = Number(r0); // @heuristic search coordinate only; every tested radius is an exact decimal
+  let g = Number(r0);
+  let bad = Infinity;
+  let scale = 0;
+  for (const c of centre) scale = Math.max(scale, Math.abs(Number(c)));
+  const guess = Math.max(g * 16, 1e-3 * (1 + scale));
+  let cand = Number(guess.toPrecision(3));
   for (let j = 0; j < 14; j++) {
-    const cand = (g * 16).toPrecision(3);
-    if (Number(cand) > 1e6) break;
-    if (test(cand)) {
-      good = cand;
-      g = Number(cand);
+    if (cand > 1e6 || cand <= g || cand >= bad) break;
+    const s = cand.toPrecision(3);
+    if (test(s)) {
+      good = s;
+      g = Number(s);
+      cand = g * 16;
     } else {
-      bad = cand;
-      break;
+      bad = Number(s);
+      cand = Math.max(bad / 16, Math.sqrt(g * bad));
+      if (bad / 16 <= g) break;
     }
+    if (bad < Infinity && bad / g <= 16) break;
   }
-  if (bad !== null) {
-    let hiR = Number(bad);
-    for (let j = 0; j < 4; j++) {
-      const cand = Math.sqrt(g * hiR).toPrecision(3);
-      if (compareDecimal(cand, good) <= 0 || compareDecimal(cand, bad) >= 0) break;
-      if (test(cand)) {
-        good = cand;
-        g = Number(cand);
-      } else hiR = Number(cand);
-    }
+  for (let j = 0; j < 4 && bad < Infinity; j++) {
+    const s = Math.sqrt(g * bad).toPrecision(3);
+    const v = Number(s);
+    if (v <= g || v >= bad) break;
+    if (test(s)) {
+      good = s;
+      g = v;
+    } else bad = v;
   }
   return { radius: good, assumed };
 }

@@ -187,7 +187,7 @@ export function proveOrbitWith(
     bits: best.bits,
     attempts,
     assumed: c.assumed,
-    timing: { refineMs, proveMs: totalMs - refineMs, totalMs },
+    timing: { refineMs, proveMs: totalMs - refineMs, totalMs, existenceMs: c.existenceMs, uniquenessMs: c.uniquenessMs, claimsMs: c.claimsMs },
   };
   return { status: 'proven', orbit };
 }

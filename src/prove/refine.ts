@@ -169,6 +169,9 @@ export function refineMp<T>(
   let extra = false;
   let it = 0;
   let lastStep = new D(Infinity);
+  // Stagnation at the noise level (the conditioning of J amplifies the evaluation error) also
+  // counts as converged: the rigorous test decides anyway.
+  const noise = new D(2).pow(-Math.floor(arith.bits / 2));
   for (; it < maxIter; it++) {
     const ev0 = mpPointEval(arith, ev, D, x, p, n);
     if (ev0 === null) break;
@@ -190,7 +193,13 @@ export function refineMp<T>(
       return nv;
     });
     if (!step.isFinite()) break;
+    const prevStep = lastStep;
     lastStep = step.div(size.add(1));
+    if (lastStep.lte(noise) && lastStep.gte(prevStep.div(4))) {
+      converged = true;
+      it++;
+      break;
+    }
     if (lastStep.lte(tol)) {
       if (extra) {
         converged = true;

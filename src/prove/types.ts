@@ -57,6 +57,12 @@ export interface ProveTiming {
   refineMs: number;
   /** Everything else (preconditioner, Krawczyk runs, stability), ms. */
   proveMs: number;
+  /** Of the successful precision: Krawczyk preparation, epsilon-inflation and written re-test. */
+  existenceMs: number;
+  /** Of the successful precision: uniqueness radius search. */
+  uniquenessMs: number;
+  /** Of the successful precision: minimal period and stability. */
+  claimsMs: number;
   totalMs: number;
 }
 

@@ -37,6 +37,12 @@ describe('checker independence', () => {
       expect(bad).toEqual([]);
     });
   }
+  it('never passes a JS number literal to a Decimal constructor (strings only)', () => {
+    for (const f of files) {
+      const src = readFileSync(join(dir, f), 'utf8');
+      expect(src.match(/new (?:\w+\.)?(?:Down|Up|Near|Exact|Decimal)\(\s*[-\d(]/g) ?? [], f).toEqual([]);
+    }
+  });
   it('stays small enough to audit (< 1,500 lines of code, comments and blank lines not counted)', () => {
     let total = 0;
     let code = 0;
