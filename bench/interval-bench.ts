@@ -96,7 +96,7 @@ function flatPass(inp: Inputs, R: Float64Array): number {
     F.fMul(R, 7, 2, 4);
     sum += R[12]! + R[13]! + R[14]! + R[15]!;
   }
-  return sum + R[0]!;
+  return sum;
 }
 
 function objectPass(inp: Inputs): number {

@@ -35,8 +35,10 @@ async function main(): Promise<void> {
       continue;
     }
     try {
+      const t0 = performance.now();
       const lines = (await (run as () => Promise<string[]>)()) ?? [];
       for (const line of lines) console.log(`   ${line}`);
+      console.log(`   (${((performance.now() - t0) / 1000).toFixed(1)} s)`);
     } catch (e) {
       failures++;
       console.log(`   FAILED: ${e instanceof Error ? e.message : String(e)}`);

@@ -7,13 +7,17 @@
  * import { resolveMap, compileMap, findCandidates, proveOrbit, buildCertificate,
  *          writeCertificate, checkPaths } from 'orbitseal';
  * const def = resolveMap('logistic');
- * const map = compileMap(def, { r: { kind: 'exact', value: '3.83' } });
- * for (const c of findCandidates(map, { period: 3 })) {
+ * const overrides = { r: { kind: 'exact', value: '3.83' } } as const;
+ * const map = compileMap(def, overrides);
+ * findCandidates(map, { period: 3 }).forEach((c, k) => {
  *   const v = proveOrbit(map, c.points);
- *   if (v.status === 'proven') writeCertificate('out/p3.json', buildCertificate(v.orbit, def, { overrides: ... }));
- * }
+ *   if (v.status === 'proven') {
+ *     writeCertificate(`out/logistic-p3-${k + 1}.json`, buildCertificate(v.orbit, def, { overrides }));
+ *   }
+ * });
+ * const reports = checkPaths(['out']);   // the independent checker
  * ```
- * or in one call: `certifyOrbits(def, map, { period: 3, outDir: 'out' })`.
+ * or in one call: `await certifyOrbits(def, map, { period: 3, outDir: 'out', overrides })`.
  *
  * Every layer is also available as a namespace (`interval`, `expr`, `model`, `linalg`, `search`,
  * `prove`, `certificate`, `checker`) for the less common functions.
@@ -47,8 +51,7 @@ export {
 
 // float search (@heuristic) and the prover
 export { findCandidates, findOrbitFromSeed, nearestCandidate, type Candidate, type SearchOptions } from './search/index.js';
-export { proveOrbit, type ProveOrbitOptions } from './prove/orbit.js';
-export type { OrbitVerdict, ProvenOrbit, ProvenStability, NotProvenReason } from './prove/types.js';
+export { proveOrbit, type ProveOrbitOptions, type OrbitVerdict, type ProvenOrbit, type ProvenStability, type NotProvenReason } from './prove/index.js';
 
 // certificates and the independent checker
 export {
@@ -74,5 +77,6 @@ export * as expr from './expr/index.js';
 export * as model from './model/index.js';
 export * as linalg from './linalg/index.js';
 export * as search from './search/index.js';
+export * as prove from './prove/index.js';
 export * as certificate from './certificate/index.js';
 export * as checker from './checker/index.js';

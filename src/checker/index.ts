@@ -14,9 +14,11 @@
  *     our own strict reader, json.ts), and node:crypto SHA-256.
  *  3. The mathematics, stated where it is used: Krawczyk's theorem (K(X) ⊂ int X ⇒ exactly one
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
- *     and Machin's formula for π (elementary.ts), pairwise disjointness ⇒ minimal period,
+ *     and Machin's formula for π (elementary.ts), X_i ∩ X_{i+p/q} = ∅ for every prime q | p ⇒
+ *     minimal period p (weaker than, and implied by, pairwise disjointness),
  *     eigenvalues of a 2×2 matrix from trace and determinant.
- *  4. This code (~1,400 lines: interval.ts, elementary.ts, formula.ts, json.ts, krawczyk.ts, index.ts).
+ *  4. This code (~1,750 lines, ~1,490 without comments: interval.ts, elementary.ts, formula.ts,
+ *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
  * C is valid; it is computed non-rigorously), hints (they only choose the precision).
  *
@@ -62,7 +64,7 @@ export interface CheckLimits {
   /** Largest period (100 000) and state dimension (16). */
   maxPeriod: number;
   maxDimension: number;
-  /** Largest number of unknowns p·n of the shooting system (4 000; C is dense). */
+  /** Largest number of unknowns p·n of the shooting system (2 500; C is dense). */
   maxUnknowns: number;
   /** Longest decimal string (2 000 characters) and largest |decimal exponent| (100 000). */
   maxNumberLength: number;
@@ -80,7 +82,7 @@ export const DEFAULT_LIMITS: CheckLimits = {
   maxJsonDepth: 64,
   maxPeriod: 100_000,
   maxDimension: 16,
-  maxUnknowns: 4000,
+  maxUnknowns: 2500,
   maxNumberLength: 2000,
   maxExponent: 100_000,
   maxDigits: 2000,
@@ -133,7 +135,7 @@ function int(v: unknown, path: string, min: number, max: number): number {
   return x;
 }
 
-export function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
   const dec = (v: unknown, path: string): string => {
     const s = str(v, path);
     if (s.length > limits.maxNumberLength) reject(path, `number at ${path} has ${s.length} characters (limit ${limits.maxNumberLength})`);

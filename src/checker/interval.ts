@@ -24,7 +24,6 @@ export function isDecimalLiteral(s: string): boolean {
 
 /** Exact value of a decimal literal (never rounded: the constructor keeps every digit). */
 export const Exact = Decimal.clone({ precision: 40, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
-export type Dec = Decimal;
 
 /** Directed-rounding interval operations at `digits` significant decimal digits. */
 export class IvCtx {

@@ -39,6 +39,10 @@ interface Field<T> {
   sub(a: T, b: T): T;
   mul(a: T, b: T): T;
   div(a: T, b: T): T;
+  /** Non-rigorous conversions: from a decimal, to an exact decimal, decimal exponent of |a|. */
+  of(d: Decimal): T;
+  dec(a: T): string | Decimal;
+  exp10(a: T): number;
 }
 const floatField: Field<number> = {
   zero: 0,
@@ -48,6 +52,9 @@ const floatField: Field<number> = {
   sub: (a, b) => a - b,
   mul: (a, b) => a * b,
   div: (a, b) => a / b,
+  of: (d) => Number(d.toString()),
+  dec: (a) => String(a), // the exact value of the shortest decimal string: C is any fixed matrix
+  exp10: (a) => (a === 0 ? -Infinity : Math.floor(Math.log10(Math.abs(a)))),
 };
 function decimalField(D: Decimal.Constructor): Field<Decimal> {
   return {
@@ -58,6 +65,9 @@ function decimalField(D: Decimal.Constructor): Field<Decimal> {
     sub: (a, b) => D.sub(a, b),
     mul: (a, b) => D.mul(a, b),
     div: (a, b) => D.div(a, b),
+    of: (d) => new D(d),
+    dec: (a) => a,
+    exp10: (a) => (a.isZero() ? -Infinity : a.e),
   };
 }
 
@@ -118,60 +128,43 @@ export interface Precond {
   vals: Decimal[][];
 }
 
-/** @heuristic C ≈ mid(J(box))^{-1}; entries below 10^-(digits+3)·(row max) are dropped (any C is valid). */
+/** @heuristic C ≈ mid(J(box))^{-1}; entries below 10^-20 (floats) or 10^-(digits+3) (decimals) of the row max are dropped (any C is valid). */
 export function preconditioner(s: Shooting, box: readonly Iv[], highPrecision: boolean): Precond | null {
+  return highPrecision ? precondWith(s, box, decimalField(s.c.Near)) : precondWith(s, box, floatField);
+}
+
+function precondWith<T>(s: Shooting, box: readonly Iv[], F: Field<T>): Precond | null {
   const { c, p, n } = s;
   const N = p * n;
-  const Dn = c.Near;
-  const useDec = highPrecision;
-  const F: Field<number> | Field<Decimal> = useDec ? decimalField(Dn) : floatField;
-  const zero = F.zero;
-  const a: (number | Decimal)[][] = [];
-  for (let r = 0; r < N; r++) a.push(new Array(N).fill(zero));
+  const a: T[][] = [];
+  for (let r = 0; r < N; r++) a.push(new Array<T>(N).fill(F.zero));
   for (let i = 0; i < p; i++) {
     const { jac } = image(s, box.slice(i * n, i * n + n), true);
     for (let r = 0; r < n; r++) {
-      for (let q = 0; q < n; q++) {
-        const mid = c.midpoint(jac![r * n + q]!);
-        const v = useDec ? Dn.sub(0, mid) : -Number(mid.toString());
-        a[i * n + r]![i * n + q] = v;
-      }
+      const row = a[i * n + r]!;
+      for (let q = 0; q < n; q++) row[i * n + q] = F.sub(F.zero, F.of(c.midpoint(jac![r * n + q]!)));
       const col = ((i + 1) % p) * n + r;
-      const cur = a[i * n + r]![col]!;
-      a[i * n + r]![col] = useDec ? Dn.add(cur as Decimal, 1) : (cur as number) + 1;
+      row[col] = F.sub(row[col]!, F.sub(F.zero, F.one));
     }
   }
-  const inv = (useDec ? invert(F as Field<Decimal>, a as Decimal[][]) : invert(F as Field<number>, a as number[][])) as
-    | (number | Decimal)[][]
-    | null;
+  const inv = invert(F, a);
   if (!inv) return null;
+  const keep = (F as unknown) === floatField ? 20 : c.digits + 3; // float C is only good to ~16 digits
   const cols: Int32Array[] = [];
   const vals: Decimal[][] = [];
-  const drop = useDec ? new c.Near('10').pow(-(c.digits + 3)) : 1e-20;
   for (let r = 0; r < N; r++) {
-    let rowMax = 0;
-    let rowMaxD: Decimal | null = null;
-    for (let j = 0; j < N; j++) {
-      const v = inv[j]![r]!;
-      if (useDec) rowMaxD = rowMaxD === null || (v as Decimal).abs().gt(rowMaxD) ? (v as Decimal).abs() : rowMaxD;
-      else rowMax = Math.max(rowMax, Math.abs(v as number));
-    }
-    if (!useDec && !Number.isFinite(rowMax)) return null;
+    let top = -Infinity;
+    for (let j = 0; j < N; j++) top = Math.max(top, F.exp10(inv[j]![r]!));
+    if (!Number.isFinite(top)) return null; // a zero row (singular) or an overflow
     const idx: number[] = [];
     const vs: Decimal[] = [];
     for (let j = 0; j < N; j++) {
       const v = inv[j]![r]!;
-      if (useDec) {
-        const d = v as Decimal;
-        if (d.isZero() || d.abs().lt(Dn.mul(drop as Decimal, rowMaxD!))) continue;
-        idx.push(j);
-        vs.push(new c.Down(d));
-      } else {
-        const x = v as number;
-        if (x === 0 || Math.abs(x) < rowMax * (drop as number)) continue;
-        idx.push(j);
-        vs.push(new c.Down(String(x))); // the exact value of the shortest decimal string: C is any fixed matrix
-      }
+      if (F.exp10(v) < top - keep) continue;
+      const d = new c.Down(F.dec(v));
+      if (!d.isFinite()) return null;
+      idx.push(j);
+      vs.push(d);
     }
     cols.push(Int32Array.from(idx));
     vals.push(vs);
@@ -246,7 +239,7 @@ export function krawczyk(s: Shooting, C: Precond, M: readonly Iv[], X: readonly 
       const over = c.Up.max(c.Up.sub(box.lo, acc.lo), c.Up.sub(acc.hi, box.hi));
       return {
         ok: false,
-        reason: `${label}: K(X) not inside the interior of the box at point ${Math.floor(r / n)}, component ${r % n}: K = ${fmt(acc)}, box = ${fmt(box)}, exceeds by ${over.toSD(3).toString()}`,
+        reason: `${label}: K(X) not inside the interior of the box at point ${Math.floor(r / n)}, component ${r % n}: K = ${fmt(acc, 20)}, box = ${fmt(box, 20)}, exceeds by ${over.toSD(3).toString()}`,
       };
     }
   }
@@ -276,22 +269,42 @@ export function stability(c: IvCtx, D: Iv[][], n: number): Stability {
     return { cls: classify([c.abs(m)]), multiplier: m };
   }
   if (n !== 2) return { cls: 'undecided' };
-  let M = [c.one, c.zero, c.zero, c.one];
+  const mul2 = (x: Iv[], y: Iv[]): Iv[] => [
+    c.add(c.mul(x[0]!, y[0]!), c.mul(x[1]!, y[2]!)),
+    c.add(c.mul(x[0]!, y[1]!), c.mul(x[1]!, y[3]!)),
+    c.add(c.mul(x[2]!, y[0]!), c.mul(x[3]!, y[2]!)),
+    c.add(c.mul(x[2]!, y[1]!), c.mul(x[3]!, y[3]!)),
+  ];
+  const I = [c.one, c.zero, c.zero, c.one];
+  // Direct product M = D_{p−1}···D_0, and the same product in moving frames (less wrapping):
+  // R_k = Q_k^{-1} D_k Q_{k−1} with Q_k a rotation (point matrix) aligning the first column of
+  // mid(D_k Q_{k−1}); M = Q_{p−1} R_{p−1}···R_0 (Q_{−1} = I). Q^{-1} = adj(Q)/det(Q) is enclosed.
+  let M = I;
+  let R = I;
+  let Q = I;
   let detProd = c.one;
+  const N = c.Near;
   for (const d of D) {
     const [a, b, e, f] = d as [Iv, Iv, Iv, Iv];
-    M = [
-      c.add(c.mul(a, M[0]!), c.mul(b, M[2]!)),
-      c.add(c.mul(a, M[1]!), c.mul(b, M[3]!)),
-      c.add(c.mul(e, M[0]!), c.mul(f, M[2]!)),
-      c.add(c.mul(e, M[1]!), c.mul(f, M[3]!)),
-    ];
+    M = mul2(d, M);
     detProd = c.mul(detProd, c.sub(c.mul(a, f), c.mul(b, e)));
+    const B = mul2(d, Q);
+    const x = c.midpoint(B[0]!);
+    const y = c.midpoint(B[2]!);
+    const h = N.sqrt(N.add(N.mul(x, x), N.mul(y, y)));
+    const [cs, sn] = h.isZero() ? [new N('1'), new N('0')] : [N.div(x, h).toSD(20), N.div(y, h).toSD(20)];
+    const Qn = [c.point(cs), c.point(new c.Down(sn).neg()), c.point(sn), c.point(cs)];
+    const dq = c.add(c.mul(Qn[0]!, Qn[3]!), c.sqr(Qn[2]!));
+    const Qinv = [c.div(Qn[3]!, dq), c.div(Qn[2]!, dq), c.div(c.neg(Qn[2]!), dq), c.div(Qn[0]!, dq)];
+    R = mul2(mul2(Qinv, B), R);
+    Q = Qn;
   }
-  const T = c.add(M[0]!, M[3]!);
-  const detDirect = c.sub(c.mul(M[0]!, M[3]!), c.mul(M[1]!, M[2]!));
-  const det = { lo: c.Down.max(detDirect.lo, detProd.lo), hi: c.Up.min(detDirect.hi, detProd.hi) };
-  if (det.lo.gt(det.hi)) throw new DomainViolation('internal: determinant enclosures disjoint');
+  const Mf = mul2(Q, R);
+  const meet = (u: Iv, v: Iv): Iv => ({ lo: c.Down.max(u.lo, v.lo), hi: c.Up.min(u.hi, v.hi) });
+  const T = meet(c.add(M[0]!, M[3]!), c.add(Mf[0]!, Mf[3]!));
+  const detDirect = meet(c.sub(c.mul(M[0]!, M[3]!), c.mul(M[1]!, M[2]!)), c.sub(c.mul(Mf[0]!, Mf[3]!), c.mul(Mf[1]!, Mf[2]!)));
+  const det = meet(detDirect, detProd);
+  if (det.lo.gt(det.hi) || T.lo.gt(T.hi)) throw new DomainViolation('internal: monodromy enclosures disjoint');
   const disc = c.sub(c.sqr(T), c.scale(new c.Down('4'), det));
   const out: Stability = { cls: 'undecided', trace: T, determinant: det };
   if (disc.lo.gt(0)) {

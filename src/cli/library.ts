@@ -4,8 +4,7 @@
  */
 import { checkCertificate, checkPaths, type CheckReport } from '../checker/index.js';
 import { compileMap, describeMap, parseMapSource, parseParamOverride, resolveMap } from '../model/index.js';
-import { proveOrbit } from '../prove/orbit.js';
-import type { OrbitVerdict } from '../prove/types.js';
+import { proveOrbit, type OrbitVerdict } from '../prove/index.js';
 import { findCandidates, type Candidate } from '../search/index.js';
 
 export type CandidateLike = Candidate;

@@ -20,6 +20,7 @@
  * documented assumption that V8's Math.* (fdlibm ports) is within 1 ulp.
  */
 
+import { expBounds, expUpper, logBounds, logUpper } from './elementary.js';
 import {
   MAX,
   addDown,
@@ -109,8 +110,32 @@ export function kSub(out: Out, o: number, alo: number, ahi: number, blo: number,
 /** Hull of the four endpoint products, each rounded outward; 0·∞ = 0 (IEEE 1788 convention). */
 export function kMul(out: Out, o: number, alo: number, ahi: number, blo: number, bhi: number): number {
   if (!(alo <= ahi) || !(blo <= bhi)) return bad2(out, o, alo, ahi, blo, bhi);
-  const lo = Math.min(mulDown(alo, blo), mulDown(alo, bhi), mulDown(ahi, blo), mulDown(ahi, bhi));
-  const hi = Math.max(mulUp(alo, blo), mulUp(alo, bhi), mulUp(ahi, blo), mulUp(ahi, bhi));
+  let lo: number;
+  let hi: number;
+  const p1 = alo * blo;
+  const p2 = alo * bhi;
+  const p3 = ahi * blo;
+  const p4 = ahi * bhi;
+  const mn = Math.min(p1, p2, p3, p4);
+  const mx = Math.max(p1, p2, p3, p4);
+  if (mn === mn && mn !== -Infinity && mx !== Infinity) {
+    // Rounding to nearest is monotone, so fl(p_j) < fl(p_k) implies p_j < p_k: the exact extreme
+    // products are among the corners whose rounded product is extreme. Round only those.
+    lo = Infinity;
+    if (p1 === mn) lo = mulDown(alo, blo);
+    if (p2 === mn) lo = Math.min(lo, mulDown(alo, bhi));
+    if (p3 === mn) lo = Math.min(lo, mulDown(ahi, blo));
+    if (p4 === mn) lo = Math.min(lo, mulDown(ahi, bhi));
+    hi = -Infinity;
+    if (p1 === mx) hi = mulUp(alo, blo);
+    if (p2 === mx) hi = Math.max(hi, mulUp(alo, bhi));
+    if (p3 === mx) hi = Math.max(hi, mulUp(ahi, blo));
+    if (p4 === mx) hi = Math.max(hi, mulUp(ahi, bhi));
+  } else {
+    // 0·∞ (NaN) or infinite products: all four corners with the IEEE 1788 convention 0·∞ = 0.
+    lo = Math.min(mulDown(alo, blo), mulDown(alo, bhi), mulDown(ahi, blo), mulDown(ahi, bhi));
+    hi = Math.max(mulUp(alo, blo), mulUp(alo, bhi), mulUp(ahi, blo), mulUp(ahi, bhi));
+  }
   put(out, o, lo, hi);
   return ovf2(lo, hi, alo, ahi, blo, bhi);
 }
@@ -393,26 +418,41 @@ export function widenUp(y: number, steps: number): number {
   return y;
 }
 
-/** exp, increasing; exp(0) = 1 exactly; lower end clamped at 0. */
+/**
+ * exp, increasing, PROVEN (elementary.ts: range reduction with a two-part ln 2, Taylor polynomial
+ * with Lagrange remainder, directed rounding throughout). exp(0) = 1 exactly; exp(−∞) = 0.
+ * Overflow of a bounded box → F_OVERFLOW. A few ulps wide.
+ */
 export function kExp(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
-  const lo = alo === -Infinity ? 0 : alo === 0 ? 1 : Math.max(0, widenDown(Math.exp(alo), WIDEN));
-  const hi = ahi === Infinity ? Infinity : ahi === 0 ? 1 : widenUp(Math.exp(ahi), WIDEN);
+  const lo = alo === -Infinity ? 0 : expBounds(alo);
+  let hi = Infinity;
+  if (ahi !== Infinity) {
+    expBounds(ahi);
+    hi = expUpper();
+  }
   put(out, o, lo, hi);
-  return F_ASSUMED | ovf1(lo, hi, alo, ahi);
+  return ovf1(lo, hi, alo, ahi);
 }
 
-/** log on a ∩ (0, ∞]; F_UNDEF if alo ≤ 0 (then lo = −Inf); ahi ≤ 0 → EMPTY. log(1) = 0 exactly. */
+/**
+ * log on a ∩ (0, ∞], PROVEN (elementary.ts: m·2^e split, atanh series with remainder). F_UNDEF if
+ * alo ≤ 0 (then lo = −∞); ahi ≤ 0 → EMPTY. log(1) = 0 exactly.
+ */
 export function kLog(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
   if (ahi <= 0) {
     put(out, o, Infinity, -Infinity);
     return F_UNDEF;
   }
-  const lo = alo <= 0 ? -Infinity : alo === 1 ? 0 : widenDown(Math.log(alo), WIDEN);
-  const hi = ahi === Infinity ? Infinity : ahi === 1 ? 0 : widenUp(Math.log(ahi), WIDEN);
+  const lo = alo <= 0 ? -Infinity : logBounds(alo);
+  let hi = Infinity;
+  if (ahi !== Infinity) {
+    logBounds(ahi);
+    hi = logUpper();
+  }
   put(out, o, lo, hi);
-  return F_ASSUMED | (alo <= 0 ? F_UNDEF : 0);
+  return alo <= 0 ? F_UNDEF : 0;
 }
 
 // π/2 as a double-double: HP_H = fl(π/2) = 0x1.921FB54442D18p0 < π/2, and π/2 − HP_H ∈ [HP_L_LO,
@@ -550,15 +590,31 @@ export function kSinh(out: Out, o: number, alo: number, ahi: number): number {
   return F_ASSUMED | ovf1(lo, hi, alo, ahi);
 }
 
-/** cosh, minimum 1 at 0: [cosh(mig)↓, cosh(mag)↑], lower end clamped at 1. */
+/**
+ * cosh, minimum 1 at 0: [cosh(mig)↓, cosh(mag)↑], lower end clamped at 1. PROVEN:
+ * cosh t = (e^t + e^−t)/2 with the proven exp (no cancellation: both terms positive).
+ */
 export function kCosh(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
   const mig = alo >= 0 ? alo : ahi <= 0 ? -ahi : 0;
   const mag = Math.max(-alo, ahi);
-  const lo = mig === 0 ? 1 : Math.max(1, widenDown(Math.cosh(mig), WIDEN));
-  const hi = mag === Infinity ? Infinity : mag === 0 ? 1 : widenUp(Math.cosh(mag), WIDEN);
+  let lo = 1;
+  if (mig !== 0) {
+    const p = expBounds(mig);
+    const q = expBounds(-mig);
+    lo = Math.max(1, 0.5 * addDown(p, q)); // halving is exact except in the subnormal range (not reached: ≥ 1)
+  }
+  let hi = 1;
+  if (mag === Infinity) hi = Infinity;
+  else if (mag !== 0) {
+    expBounds(mag);
+    const p = expUpper();
+    expBounds(-mag);
+    const q = expUpper();
+    hi = 0.5 * addUp(p, q);
+  }
   put(out, o, lo, hi);
-  return F_ASSUMED | ovf1(lo, hi, alo, ahi);
+  return ovf1(lo, hi, alo, ahi);
 }
 
 /** tanh, increasing, clamped to [−1, 1]; tanh(0) = 0 exactly. */

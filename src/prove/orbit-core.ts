@@ -88,12 +88,6 @@ function describe<T>(out: KrawczykOutcome<T>): string {
   }
 }
 
-/** Plan for the written centre strings (m enclosed by `fromDecimal`, tight, maybe not thin). */
-export function writtenPlan<T>(sys: ShootingSystem<T>, C: Preconditioner<T>, centre: readonly string[]): KrawczykPlan<T> | { domain: number } {
-  const m = centre.map((c) => sys.arith.fromDecimal(c));
-  return prepareKrawczyk(sys, m, C);
-}
-
 /**
  * Verify K(W) ⊂ int W for the decimal box W = [lo, hi] (per coordinate) around the plan's centre:
  * K is evaluated on the outer enclosure of W (K(W) ⊂ K(outer W), inclusion monotonicity) and
@@ -142,7 +136,11 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
       found = true;
       break;
     }
-    if (last.kind === 'domain') return { kind: 'failed', reason: 'domain', detail: describe(last) };
+    if (last.kind === 'domain') {
+      // In the first box a real domain problem; later, the box grew while inflating.
+      if (it === 0) return { kind: 'failed', reason: 'domain', detail: describe(last) };
+      return { kind: 'failed', reason: 'undecided', detail: `epsilon-inflation step ${it}: the box grew until ${describe(last)}` };
+    }
     const K = last.image;
     const next: T[] = new Array<T>(N);
     for (let k = 0; k < N; k++) {

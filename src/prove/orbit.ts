@@ -32,6 +32,11 @@ export interface ProveOrbitOptions {
   escalateIncomplete?: boolean;
   /** Epsilon-inflation steps per precision (default 12). */
   maxInflations?: number;
+  /**
+   * Largest p·n for the dense preconditioner (default 4096; memory grows like (p·n)²). Larger
+   * problems are reported 'undecided' (a structured preconditioner is not implemented).
+   */
+  maxUnknowns?: number;
 }
 
 /** The interval arithmetics the prover runs on (injected so the prover has no fixed kernel). */
@@ -48,14 +53,31 @@ export function precisionLadder(maxBits: number): number[] {
   return out;
 }
 
-function validate(map: CompiledMap, points: number[][]): string | null {
+/**
+ * A candidate coordinate: a double, or a decimal literal string when the candidate is known to
+ * more digits than a double holds (the multiprecision refinement then starts from it exactly).
+ */
+export type CandidateCoordinate = number | string;
+
+const DECIMAL_LITERAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+function validate(map: CompiledMap, points: ReadonlyArray<ReadonlyArray<CandidateCoordinate>>): string | null {
   if (!Array.isArray(points) || points.length < 1) return 'the candidate needs at least one point';
   for (let i = 0; i < points.length; i++) {
     const pt = points[i]!;
     if (!Array.isArray(pt) || pt.length !== map.dim) return `point ${i} has ${pt?.length ?? 0} coordinates, the map has ${map.dim}`;
-    for (const v of pt) if (typeof v !== 'number' || !Number.isFinite(v)) return `point ${i} has a non-finite coordinate`;
+    for (const v of pt) {
+      if (typeof v === 'number' ? !Number.isFinite(v) : typeof v !== 'string' || !DECIMAL_LITERAL.test(v)) {
+        return `point ${i} has a coordinate that is not a finite number or decimal literal: ${String(v)}`;
+      }
+    }
   }
   return null;
+}
+
+/** @heuristic nearest double of a candidate coordinate (candidates only, never parameters). */
+function candidateDouble(v: CandidateCoordinate): number {
+  return typeof v === 'number' ? v : Number(v);
 }
 
 /** Score used to pick the best incomplete result across precisions. */
@@ -66,7 +88,7 @@ function score(c: AttemptClaims): number {
 export function proveOrbitWith(
   ariths: ProverArithmetics,
   map: CompiledMap,
-  points: number[][],
+  points: ReadonlyArray<ReadonlyArray<CandidateCoordinate>>,
   opts: ProveOrbitOptions = {},
 ): OrbitVerdict {
   const t0 = performance.now();
@@ -76,12 +98,17 @@ export function proveOrbitWith(
   const p = points.length;
   const n = map.dim;
   const N = p * n;
+  if (N > (opts.maxUnknowns ?? 4096)) {
+    const detail = `p·n = ${N} unknowns exceed the dense preconditioner limit (maxUnknowns = ${opts.maxUnknowns ?? 4096})`;
+    return { status: 'not-proven', reason: 'undecided', detail, attempts };
+  }
   const maxBits = opts.maxBits ?? 512;
   const uniqueness = opts.uniqueness ?? true;
   const maxInflations = opts.maxInflations ?? 12;
   const escalateIncomplete = opts.escalateIncomplete ?? true;
   const start = new Float64Array(N);
-  for (let i = 0; i < p; i++) for (let j = 0; j < n; j++) start[i * n + j] = points[i]![j]!;
+  for (let i = 0; i < p; i++) for (let j = 0; j < n; j++) start[i * n + j] = candidateDouble(points[i]![j]!);
+  const exactStart = points.some((pt) => pt.some((v) => typeof v === 'string'));
 
   let refineMs = 0;
   let best: { claims: AttemptClaims; bits: number } | null = null;
@@ -99,7 +126,9 @@ export function proveOrbitWith(
       for (let i = 0; i < p; i++) map.jacobianFloat(x.subarray(i * n, i * n + n), blocks.subarray(i * n * n, (i + 1) * n * n));
     }
     refineMs += performance.now() - tr;
-    mpStart = Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
+    mpStart = exactStart
+      ? points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))))
+      : Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
     if (ref !== null && !ref.converged) {
       lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${ref.lastStep})` };
       attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
@@ -142,15 +171,16 @@ export function proveOrbitWith(
       const ev = map.evaluator(a);
       const D = decimalContext(bits);
       const tr = performance.now();
-      const ref: MpRefinement = refineMp(a, ev, D, mpStart!, p, n);
+      const noRefine = opts.refine === false;
+      const ref: MpRefinement = refineMp(a, ev, D, mpStart!, p, n, noRefine ? 0 : 60);
       refineMs += performance.now() - tr;
-      if (!ref.converged || ref.inverse === null) {
+      if ((!ref.converged && !noRefine) || ref.inverse === null) {
         const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${ref.lastStep})`;
         attempts.push({ bits, outcome: 'failed', detail });
         if (best === null) lastFailure = { reason: ref.inverse === null ? 'singular' : 'newton-failed', detail };
         continue;
       }
-      mpStart = ref.x;
+      if (!exactStart) mpStart = ref.x;
       const centre = ref.x.map((v) => a.midPoint(a.fromDecimal(v.toString())));
       const Centries = ref.inverse.map((v) => a.midPoint(a.fromDecimal(v.toString())));
       const res = attempt({
@@ -199,10 +229,11 @@ export const defaultArithmetics: ProverArithmetics = {
 };
 
 /**
- * Prove the periodic orbit near the float candidate `points` (p × n) of `map`.
+ * Prove the periodic orbit near the candidate `points` (p × n) of `map`: doubles, or decimal
+ * strings when the candidate is known more accurately (used as the multiprecision start).
  * Claims are made only from rigorous enclosures (see the module comment); everything else is
  * 'not-proven' with a reason, or 'undecided' inside the verdict.
  */
-export function proveOrbit(map: CompiledMap, points: number[][], opts: ProveOrbitOptions = {}): OrbitVerdict {
+export function proveOrbit(map: CompiledMap, points: ReadonlyArray<ReadonlyArray<CandidateCoordinate>>, opts: ProveOrbitOptions = {}): OrbitVerdict {
   return proveOrbitWith(defaultArithmetics, map, points, opts);
 }

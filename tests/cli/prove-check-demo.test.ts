@@ -4,13 +4,16 @@
  */
 import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { Decimal } from 'decimal.js';
 import { afterAll, describe, expect, it } from 'vitest';
 import { certificateHash } from '../../src/certificate/canonical.js';
 import { runCli } from '../../src/cli/program.js';
+import { validate } from '../certificate/mini-schema.js';
 
 const D = Decimal.clone({ precision: 50 });
+const schema = JSON.parse(readFileSync(join(dirname(fileURLToPath(import.meta.url)), '../../schema/certificate-v1.schema.json'), 'utf8'));
 const scratch = mkdtempSync(join(tmpdir(), 'orbitseal-prove-test-'));
 afterAll(() => rmSync(scratch, { recursive: true, force: true }));
 const fresh = (name: string) => mkdtempSync(join(scratch, `${name}-`));
@@ -66,6 +69,19 @@ describe('orbitseal prove', () => {
     expect(o.check.claimsVerified).toContain('existence');
   });
 
+  it('--param with an interval: the claim covers every value, and the certificate records the interval', async () => {
+    const out = fresh('interval');
+    const r = await runCli(['prove', 'logistic', '--period', '1', '--param', 'r=[2.5,2.6]', '--near', '0.6', '--out', out, '--json']);
+    expect(r.exitCode).toBe(0);
+    const o = JSON.parse(r.stdout).orbits[0];
+    expect(o.status).toBe('verified');
+    // fixed point 1 − 1/r for every r in [2.5, 2.6]: [0.6, 0.615384...] (closed form, derived by hand)
+    expect(new D(o.boxes[0][0][0]).lte('0.6')).toBe(true);
+    expect(new D(1).minus(new D(1).div('2.6')).lte(o.boxes[0][0][1])).toBe(true);
+    const cert = JSON.parse(readFileSync(o.certificate, 'utf8'));
+    expect(cert.map.params.r).toEqual(['2.5', '2.6']);
+  });
+
   it('no candidate → nothing proven, exit 1 (logistic r = 3.8 has no period-3 orbit: window opens at 1 + √8; arXiv:1204.0546)', async () => {
     const r = await runCli(['prove', 'logistic', '--period', '3', '--param', 'r=3.8', '--out', fresh('none')]);
     expect(r.exitCode).toBe(1);
@@ -95,26 +111,56 @@ describe('orbitseal check', () => {
     expect(mixed.stdout).toMatch(/^UNREADABLE\s+.*garbage\.json/m);
     expect(mixed.stdout).toMatch(/1 verified, 1 rejected, 1 unreadable/);
 
-    const json = await runCli(['check', file, '--json']);
-    expect(JSON.parse(json.stdout).reports[0].verdict).toBe('VERIFIED');
+    const json = await runCli(['check', file, '--json', '--digits', '60']);
+    const report = JSON.parse(json.stdout).reports[0];
+    expect(report.verdict).toBe('VERIFIED');
+    expect(report.digits).toBeGreaterThanOrEqual(60);
+    expect((await runCli(['check', file, '--digits', 'many'])).exitCode).toBe(2);
   });
 });
 
 describe('orbitseal demo', () => {
-  it('demo --out DIR: proves and re-verifies the orchard moth census orbits in a few seconds, exit 0', async () => {
+  it('demo --out DIR: proves and re-verifies both scenarios in a few seconds, exit 0', async () => {
     const out = fresh('demo');
     const t0 = performance.now();
     const r = await runCli(['demo', '--out', out]);
     const seconds = (performance.now() - t0) / 1000;
     expect(r.exitCode).toBe(0);
-    expect(r.stdout).toMatch(/orchard moth census/);
-    // fixed points 0 and K(1 − 1/r) = 12·2.83/3.83 ≈ 8.8668407 (closed form, derived by hand),
+    expect(r.stdout).toMatch(/Orchard moth census/);
+    // moth equilibrium K(1 − 1/r) = 12·2.83/3.83 ≈ 8.8668407 (closed form, derived by hand);
     // two 3-cycles for r = 3.83 > 1 + √8 (arXiv:1204.0546)
     expect(r.stdout).toMatch(/N ∈ \[8\.86684073\d*, 8\.86684073\d*\]/);
-    expect(r.stdout.match(/proven, re-verified/g)!.length).toBe(4);
-    expect(r.stdout).toMatch(/attracting/);
-    expect(readdirSync(out).filter((f) => f.endsWith('.json'))).toHaveLength(4);
+    // 2 + 2 moth orbits, 2 vole equilibria, 1 vole 2-cycle
+    expect(r.stdout.match(/proven, re-verified/g)!.length).toBe(7);
+    const files = readdirSync(out).filter((f) => f.endsWith('.json'));
+    expect(files).toHaveLength(7);
+    for (const f of files) {
+      const cert = JSON.parse(readFileSync(join(out, f), 'utf8'));
+      expect(validate(schema, cert), f).toEqual([]);
+      expect(cert.sha256).toBe(certificateHash(cert));
+    }
     expect(r.stdout).toContain(`orbitseal check ${out}`);
     expect(seconds).toBeLessThan(30);
+  });
+
+  it('demo --json: the vole 2-cycle contains the closed form and is attracting with |λ| = b = 0.3', async () => {
+    const r = await runCli(['demo', '--out', fresh('demo-json'), '--json']);
+    expect(r.exitCode).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    const run = doc.runs.find((x: { scenario: string; period: number }) => x.scenario.startsWith('Alpine vole') && x.period === 2);
+    const o = run.orbits[0];
+    expect(o.status).toBe('verified');
+    expect(o.class).toBe('attracting');
+    // S = ((1 − b) ± √(4a − 3(1 − b)²))/(2a), a = 0.6, b = 0.3; det of the monodromy b² and
+    // complex eigenvalues of modulus b (closed forms, derived by hand)
+    const root = new D('0.93').sqrt();
+    const sValues = [new D('0.7').minus(root).div('1.2'), new D('0.7').plus(root).div('1.2')];
+    const boxS = o.boxes.map((b: string[][]) => b[0]);
+    for (const sv of sValues) {
+      expect(boxS.some((iv: string[]) => new D(iv[0]!).lte(sv) && sv.lte(iv[1]!)), sv.toString()).toBe(true);
+    }
+    const det = o.stability.determinant;
+    expect(new D(det[0]).lte('0.09') && new D('0.09').lte(det[1])).toBe(true);
+    for (const m of o.stability.eigenvalueModuli) expect(new D(m[0]).lte('0.3') && new D('0.3').lte(m[1])).toBe(true);
   });
 });

@@ -6,7 +6,6 @@
 import { Decimal } from 'decimal.js';
 
 export const D60 = Decimal.clone({ precision: 60 });
-const PI60 = D60.acos(-1);
 
 /**
  * A binary word of length p with runs of equal bits of length <= 2 that is primitive (not a
@@ -53,13 +52,15 @@ export function wordToNumerator(w: number[]): bigint {
  * The orbit x_i = sin²(π·θ·2^i) of f(x) = 4x(1 − x) through θ = k/(2^p − 1) (or k/(2^p + 1) when
  * `plus`), as 60-digit Decimals. θ·2^i mod 1 is formed exactly with BigInt.
  */
-export function logistic4Orbit(k: bigint, p: number, plus = false): InstanceType<typeof D60>[] {
+export function logistic4Orbit(k: bigint, p: number, plus = false, digits = 60): Decimal[] {
   const M = plus ? (1n << BigInt(p)) + 1n : (1n << BigInt(p)) - 1n;
-  const out: InstanceType<typeof D60>[] = [];
+  const Dd = Decimal.clone({ precision: digits + 10 });
+  const pi = Dd.acos(-1);
+  const out: Decimal[] = [];
   let ki = k % M;
   for (let i = 0; i < p; i++) {
-    const theta = new D60(ki.toString()).div(new D60(M.toString()));
-    out.push(PI60.mul(theta).sin().pow(2));
+    const theta = new Dd(ki.toString()).div(new Dd(M.toString()));
+    out.push(pi.mul(theta).sin().pow(2).toSignificantDigits(digits));
     ki = (ki * 2n) % M;
   }
   return out;
@@ -72,5 +73,35 @@ export function toDouble(d: Decimal): number {
 
 /** lo <= x <= hi for decimal strings and a Decimal. */
 export function inPair(x: Decimal, pair: [string, string]): boolean {
-  return x.gte(new D60(pair[0])) && x.lte(new D60(pair[1]));
+  return x.gte(pair[0]) && x.lte(pair[1]);
+}
+
+/**
+ * @heuristic A float pseudo-orbit of the Hénon map (a = 1.4, b = 0.3) of length p that nearly
+ * closes: the float orbit from (0, 0) after a transient, the start i minimising |x_{i+p} − x_i|
+ * over `length` steps (common practice for shadowing, no source).
+ */
+export function henonNearReturn(p: number, length = 20000): number[][] {
+  const a = 1.4;
+  const b = 0.3;
+  const xs: number[] = [];
+  const ys: number[] = [];
+  let x = 0;
+  let y = 0;
+  for (let i = 0; i < 1000; i++) [x, y] = [1 - a * x * x + y, b * x];
+  for (let i = 0; i < length + p; i++) {
+    xs.push(x);
+    ys.push(y);
+    [x, y] = [1 - a * x * x + y, b * x];
+  }
+  let best = 0;
+  let bestD = Infinity;
+  for (let i = 0; i < length; i++) {
+    const d = Math.hypot(xs[i + p]! - xs[i]!, ys[i + p]! - ys[i]!);
+    if (d < bestD) {
+      bestD = d;
+      best = i;
+    }
+  }
+  return Array.from({ length: p }, (_, k) => [xs[best + k]!, ys[best + k]!]);
 }

@@ -4,32 +4,45 @@ import { join, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval } from '../format.js';
 import * as lib from '../library.js';
-import { certifyOrbits, statusLabel, type CertifyReport } from '../pipeline.js';
-import { ORCHARD_MOTH_TASKS, ORCHARD_MOTH_YAML } from '../demo-scenario.js';
+import { certifyOrbits, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
+import { DEMO_SCENARIOS } from '../demo-scenario.js';
 
 export interface DemoCommandOptions {
   out?: string;
   json?: boolean;
 }
 
+export interface DemoRun {
+  scenario: string;
+  story: string;
+  report: CertifyReport;
+}
+
 export interface DemoReport {
   outDir: string;
-  runs: { story: string; report: CertifyReport }[];
+  runs: DemoRun[];
   elapsedMs: number;
   exitCode: ExitCode;
 }
 
-/** The demo as a library call: prove the built-in scenario's orbits into `outDir`. */
+/** The demo as a library call: prove the built-in scenarios' orbits into `outDir`. */
 export async function runDemo(outDir?: string): Promise<DemoReport> {
   const t0 = performance.now();
   const model = await lib.model();
-  const def = model.parseMapSource(ORCHARD_MOTH_YAML, 'demo:orchard-moth-census');
-  const compiled = model.compileMap(def);
   const dir = outDir ?? mkdtempSync(join(tmpdir(), 'orbitseal-demo-'));
-  const runs: DemoReport['runs'] = [];
-  for (const task of ORCHARD_MOTH_TASKS) {
-    const report = await certifyOrbits(def, compiled, { period: task.period, outDir: dir, all: true, force: outDir !== undefined });
-    runs.push({ story: task.story, report });
+  const runs: DemoRun[] = [];
+  for (const scenario of DEMO_SCENARIOS) {
+    const def = model.parseMapSource(scenario.yaml, scenario.origin);
+    const compiled = model.compileMap(def);
+    for (const task of scenario.tasks) {
+      const report = await certifyOrbits(def, compiled, {
+        period: task.period,
+        outDir: dir,
+        all: true,
+        force: outDir !== undefined,
+      });
+      runs.push({ scenario: def.title, story: task.story, report });
+    }
   }
   const ok = runs.every((r) => r.report.exitCode === EXIT_OK);
   return { outDir: dir, runs, elapsedMs: performance.now() - t0, exitCode: ok ? EXIT_OK : EXIT_NOT_PROVEN };
@@ -39,16 +52,16 @@ export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): P
   const d = await runDemo(o.out !== undefined ? resolve(cwd, o.out) : undefined);
   if (o.json) {
     const doc = {
-      scenario: 'Orchard moth census (invented)',
       outDir: d.outDir,
       runs: d.runs.map((r) => ({
+        scenario: r.scenario,
         story: r.story,
         period: r.report.period,
         orbits: r.report.outcomes.map((x) => ({
           status: x.status,
           class: x.orbit?.stability.class,
           boxes: x.orbit?.boxes,
-          multiplier: x.orbit?.stability.multiplier,
+          stability: x.orbit?.stability,
           certificate: x.certificatePath,
           reason: x.reason,
         })),
@@ -60,36 +73,45 @@ export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): P
   return { stdout: renderDemo(d) + '\n', stderr: '', exitCode: d.exitCode };
 }
 
+function orbitText(o: OrbitOutcome, state: string[]): string {
+  if (!o.orbit) return `near ${o.candidate.points.map((p) => `(${p.map((v) => v.toPrecision(6)).join(', ')})`).join(' → ')}`;
+  const pts = o.orbit.boxes.map((box) =>
+    state.length === 1 ? formatInterval(box[0]!, 10) : `(${box.map((iv) => formatInterval(iv, 8)).join(', ')})`,
+  );
+  const s = o.orbit.stability;
+  const stab = s.multiplier
+    ? `multiplier Λ ∈ ${formatInterval(s.multiplier, 6)}`
+    : s.eigenvalueModuli
+      ? `|eigenvalues| ∈ ${s.eigenvalueModuli.map((m) => formatInterval(m, 6)).join(', ')}`
+      : '';
+  return `${state.length === 1 ? state[0] + ' ∈ ' : `(${state.join(', ')}) ∈ `}${pts.join(' → ')}${stab ? `, ${stab}` : ''}, ${s.class}`;
+}
+
 /** Pure renderer: a short explanation of what was proven and where the files are. */
 export function renderDemo(d: DemoReport): string {
-  const lines = [
-    'orbitseal demo — the orchard moth census (an invented scenario)',
-    '',
-    'Moths are counted once per generation (N in thousands). The model, with exact parameters:',
-    '    N\' = r·N·(1 − N/K),   r = 3.83,  K = 12',
-    'The question: which census patterns repeat exactly, and are they stable?',
-    '',
-  ];
+  const lines = ['orbitseal demo — two invented scenarios, every parameter an exact decimal', ''];
   let files = 0;
+  let current = '';
   for (const run of d.runs) {
+    if (run.scenario !== current) {
+      current = run.scenario;
+      const scenario = DEMO_SCENARIOS.find((s) => s.yaml.includes(`title: ${run.scenario}\n`));
+      lines.push(...(scenario?.intro ?? [run.scenario]));
+    }
     const r = run.report;
-    lines.push(`Period ${r.period} — ${run.story}: ${r.candidatesFound} candidate(s) from the float search.`);
+    lines.push(`  period ${r.period}, ${run.story}: ${r.candidatesFound} candidate(s) from the float search`);
     for (const o of r.outcomes) {
-      const what = o.orbit
-        ? `N ∈ ${o.orbit.boxes.map((b) => formatInterval(b[0]!, 10)).join(' → ')}` +
-          (o.orbit.stability.multiplier ? `, multiplier Λ ∈ ${formatInterval(o.orbit.stability.multiplier, 6)}` : '') +
-          `, ${o.orbit.stability.class}`
-        : `near N ≈ ${o.candidate.points.map((p) => p[0]!.toPrecision(6)).join(' → ')}`;
-      lines.push(`  ${statusLabel(o.status)}: ${what}${o.reason && o.status !== 'verified' ? ` (${o.reason})` : ''}`);
+      lines.push(`    ${statusLabel(o.status)}: ${orbitText(o, r.map.state)}${o.reason && o.status !== 'verified' ? ` (${o.reason})` : ''}`);
       if (o.certificatePath) files++;
     }
     lines.push('');
   }
   lines.push(
-    'What this means: for the map exactly as written (r = 383/100, K = 12), each box above contains exactly',
-    'one point of a periodic cycle, with the stated minimal period and stability. "re-verified" means an',
-    'independent checker (decimal interval arithmetic, its own parser) re-derived every claim from the',
-    'certificate file alone. It says nothing about how well this formula describes real moths.',
+    'What this means: for each map exactly as written (3.83 is 383/100, not a nearby double), each',
+    'box above holds exactly one point of a periodic cycle with the stated minimal period and',
+    'stability. "re-verified": an independent checker (decimal interval arithmetic, its own parser)',
+    're-derived every claim from the certificate file alone. Nothing here says how well these',
+    'formulas describe real moths or voles.',
     '',
     `${files} certificate(s) written to ${d.outDir}`,
     `Check them again any time:  orbitseal check ${d.outDir}`,

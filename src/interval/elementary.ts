@@ -1,0 +1,231 @@
+/**
+ * Proven enclosures of exp and log at a double, using only correctly rounded + − × ÷ (through the
+ * successor formula of round.ts) — no Math.* accuracy assumption.
+ *
+ * exp(x): x = k·ln2 + r with k = round(x / ln2) and r enclosed using a two-part ln2
+ * (LN2_HEAD with 32 significant bits, so k·LN2_HEAD is exact for |k| < 2^21, plus an enclosed
+ * tail); e^r for |r| ≤ 0.36 by interval Horner evaluation of the Taylor polynomial of degree 16
+ * with enclosed coefficients 1/j! and the Lagrange remainder |r|^17/17!·e^|r| < 2e-22; then the exact
+ * (or directed, near under/overflow) scaling by 2^k.
+ *
+ * log(x): x = m·2^e with m ∈ [√½, √2); log m = 2·atanh(s) = 2s·Σ z^i/(2i+1), s = (m − 1)/(m + 1),
+ * z = s² ≤ 0.0295, written 2s + 2s·z·Σ_{i<11} z^i/(2i+3) with remainder z^11/25/(1 − z); log x = e·LN2_HEAD (exact) +
+ * e·tail + log m, summed with directed rounding.
+ *
+ * Constants are checked against decimal.js in tests/interval/elementary.test.ts. Tightness: a few
+ * ulps (each Horner step rounds outward); measured ≤ 4 ulps wide on points.
+ */
+
+import { addDown, addUp, divDown, divUp, down, mulDown, mulUp, subDown, subUp, up } from './round.js';
+
+/** ln 2 = LN2_HEAD + tail, LN2_HEAD = 0x3FE62E42FEE00000 (32 significant bits, as in fdlibm). */
+export const LN2_HEAD = 6.93147180369123816490e-1;
+/** Enclosure of ln 2 − LN2_HEAD (≈ 1.9082149292705877e-10). */
+export const LN2_TAIL_LO = 1.9082149292705874e-10;
+export const LN2_TAIL_HI = 1.908214929270588e-10;
+
+const DEGREE_EXP = 16;
+/** Bound of |r|^17/17!·e^|r| for |r| ≤ 0.36 (0.36^17 / 17! ≈ 8.0e-23, times e^0.36 < 1.44). */
+const EXP_REMAINDER = 2e-22;
+const R_LIMIT = 0.36;
+
+// Enclosures of 1/j!, j = 0..DEGREE_EXP, by directed division.
+const INV_FACT_LO = new Float64Array(DEGREE_EXP + 1);
+const INV_FACT_HI = new Float64Array(DEGREE_EXP + 1);
+INV_FACT_LO[0] = 1;
+INV_FACT_HI[0] = 1;
+for (let j = 1; j <= DEGREE_EXP; j++) {
+  INV_FACT_LO[j] = divDown(INV_FACT_LO[j - 1]!, j);
+  INV_FACT_HI[j] = divUp(INV_FACT_HI[j - 1]!, j);
+}
+
+const TERMS_LOG = 12;
+// Enclosures of 1/(2i + 1), i = 0..TERMS_LOG − 1.
+const INV_ODD_LO = new Float64Array(TERMS_LOG);
+const INV_ODD_HI = new Float64Array(TERMS_LOG);
+for (let i = 0; i < TERMS_LOG; i++) {
+  INV_ODD_LO[i] = divDown(1, 2 * i + 1);
+  INV_ODD_HI[i] = divUp(1, 2 * i + 1);
+}
+
+// Exact powers of two 2^k for k in [-1022, 1023] from the bit pattern.
+const POW2 = new Float64Array(2046);
+{
+  const bits = new BigInt64Array(POW2.buffer);
+  for (let k = -1022; k <= 1023; k++) bits[k + 1022] = BigInt(k + 1023) << 52n;
+}
+function pow2(k: number): number {
+  return POW2[k + 1022]!;
+}
+
+/** v·2^k rounded down (v ≥ 0), exact when the result is normal. */
+function scaleDown(v: number, k: number): number {
+  while (k > 1023) {
+    v = mulDown(v, pow2(1023));
+    k -= 1023;
+  }
+  while (k < -1022) {
+    v = Math.max(0, mulDown(v, pow2(-1022)));
+    k += 1022;
+  }
+  return Math.max(0, mulDown(v, pow2(k)));
+}
+
+/** v·2^k rounded up (v ≥ 0). */
+function scaleUp(v: number, k: number): number {
+  while (k > 1023) {
+    v = mulUp(v, pow2(1023));
+    k -= 1023;
+  }
+  while (k < -1022) {
+    v = mulUp(v, pow2(-1022));
+    k += 1022;
+  }
+  return mulUp(v, pow2(k));
+}
+
+let hornerHi = 0;
+
+/** Range of Σ_{j ≤ 16} r^j/j! over r ∈ [rl, rh] (interval Horner); returns lo, upper in hornerHi. */
+function expPoly(rl: number, rh: number): number {
+  let tl = INV_FACT_LO[DEGREE_EXP]!;
+  let th = INV_FACT_HI[DEGREE_EXP]!;
+  for (let j = DEGREE_EXP - 1; j >= 0; j--) {
+    const p1 = rl * tl;
+    const p2 = rl * th;
+    const p3 = rh * tl;
+    const p4 = rh * th;
+    if (j > 3) {
+      tl = down(INV_FACT_LO[j]! + down(Math.min(p1, p2, p3, p4)));
+      th = up(INV_FACT_HI[j]! + up(Math.max(p1, p2, p3, p4)));
+    } else {
+      // Last steps dominate the width: use the tight directed operations (round.ts).
+      const ml = Math.min(mulDown(rl, tl), mulDown(rl, th), mulDown(rh, tl), mulDown(rh, th));
+      const mh = Math.max(mulUp(rl, tl), mulUp(rl, th), mulUp(rh, tl), mulUp(rh, th));
+      tl = addDown(INV_FACT_LO[j]!, ml);
+      th = addUp(INV_FACT_HI[j]!, mh);
+    }
+  }
+  hornerHi = th;
+  return tl;
+}
+
+const EXP_OVER = 709.7827128933841; // > ln(MAX) = 709.782712893383996…: e^x > MAX beyond
+const EXP_UNDER = -745.1332191019412; // < ln(2^-1075): e^x < 2^-1075 below
+
+/**
+ * Proven bounds of e^x for a double x: returns the lower bound and sets `expHi` (read with
+ * expUpper()). Special cases: −∞ → [0, 0]; +∞ → [+∞, +∞]... (callers handle infinities); 0 → [1, 1];
+ * x > 709.79 → [MAX, +∞]; x < −745.14 → [0, 2^-1074].
+ */
+let expHi = 0;
+export function expBounds(x: number): number {
+  if (x === 0) {
+    expHi = 1;
+    return 1;
+  }
+  if (x >= EXP_OVER) {
+    expHi = Infinity;
+    return Number.MAX_VALUE;
+  }
+  if (x <= EXP_UNDER) {
+    expHi = 2 ** -1074;
+    return 0;
+  }
+  const k = Math.round(x * 1.4426950408889634); // any integer is correct; this one makes |r| small
+  const kh = k * LN2_HEAD; // exact: |k| ≤ 1075 < 2^11 and LN2_HEAD has 32 significant bits
+  const aL = subDown(x, kh);
+  const aH = subUp(x, kh);
+  const tL = k >= 0 ? mulDown(k, LN2_TAIL_LO) : mulDown(k, LN2_TAIL_HI);
+  const tH = k >= 0 ? mulUp(k, LN2_TAIL_HI) : mulUp(k, LN2_TAIL_LO);
+  const rl = subDown(aL, tH);
+  const rh = subUp(aH, tL);
+  if (!(rl >= -R_LIMIT && rh <= R_LIMIT)) throw new Error(`internal: exp reduction out of range at ${x}`);
+  const pl = expPoly(rl, rh);
+  const ph = hornerHi;
+  expHi = scaleUp(addUp(ph, EXP_REMAINDER), k);
+  return scaleDown(Math.max(0, subDown(pl, EXP_REMAINDER)), k);
+}
+
+/** Upper bound from the last expBounds call. */
+export function expUpper(): number {
+  return expHi;
+}
+
+const f64 = new Float64Array(1);
+const u32 = new Uint32Array(f64.buffer);
+const LITTLE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+const HI_WORD = LITTLE ? 1 : 0;
+const SQRT_HALF = 0.7071067811865476; // only a split point: any value in (0.5, 1) keeps |s| < 1/3
+
+let logHi = 0;
+
+/**
+ * Proven bounds of ln x for a finite double x > 0: returns the lower bound, upper via logUpper().
+ * ln 1 = 0 exactly.
+ */
+export function logBounds(x: number): number {
+  if (x === 1) {
+    logHi = 0;
+    return 0;
+  }
+  let e = 0;
+  let m = x;
+  if (m < 2 ** -1022) {
+    m *= 2 ** 54; // exact: subnormal to normal
+    e = -54;
+  }
+  f64[0] = m;
+  const hw = u32[HI_WORD]!;
+  e += ((hw >>> 20) & 0x7ff) - 1023;
+  u32[HI_WORD] = (hw & 0x800fffff) | (1023 << 20); // m ∈ [1, 2), exact
+  m = f64[0]!;
+  if (m > 2 * SQRT_HALF) {
+    m *= 0.5; // exact
+    e += 1;
+  }
+  // s = (m − 1)/(m + 1); m − 1 is exact (Sterbenz, m ∈ [0.7, 1.42]).
+  const num = m - 1;
+  const dl = addDown(m, 1);
+  const dh = addUp(m, 1);
+  const sl = num >= 0 ? divDown(num, dh) : divDown(num, dl);
+  const sh = num >= 0 ? divUp(num, dl) : divUp(num, dh);
+  // z = s² ∈ [zl, zh]
+  const amin = sl > 0 ? sl : sh < 0 ? -sh : 0;
+  const amax = Math.max(-sl, sh);
+  const zl = Math.max(0, mulDown(amin, amin));
+  const zh = mulUp(amax, amax);
+  // log m = 2s + 2s·z·Q'(z), Q'(z) = Σ_{i < 11} z^i/(2i+3) + remainder ≤ z^11/25/(1 − z): the
+  // correction is ≤ 1.1% of 2s, so its rounding errors are damped; z ≥ 0 keeps Horner monotone.
+  let ql = INV_ODD_LO[TERMS_LOG - 1]!;
+  let qh = INV_ODD_HI[TERMS_LOG - 1]!;
+  for (let i = TERMS_LOG - 2; i >= 1; i--) {
+    ql = addDown(INV_ODD_LO[i]!, mulDown(zl, ql));
+    qh = addUp(INV_ODD_HI[i]!, mulUp(zh, qh));
+  }
+  let zp = zh;
+  for (let i = 1; i < TERMS_LOG - 1; i++) zp = mulUp(zp, zh); // zh^11
+  qh = addUp(qh, divUp(divUp(zp, 25), subDown(1, zh)));
+  // correction c = 2s·z·Q' with z·Q' ∈ [zl·ql, zh·qh] (both ≥ 0)
+  const wl = mulDown(zl, ql);
+  const wh = mulUp(zh, qh);
+  const cl = sl >= 0 ? mulDown(2 * sl, wl) : mulDown(2 * sl, wh);
+  const ch = sh >= 0 ? mulUp(2 * sh, wh) : mulUp(2 * sh, wl);
+  const lml = addDown(2 * sl, cl);
+  const lmh = addUp(2 * sh, ch);
+  if (e === 0) {
+    logHi = lmh;
+    return lml;
+  }
+  // e·ln2 = e·LN2_HEAD (exact: |e| ≤ 1075) + e·tail
+  const eh = e * LN2_HEAD;
+  const etl = e > 0 ? mulDown(e, LN2_TAIL_LO) : mulDown(e, LN2_TAIL_HI);
+  const eth = e > 0 ? mulUp(e, LN2_TAIL_HI) : mulUp(e, LN2_TAIL_LO);
+  logHi = addUp(eh, addUp(eth, lmh));
+  return addDown(eh, addDown(etl, lml));
+}
+
+/** Upper bound from the last logBounds call. */
+export function logUpper(): number {
+  return logHi;
+}

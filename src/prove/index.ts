@@ -1,0 +1,33 @@
+/** The prover's public surface (DESIGN.md §3, layer prove/). */
+export { proveOrbit, proveOrbitWith, precisionLadder, defaultArithmetics } from './orbit.js';
+export type { CandidateCoordinate, ProveOrbitOptions, ProverArithmetics } from './orbit.js';
+export {
+  krawczykShooting,
+  krawczykPlanned,
+  prepareKrawczyk,
+  intervalNewtonStep,
+  shootingResidual,
+  shootingJacobianBlocks,
+  floatPreconditioner,
+  pointPreconditioner,
+} from './krawczyk.js';
+export type {
+  KrawczykOutcome,
+  KrawczykPlan,
+  NewtonStepOutcome,
+  Preconditioner,
+  DensePreconditioner,
+  ShootingSystem,
+} from './krawczyk.js';
+export { orbitStability } from './stability.js';
+export { verifyWrittenBox } from './orbit-core.js';
+export type {
+  DecimalPair,
+  NotProvenReason,
+  OrbitVerdict,
+  PrecisionAttempt,
+  ProvenOrbit,
+  ProvenStability,
+  ProveTiming,
+  StabilityClass,
+} from './types.js';

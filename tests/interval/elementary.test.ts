@@ -1,0 +1,84 @@
+/**
+ * Proven exp / log (src/interval/elementary.ts) against decimal.js at 60 digits, and the constants
+ * they rest on. Sources: ln 2 = 0.693147180559945309417232121458176568… (from memory, confirmed by
+ * decimal.js Dec60.ln(2)); the exp/log thresholds are checked by decimal.js below.
+ */
+
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { LN2_HEAD, LN2_TAIL_HI, LN2_TAIL_LO, expBounds, expUpper, logBounds, logUpper } from '../../src/interval/elementary.js';
+import { nextUp } from '../../src/interval/round.js';
+import { Dec60, dec60, exact, Exact } from './oracle.js';
+
+const LN2 = Dec60.ln(2);
+
+function ulps(lo: number, hi: number): number {
+  let k = 0;
+  for (let x = lo; x < hi && k < 100; k++) x = nextUp(x);
+  return k;
+}
+
+describe('constants', () => {
+  it('ln 2 ∈ LN2_HEAD + [TAIL_LO, TAIL_HI]; LN2_HEAD has 32 significant bits', () => {
+    expect(LN2.toString().startsWith('0.693147180559945309417232121458176568')).toBe(true);
+    expect(dec60(LN2_HEAD).plus(dec60(LN2_TAIL_LO)).lt(LN2)).toBe(true);
+    expect(dec60(LN2_HEAD).plus(dec60(LN2_TAIL_HI)).gt(LN2)).toBe(true);
+    expect(Number.isInteger(LN2_HEAD * 2 ** 32)).toBe(true); // 32 bits after the binary point
+    expect(LN2_HEAD * 2 ** 32 < 2 ** 32).toBe(true);
+  });
+  it('overflow / underflow thresholds: e^709.7827128933841 > MAX, e^-745.1332191019412 < 2^-1074', () => {
+    expect(dec60(709.7827128933841).exp().gt(exact(Number.MAX_VALUE))).toBe(true);
+    expect(dec60(-745.1332191019412).exp().lt(new Exact(2).pow(-1074))).toBe(true);
+  });
+});
+
+describe('expBounds / logBounds contain decimal.js values and are tight', () => {
+  const SLACK = 1e-50;
+  it('exp on [-745, 710], including tiny and exact points', () => {
+    const xs = fc.oneof(
+      fc.double({ min: -746, max: 710, noNaN: true }),
+      fc.double({ min: -1e-300, max: 1e-300, noNaN: true }),
+      fc.integer({ min: -20, max: 20 }).map((k) => k / 4),
+    );
+    fc.assert(
+      fc.property(xs, (x) => {
+        const lo = expBounds(x);
+        const hi = expUpper();
+        const v = dec60(x).exp();
+        expect(exact(lo).lte(v.times(1 + SLACK)), `exp(${x}) lo ${lo} > ${v}`).toBe(true);
+        if (hi !== Infinity) expect(exact(hi).gte(v.times(1 - SLACK)), `exp(${x}) hi ${hi} < ${v}`).toBe(true);
+        if (lo > 2 ** -1000 && hi < 1e300) expect(ulps(lo, hi), `exp(${x}) = [${lo}, ${hi}]`).toBeLessThanOrEqual(5);
+      }),
+      { numRuns: 400 },
+    );
+  });
+  it('log on all positive doubles (subnormal to MAX)', () => {
+    const xs = fc.oneof(
+      fc.double({ min: 2 ** -1074, noNaN: true, noDefaultInfinity: true }),
+      fc.double({ min: 0.5, max: 2, noNaN: true }),
+      fc.double({ min: 0.999999, max: 1.000001, noNaN: true }),
+    );
+    fc.assert(
+      fc.property(xs, (x) => {
+        const lo = logBounds(x);
+        const hi = logUpper();
+        const v = dec60(x).ln();
+        const s = v.abs().times(SLACK);
+        expect(exact(lo).lte(v.plus(s)), `log(${x}) lo ${lo} > ${v}`).toBe(true);
+        expect(exact(hi).gte(v.minus(s)), `log(${x}) hi ${hi} < ${v}`).toBe(true);
+        expect(ulps(lo, hi), `log(${x}) = [${lo}, ${hi}]`).toBeLessThanOrEqual(5);
+      }),
+      { numRuns: 400 },
+    );
+  });
+  it('exact points (closed form): exp(0) = 1, log(1) = 0, log(2^k) encloses k·ln 2', () => {
+    expect(expBounds(0)).toBe(1);
+    expect(expUpper()).toBe(1);
+    expect(logBounds(1)).toBe(0);
+    expect(logUpper()).toBe(0);
+    const lo = logBounds(2 ** -1074);
+    const hi = logUpper();
+    const v = LN2.times(-1074);
+    expect(dec60(lo).lte(v) && dec60(hi).gte(v)).toBe(true);
+  });
+});
