@@ -52,7 +52,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ShowCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => showCommand(map, o))();
+      return run(() => showCommand(map, o, cwd))();
     });
 
   program
@@ -65,7 +65,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => findCommand(map, o))();
+      return run(() => findCommand(map, o, cwd))();
     });
 
   program

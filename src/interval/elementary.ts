@@ -16,7 +16,7 @@
  * ulps (each Horner step rounds outward); measured ≤ 4 ulps wide on points.
  */
 
-import { addDown, addUp, divDown, divUp, down, mulDown, mulUp, subDown, subUp, up } from './round.js';
+import { addDown, addUp, divDown, divUp, down, mulDown, mulUp, subDown, subUp, twoProductError, twoSumError, up } from './round.js';
 
 /** ln 2 = LN2_HEAD + tail, LN2_HEAD = 0x3FE62E42FEE00000 (32 significant bits, as in fdlibm). */
 export const LN2_HEAD = 6.93147180369123816490e-1;
@@ -228,4 +228,163 @@ export function logBounds(x: number): number {
 /** Upper bound from the last logBounds call. */
 export function logUpper(): number {
   return logHi;
+}
+
+// ---------------------------------------------------------------------------------------------
+// sin / cos at a double: x = m·π/2 + r with the double-double π/2 of kernel.ts, |r| ≤ 0.8.
+
+/** π/2 = HEAD + tail, tail ∈ [TAIL_LO, TAIL_HI] (same constants as kernel.ts, checked in tests). */
+const HP_HEAD = 1.5707963267948966;
+const HP_TAIL_LO = 6.123233995736765e-17;
+const HP_TAIL_HI = 6.123233995736767e-17;
+
+const K_TRIG = 10;
+// sin r = r + r·z·S(z), S(z) = Σ_{k=1..10} (−1)^k z^(k−1)/(2k+1)!; remainder ≤ |r|^23/23!.
+// cos r = 1 + z·C(z),   C(z) = Σ_{k=1..10} (−1)^k z^(k−1)/(2k)!;   remainder ≤ r^22/22!.
+const S_LO = new Float64Array(K_TRIG);
+const S_HI = new Float64Array(K_TRIG);
+const C_LO = new Float64Array(K_TRIG);
+const C_HI = new Float64Array(K_TRIG);
+{
+  // 1/n! enclosures for n ≤ 21 by directed division.
+  let fl = 1;
+  let fh = 1;
+  const invLo: number[] = [1];
+  const invHi: number[] = [1];
+  for (let n = 1; n <= 21; n++) {
+    fl = divDown(fl, n);
+    fh = divUp(fh, n);
+    invLo.push(fl);
+    invHi.push(fh);
+  }
+  for (let k = 1; k <= K_TRIG; k++) {
+    const neg = k % 2 === 1;
+    S_LO[k - 1] = neg ? -invHi[2 * k + 1]! : invLo[2 * k + 1]!;
+    S_HI[k - 1] = neg ? -invLo[2 * k + 1]! : invHi[2 * k + 1]!;
+    C_LO[k - 1] = neg ? -invHi[2 * k]! : invLo[2 * k]!;
+    C_HI[k - 1] = neg ? -invLo[2 * k]! : invHi[2 * k]!;
+  }
+}
+/** |r|^22/23! for |r| ≤ 0.8, rounded up generously (0.8^22/23! ≈ 2.85e-25). */
+const SIN_REL_REM = 3e-25;
+/** 0.8^22/22! ≈ 6.6e-24, rounded up. */
+const COS_REM = 1e-23;
+const TRIG_R_LIMIT = 0.8;
+
+let redLo = 0;
+let redHi = 0;
+
+/**
+ * Enclosure [redLo, redHi] of x − m·π/2 for integers |m| ≤ 2^40, |x| ≤ 2^41: m·HEAD = p + e
+ * (TwoProduct, exact), x − p = s + t (TwoSum, exact), so x − m·π/2 = s + (t − e − m·tail).
+ */
+export function reduceHalfPi(x: number, m: number): void {
+  if (m === 0) {
+    redLo = x;
+    redHi = x;
+    return;
+  }
+  const p = m * HP_HEAD;
+  const e = twoProductError(m, HP_HEAD, p);
+  const s = x - p;
+  const t = twoSumError(x, -p, s);
+  const mtLo = m > 0 ? mulDown(m, HP_TAIL_LO) : mulDown(m, HP_TAIL_HI);
+  const mtHi = m > 0 ? mulUp(m, HP_TAIL_HI) : mulUp(m, HP_TAIL_LO);
+  redLo = addDown(s, subDown(subDown(t, e), mtHi));
+  redHi = addUp(s, subUp(subUp(t, e), mtLo));
+}
+export function reducedLo(): number {
+  return redLo;
+}
+export function reducedHi(): number {
+  return redHi;
+}
+
+let polyHi = 0;
+/** Interval Horner of Σ c_k z^(k−1) over z ∈ [zl, zh] with enclosed coefficients; upper in polyHi. */
+function hornerZ(zl: number, zh: number, cl: Float64Array, ch: Float64Array): number {
+  let tl = cl[K_TRIG - 1]!;
+  let th = ch[K_TRIG - 1]!;
+  for (let k = K_TRIG - 2; k >= 0; k--) {
+    const ml = Math.min(mulDown(zl, tl), mulDown(zl, th), mulDown(zh, tl), mulDown(zh, th));
+    const mh = Math.max(mulUp(zl, tl), mulUp(zl, th), mulUp(zh, tl), mulUp(zh, th));
+    tl = addDown(cl[k]!, ml);
+    th = addUp(ch[k]!, mh);
+  }
+  polyHi = th;
+  return tl;
+}
+
+function mulIntervalLo(al: number, ah: number, bl: number, bh: number): number {
+  return Math.min(mulDown(al, bl), mulDown(al, bh), mulDown(ah, bl), mulDown(ah, bh));
+}
+function mulIntervalHi(al: number, ah: number, bl: number, bh: number): number {
+  return Math.max(mulUp(al, bl), mulUp(al, bh), mulUp(ah, bl), mulUp(ah, bh));
+}
+
+let sinLo = 0;
+let sinHi = 0;
+let cosLo = 0;
+let cosHi = 0;
+
+/**
+ * Proven enclosures of sin x and cos x for a double |x| ≤ 2^40 (results via trigSinLo() …).
+ * Returns false when the reduction is out of range (the caller then uses [−1, 1]).
+ */
+export function sinCosBounds(x: number): boolean {
+  if (!(Math.abs(x) <= 2 ** 40)) return false;
+  const m = Math.round(x / HP_HEAD);
+  reduceHalfPi(x, m);
+  const rl = redLo;
+  const rh = redHi;
+  if (!(rl >= -TRIG_R_LIMIT && rh <= TRIG_R_LIMIT)) return false;
+  const amin = rl > 0 ? rl : rh < 0 ? -rh : 0;
+  const amax = Math.max(-rl, rh);
+  const zl = Math.max(0, mulDown(amin, amin));
+  const zh = mulUp(amax, amax);
+  // sin r ∈ r + r·(z·S) ± amax·SIN_REL_REM
+  const sl0 = hornerZ(zl, zh, S_LO, S_HI);
+  const sh0 = polyHi;
+  const wl = mulIntervalLo(zl, zh, sl0, sh0);
+  const wh = mulIntervalHi(zl, zh, sl0, sh0);
+  const rwl = mulIntervalLo(rl, rh, wl, wh);
+  const rwh = mulIntervalHi(rl, rh, wl, wh);
+  const rem = mulUp(amax, SIN_REL_REM);
+  const sinRl = subDown(addDown(rl, rwl), rem);
+  const sinRh = addUp(addUp(rh, rwh), rem);
+  // cos r ∈ 1 + z·C ± COS_REM
+  const cl0 = hornerZ(zl, zh, C_LO, C_HI);
+  const ch0 = polyHi;
+  const cosRl = subDown(addDown(1, mulIntervalLo(zl, zh, cl0, ch0)), COS_REM);
+  const cosRh = addUp(addUp(1, mulIntervalHi(zl, zh, cl0, ch0)), COS_REM);
+  switch (((m % 4) + 4) % 4) {
+    case 0:
+      sinLo = sinRl; sinHi = sinRh; cosLo = cosRl; cosHi = cosRh;
+      break;
+    case 1:
+      sinLo = cosRl; sinHi = cosRh; cosLo = -sinRh; cosHi = -sinRl;
+      break;
+    case 2:
+      sinLo = -sinRh; sinHi = -sinRl; cosLo = -cosRh; cosHi = -cosRl;
+      break;
+    default:
+      sinLo = -cosRh; sinHi = -cosRl; cosLo = sinRl; cosHi = sinRh;
+  }
+  sinLo = Math.max(-1, sinLo);
+  sinHi = Math.min(1, sinHi);
+  cosLo = Math.max(-1, cosLo);
+  cosHi = Math.min(1, cosHi);
+  return true;
+}
+export function trigSinLo(): number {
+  return sinLo;
+}
+export function trigSinHi(): number {
+  return sinHi;
+}
+export function trigCosLo(): number {
+  return cosLo;
+}
+export function trigCosHi(): number {
+  return cosHi;
 }

@@ -200,9 +200,9 @@ export const sqr = (a: Interval): Interval => res(K.kSqr(S, 0, a.lo, a.hi));
 export const pown = (a: Interval, n: number): Interval => res(K.kPown(S, 0, a.lo, a.hi, n));
 /** √a on a ∩ [0, ∞), both ends verified exactly. */
 export const sqrt = (a: Interval): Interval => res(K.kSqrt(S, 0, a.lo, a.hi));
-/** exp (Math.exp widened, assumption). */
+/** exp (proven: elementary.ts). */
 export const exp = (a: Interval): Interval => res(K.kExp(S, 0, a.lo, a.hi));
-/** log on a ∩ (0, ∞] (Math.log widened, assumption). */
+/** log on a ∩ (0, ∞] (proven: elementary.ts). */
 export const log = (a: Interval): Interval => res(K.kLog(S, 0, a.lo, a.hi));
 /** sin with rigorous extremum detection (double-double π/2). */
 export const sin = (a: Interval): Interval => res(K.kSin(S, 0, a.lo, a.hi));
@@ -210,13 +210,13 @@ export const sin = (a: Interval): Interval => res(K.kSin(S, 0, a.lo, a.hi));
 export const cos = (a: Interval): Interval => res(K.kCos(S, 0, a.lo, a.hi));
 /** tan; a possible pole inside → ENTIRE. */
 export const tan = (a: Interval): Interval => res(K.kTan(S, 0, a.lo, a.hi));
-/** atan. */
+/** atan (Math.atan widened, assumption). */
 export const atan = (a: Interval): Interval => res(K.kAtan(S, 0, a.lo, a.hi));
-/** sinh. */
+/** sinh (Math.sinh widened, assumption). */
 export const sinh = (a: Interval): Interval => res(K.kSinh(S, 0, a.lo, a.hi));
-/** cosh (minimum 1 at 0 handled). */
+/** cosh (minimum 1 at 0 handled; proven via exp). */
 export const cosh = (a: Interval): Interval => res(K.kCosh(S, 0, a.lo, a.hi));
-/** tanh. */
+/** tanh (Math.tanh widened, assumption). */
 export const tanh = (a: Interval): Interval => res(K.kTanh(S, 0, a.lo, a.hi));
 /** |a| = [mig, mag], exact. */
 export const abs = (a: Interval): Interval => res(K.kAbs(S, 0, a.lo, a.hi));

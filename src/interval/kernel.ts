@@ -15,12 +15,23 @@
  *  - F_ASSUMED: the result rests on the accuracy assumption for `Math.*` (see README.md).
  *  - F_EMPTY: an input was empty (the result is empty).
  *
- * Rounding: + − × ÷ are one step outward (round.ts); √ is verified exactly; elementary functions
- * take Math.* and widen by WIDEN steps of the successor formula (≥ 1 ulp each), under the
- * documented assumption that V8's Math.* (fdlibm ports) is within 1 ulp.
+ * Rounding: + − × ÷ are directed (round.ts, tight in the normal range); √ is verified exactly;
+ * exp, log, cosh, sin, cos, tan are proven (elementary.ts); atan, sinh, tanh and pow take Math.*
+ * and widen by WIDEN steps of the successor formula (≥ 1 ulp each), under the documented
+ * assumption that V8's Math.* (fdlibm ports) is within 1 ulp — those set F_ASSUMED.
  */
 
-import { expBounds, expUpper, logBounds, logUpper } from './elementary.js';
+import {
+  expBounds,
+  expUpper,
+  logBounds,
+  logUpper,
+  sinCosBounds,
+  trigCosHi,
+  trigCosLo,
+  trigSinHi,
+  trigSinLo,
+} from './elementary.js';
 import {
   MAX,
   addDown,
@@ -506,70 +517,92 @@ export function halfPiResidues(lo: number, hi: number): number {
   return mask;
 }
 
-/** Widened Math.sin(x) bounds (exact at 0), clamped to [−1, 1]. */
+// Endpoint values of sin / cos / tan are PROVEN (elementary.ts sinCosBounds: reduction by the
+// double-double π/2, Taylor polynomials with remainder). |x| > 2^40 → [−1, 1].
 function sinDown(x: number): number {
-  return x === 0 ? 0 : Math.max(-1, widenDown(Math.sin(x), WIDEN));
+  return x === 0 ? 0 : sinCosBounds(x) ? trigSinLo() : -1;
 }
 function sinUp(x: number): number {
-  return x === 0 ? 0 : Math.min(1, widenUp(Math.sin(x), WIDEN));
+  return x === 0 ? 0 : sinCosBounds(x) ? trigSinHi() : 1;
 }
 function cosDown(x: number): number {
-  return x === 0 ? 1 : Math.max(-1, widenDown(Math.cos(x), WIDEN));
+  return x === 0 ? 1 : sinCosBounds(x) ? trigCosLo() : -1;
 }
 function cosUp(x: number): number {
-  return x === 0 ? 1 : Math.min(1, widenUp(Math.cos(x), WIDEN));
+  return x === 0 ? 1 : sinCosBounds(x) ? trigCosHi() : 1;
 }
 
 /**
- * sin: hull of the widened end values plus +1 / −1 when a point π/2 + 2kπ / −π/2 + 2kπ may lie in
- * a (decided with the double-double π/2, cmpMultipleOfHalfPi). Unbounded → [−1, 1].
+ * sin, PROVEN: hull of the end enclosures plus +1 / −1 when a point π/2 + 2kπ / −π/2 + 2kπ may
+ * lie in a (decided with the double-double π/2, cmpMultipleOfHalfPi). Unbounded → [−1, 1].
  */
 export function kSin(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
   const mask = halfPiResidues(alo, ahi);
   if (mask === 15) {
     put(out, o, -1, 1);
-    return alo === ahi ? F_ASSUMED : 0;
+    return 0;
   }
   let lo = Math.min(sinDown(alo), sinDown(ahi));
   let hi = Math.max(sinUp(alo), sinUp(ahi));
   if (mask & 2) hi = 1;
   if (mask & 8) lo = -1;
   put(out, o, lo, hi);
-  return F_ASSUMED;
+  return 0;
 }
 
-/** cos: as sin with maxima at 2kπ (residue 0) and minima at (2k+1)π (residue 2). */
+/** cos, PROVEN: as sin with maxima at 2kπ (residue 0) and minima at (2k+1)π (residue 2). */
 export function kCos(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
   const mask = halfPiResidues(alo, ahi);
   if (mask === 15) {
     put(out, o, -1, 1);
-    return alo === ahi ? F_ASSUMED : 0;
+    return 0;
   }
   let lo = Math.min(cosDown(alo), cosDown(ahi));
   let hi = Math.max(cosUp(alo), cosUp(ahi));
   if (mask & 1) hi = 1;
   if (mask & 4) lo = -1;
   put(out, o, lo, hi);
-  return F_ASSUMED;
+  return 0;
+}
+
+const tanScratch = new Float64Array(2);
+
+/** Enclosure of tan x at a double (sin x / cos x from the proven enclosures); false if undecided. */
+function tanAt(x: number): boolean {
+  if (x === 0) {
+    tanScratch[0] = 0;
+    tanScratch[1] = 0;
+    return true;
+  }
+  if (!sinCosBounds(x)) return false;
+  const cl = trigCosLo();
+  const ch = trigCosHi();
+  if (!(cl > 0 || ch < 0)) return false;
+  kDiv(tanScratch, 0, trigSinLo(), trigSinHi(), cl, ch);
+  return true;
 }
 
 /**
- * tan: a pole (π/2 + kπ, odd residues) possibly in a → ENTIRE + F_UNDEF; otherwise increasing,
- * [tan(alo)↓, tan(ahi)↑]. Unbounded or |a| > 2^40 → ENTIRE + F_UNDEF (undecided pole).
+ * tan, PROVEN: a pole (π/2 + kπ, odd residues) possibly in a → ENTIRE + F_UNDEF; otherwise
+ * increasing, [tan(alo)↓, tan(ahi)↑] with tan = sin/cos at the ends. Unbounded, |a| > 2^40 or an
+ * end too close to a pole to separate cos from 0 → ENTIRE + F_UNDEF (undecided).
  */
 export function kTan(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
   const mask = halfPiResidues(alo, ahi);
-  if (mask & 10) {
+  if (mask & 10 || !tanAt(alo)) {
     put(out, o, -Infinity, Infinity);
     return F_UNDEF;
   }
-  const lo = alo === 0 ? 0 : widenDown(Math.tan(alo), WIDEN);
-  const hi = ahi === 0 ? 0 : widenUp(Math.tan(ahi), WIDEN);
-  put(out, o, lo, hi);
-  return F_ASSUMED;
+  const lo = tanScratch[0]!;
+  if (!tanAt(ahi)) {
+    put(out, o, -Infinity, Infinity);
+    return F_UNDEF;
+  }
+  put(out, o, lo, tanScratch[1]!);
+  return 0;
 }
 
 /** atan, increasing, clamped to [−π/2↑, π/2↑]; atan(±Inf) = ±π/2 (enclosed). */

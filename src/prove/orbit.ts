@@ -30,6 +30,12 @@ export interface ProveOrbitOptions {
   uniqueness?: boolean;
   /** Escalate also when existence is proven but minimal period/stability are not (default true). */
   escalateIncomplete?: boolean;
+  /**
+   * Accept float64 enclosures that rest on the kernel's Math.* accuracy assumption
+   * (`status.assumed`, e.g. sin/exp widened by a margin) — default true. When false, such a
+   * result triggers escalation to multiprecision (which never assumes) and is not returned.
+   */
+  acceptAssumed?: boolean;
   /** Epsilon-inflation steps per precision (default 12). */
   maxInflations?: number;
   /**
@@ -80,9 +86,14 @@ function candidateDouble(v: CandidateCoordinate): number {
   return typeof v === 'number' ? v : Number(v);
 }
 
+function attemptDetail(c: AttemptClaims): string {
+  const base = c.complete ? 'all claims proven' : `not proven: ${c.missing}`;
+  return c.assumed ? `${base} (resting on the Math.* accuracy assumption of the float64 kernel)` : base;
+}
+
 /** Score used to pick the best incomplete result across precisions. */
 function score(c: AttemptClaims): number {
-  return (c.minimalPeriod !== null ? 1 : 0) + (c.stability.class !== 'undecided' ? 1 : 0);
+  return (c.minimalPeriod !== null ? 1 : 0) + (c.stability.class !== 'undecided' ? 1 : 0) + (c.assumed ? 0 : 2);
 }
 
 export function proveOrbitWith(
@@ -153,7 +164,7 @@ export function proveOrbitWith(
         });
         if (res.kind === 'proven') {
           best = { claims: res.claims, bits: 53 };
-          attempts.push({ bits: 53, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: res.claims.complete ? 'all claims proven' : `not proven: ${res.claims.missing}` });
+          attempts.push({ bits: 53, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: attemptDetail(res.claims) });
         } else {
           lastFailure = { reason: res.reason, detail: res.detail };
           attempts.push({ bits: 53, outcome: 'failed', detail: res.detail });
@@ -162,7 +173,9 @@ export function proveOrbitWith(
     }
   }
 
-  const wantMore = (): boolean => best === null || (escalateIncomplete && !best.claims.complete);
+  const acceptAssumed = opts.acceptAssumed ?? true;
+  const wantMore = (): boolean =>
+    best === null || (escalateIncomplete && !best.claims.complete) || (!acceptAssumed && best.claims.assumed);
   const hardStop = lastFailure.reason === 'newton-failed' && best === null && opts.refine !== false;
   if (ariths.mp && wantMore() && !hardStop) {
     for (const bits of precisionLadder(maxBits)) {
@@ -195,7 +208,7 @@ export function proveOrbitWith(
         maxInflations,
       });
       if (res.kind === 'proven') {
-        attempts.push({ bits, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: res.claims.complete ? 'all claims proven' : `not proven: ${res.claims.missing}` });
+        attempts.push({ bits, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: attemptDetail(res.claims) });
         if (best === null || score(res.claims) > score(best.claims)) best = { claims: res.claims, bits };
       } else {
         attempts.push({ bits, outcome: 'failed', detail: res.detail });
@@ -204,6 +217,10 @@ export function proveOrbitWith(
     }
   }
   const totalMs = performance.now() - t0;
+  if (best !== null && !acceptAssumed && best.claims.assumed) {
+    const detail = `proven at ${best.bits} bits only under the Math.* accuracy assumption of the float64 kernel; no assumption-free proof up to ${maxBits} bits`;
+    return { status: 'not-proven', reason: 'undecided', detail, attempts };
+  }
   if (best === null) return { status: 'not-proven', reason: lastFailure.reason, detail: lastFailure.detail, attempts };
   const c = best.claims;
   const orbit: ProvenOrbit = {

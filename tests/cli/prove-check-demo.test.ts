@@ -82,6 +82,20 @@ describe('orbitseal prove', () => {
     expect(cert.map.params.r).toEqual(['2.5', '2.6']);
   });
 
+  it('a neutral fixed point is reported "not proven" with a reason, never "proven"; exit 1', async () => {
+    // f(x) = x − x³ has f(0) = 0 with multiplier f'(0) = 1 exactly (closed form, derived by hand):
+    // the shooting Jacobian 1 − f'(0) is singular there, so no Krawczyk proof can exist
+    const map = join(fresh('neutral'), 'neutral.yaml');
+    writeFileSync(map, 'title: Neutral map\nstate: [x]\nparams: {}\nstep:\n  x: x - x^3\nregion:\n  x: [-0.5, 0.5]\n');
+    const out = fresh('neutral-out');
+    const r = await runCli(['prove', map, '--period', '1', '--out', out]);
+    expect(r.exitCode).toBe(1);
+    expect(r.stdout).toMatch(/^1 +not proven/m);
+    expect(r.stdout).not.toMatch(/proven, re-verified|fast engine only/);
+    expect(r.stdout).toMatch(/summary: 0 proven and re-verified by the independent checker; 1 not proven\./);
+    expect(readdirSync(out)).toEqual([]);
+  });
+
   it('no candidate → nothing proven, exit 1 (logistic r = 3.8 has no period-3 orbit: window opens at 1 + √8; arXiv:1204.0546)', async () => {
     const r = await runCli(['prove', 'logistic', '--period', '3', '--param', 'r=3.8', '--out', fresh('none')]);
     expect(r.exitCode).toBe(1);

@@ -6,6 +6,7 @@ import type { CompiledMap } from '../../src/model/types.js';
 import type { ProvenOrbitData } from '../../src/certificate/build.js';
 import { proveOrbit, proveOrbitWith } from '../../src/prove/orbit.js';
 import { mpIntervalArithmetic } from '../../src/interval/mp.js';
+import { intervalArithmetic } from '../../src/interval/interval-arith.js';
 import type { IntervalArithmetic } from '../../src/interval/arithmetic.js';
 import type { DecimalPair, ProvenOrbit } from '../../src/prove/types.js';
 import { balancedWord, henonNearReturn, inPair, logistic4Orbit, wordToNumerator } from './fixtures.js';
@@ -212,6 +213,31 @@ describe('what must not be proven', () => {
     const m = compileMap({ title: 'no fixed point', state: ['x'], params: {}, step: { x: 'x^2 + 1' }, region: { x: ['-2', '2'] } });
     const v = proveOrbit(m, [[0.5]]);
     expect(v.status).toBe('not-proven');
+  });
+
+  it('acceptAssumed: false replaces a float64 proof resting on an assumption by a multiprecision one', () => {
+    // A float64 arithmetic whose sin is marked as resting on an accuracy assumption (as a kernel
+    // built on Math.sin widened by a margin would be); multiprecision never assumes (src/interval/mp.ts).
+    const assuming = (): IntervalArithmetic<unknown> => {
+      const base = intervalArithmetic();
+      const sin = base.sin.bind(base);
+      return Object.assign(Object.create(base) as typeof base, {
+        sin: (v: Parameters<typeof sin>[0]) => {
+          base.status.assumed = true;
+          return sin(v);
+        },
+      }) as IntervalArithmetic<unknown>;
+    };
+    const ariths = { float: assuming, mp: (bits: number) => mpIntervalArithmetic(bits) as IntervalArithmetic<unknown> };
+    const m = compileMap({ title: 'sine', state: ['x'], params: { r: { kind: 'exact', value: '0.9' } }, step: { x: 'r*sin(pi*x)' }, region: { x: ['0', '1'] } });
+    const x = 0.7104167292817497; // fixed point of 0.9·sin(πx) (float iteration of the inverse branch, heuristic)
+    const fast = proven(proveOrbitWith(ariths, m, [[x]]));
+    expect(fast.assumed).toBe(true);
+    expect(fast.bits).toBe(53);
+    const strict = proven(proveOrbitWith(ariths, m, [[x]], { acceptAssumed: false }));
+    expect(strict.assumed).toBe(false);
+    expect(strict.bits).toBeGreaterThan(53);
+    expect(proveOrbitWith(ariths, m, [[x]], { acceptAssumed: false, maxBits: 53 }).status).toBe('not-proven');
   });
 
   it('bad input is a typed outcome, not an exception', () => {

@@ -1,3 +1,5 @@
+import { existsSync } from 'node:fs';
+import { isAbsolute, resolve } from 'node:path';
 import type { CompiledMap, MapDefinition, ParamValue } from '../../model/types.js';
 import * as lib from '../library.js';
 
@@ -7,15 +9,25 @@ export interface LoadedMap {
   compiled: CompiledMap;
 }
 
+/**
+ * A map argument as seen from `cwd`: unchanged when `cwd` is the process's folder (so messages
+ * show the path as typed), else a relative file path is resolved against `cwd`.
+ */
+export function mapArgFrom(mapArg: string, cwd: string): string {
+  if (cwd === process.cwd() || isAbsolute(mapArg)) return mapArg;
+  const looksLikePath = /[\\/]/.test(mapArg) || /\.(ya?ml|json)$/i.test(mapArg);
+  return looksLikePath || existsSync(resolve(cwd, mapArg)) ? resolve(cwd, mapArg) : mapArg;
+}
+
 /** Resolve a catalogue name or map file, apply `--param` overrides, compile. User errors throw. */
-export async function loadMap(mapArg: string, paramTexts: readonly string[] = []): Promise<LoadedMap> {
+export async function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd = process.cwd()): Promise<LoadedMap> {
   const model = await lib.model();
   const overrides: Record<string, ParamValue> = {};
   for (const text of paramTexts) {
     const o = model.parseParamOverride(text);
     overrides[o.name] = o.value;
   }
-  const def = await model.resolveMap(mapArg);
+  const def = await model.resolveMap(mapArgFrom(mapArg, cwd));
   const compiled = model.compileMap(def, overrides);
   return { def, overrides, compiled };
 }

@@ -14,9 +14,9 @@ export interface FindCommandOptions {
 
 export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
 
-export async function findCommand(mapArg: string, o: FindCommandOptions): Promise<CommandResult> {
+export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? []);
+  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const search = await lib.search();
   const cands = search.findCandidates(compiled, near ? { period, near } : { period });

@@ -27,7 +27,7 @@ export async function proveCommand(mapArg: string, o: ProveCommandOptions, cwd =
   const period = parsePeriod(o.period);
   const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
   const digits = o.digits !== undefined ? parseBoundedInt(o.digits, '--digits', 'bad-digits', 10, 100_000) : undefined;
-  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? []);
+  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
   const report = await certifyOrbits(def, compiled, {
@@ -154,8 +154,13 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
   return out.join('\n');
 }
 
-function wrap(text: string, width: number): string {
-  const words = text.split(/\s+/);
+/** Greedy word wrap; words longer than `width` are cut; at most `maxLines` lines (then "…"). */
+export function wrap(text: string, width: number, maxLines = 6): string {
+  const words = text.split(/\s+/).flatMap((w) => {
+    const parts: string[] = [];
+    for (let i = 0; i < w.length; i += width) parts.push(w.slice(i, i + width));
+    return parts;
+  });
   const lines: string[] = [];
   let cur = '';
   for (const w of words) {
@@ -165,6 +170,7 @@ function wrap(text: string, width: number): string {
     } else cur = cur === '' ? w : `${cur} ${w}`;
   }
   if (cur !== '') lines.push(cur);
+  if (lines.length > maxLines) return [...lines.slice(0, maxLines - 1), `${lines[maxLines - 1]!.slice(0, width - 1)}…`].join('\n');
   return lines.join('\n');
 }
 
