@@ -233,10 +233,15 @@ export function logUpper(): number {
 // ---------------------------------------------------------------------------------------------
 // sin / cos at a double: x = m·π/2 + r with the double-double π/2 of kernel.ts, |r| ≤ 0.8.
 
-/** π/2 = HEAD + tail, tail ∈ [TAIL_LO, TAIL_HI] (same constants as kernel.ts, checked in tests). */
-const HP_HEAD = 1.5707963267948966;
-const HP_TAIL_LO = 6.123233995736765e-17;
-const HP_TAIL_HI = 6.123233995736767e-17;
+/**
+ * π/2 as a triple-double: HALF_PI_1 + HALF_PI_2 + t3 with t3 ∈ [HALF_PI_3_LO, HALF_PI_3_HI]
+ * (HALF_PI_1 = fl(π/2), HALF_PI_2 = fl(π/2 − HALF_PI_1), t3 ≈ −1.4973849048591698e-33; checked
+ * against decimal.js in tests/interval/elementary.test.ts).
+ */
+export const HALF_PI_1 = 1.5707963267948966;
+export const HALF_PI_2 = 6.123233995736766e-17;
+export const HALF_PI_3_LO = -1.49738490485917e-33;
+export const HALF_PI_3_HI = -1.4973849048591697e-33;
 
 const K_TRIG = 10;
 // sin r = r + r·z·S(z), S(z) = Σ_{k=1..10} (−1)^k z^(k−1)/(2k+1)!; remainder ≤ |r|^23/23!.
@@ -275,8 +280,9 @@ let redLo = 0;
 let redHi = 0;
 
 /**
- * Enclosure [redLo, redHi] of x − m·π/2 for integers |m| ≤ 2^40, |x| ≤ 2^41: m·HEAD = p + e
- * (TwoProduct, exact), x − p = s + t (TwoSum, exact), so x − m·π/2 = s + (t − e − m·tail).
+ * Enclosure [redLo, redHi] of x − m·π/2 for integers |m| ≤ 2^40, |x| ≤ 2^41: m·P1 = p + e and
+ * m·P2 = q + f (TwoProduct, exact), x − p = s + t (TwoSum, exact), so
+ * x − m·π/2 = s + (t − e − q − f − m·t3), the small part summed with directed rounding.
  */
 export function reduceHalfPi(x: number, m: number): void {
   if (m === 0) {
@@ -284,14 +290,18 @@ export function reduceHalfPi(x: number, m: number): void {
     redHi = x;
     return;
   }
-  const p = m * HP_HEAD;
-  const e = twoProductError(m, HP_HEAD, p);
+  const p = m * HALF_PI_1;
+  const e = twoProductError(m, HALF_PI_1, p);
+  const q = m * HALF_PI_2;
+  const f = twoProductError(m, HALF_PI_2, q);
   const s = x - p;
   const t = twoSumError(x, -p, s);
-  const mtLo = m > 0 ? mulDown(m, HP_TAIL_LO) : mulDown(m, HP_TAIL_HI);
-  const mtHi = m > 0 ? mulUp(m, HP_TAIL_HI) : mulUp(m, HP_TAIL_LO);
-  redLo = addDown(s, subDown(subDown(t, e), mtHi));
-  redHi = addUp(s, subUp(subUp(t, e), mtLo));
+  const m3Lo = m > 0 ? mulDown(m, HALF_PI_3_LO) : mulDown(m, HALF_PI_3_HI);
+  const m3Hi = m > 0 ? mulUp(m, HALF_PI_3_HI) : mulUp(m, HALF_PI_3_LO);
+  const smallLo = subDown(subDown(subDown(subDown(t, e), q), f), m3Hi);
+  const smallHi = subUp(subUp(subUp(subUp(t, e), q), f), m3Lo);
+  redLo = addDown(s, smallLo);
+  redHi = addUp(s, smallHi);
 }
 export function reducedLo(): number {
   return redLo;
@@ -333,7 +343,7 @@ let cosHi = 0;
  */
 export function sinCosBounds(x: number): boolean {
   if (!(Math.abs(x) <= 2 ** 40)) return false;
-  const m = Math.round(x / HP_HEAD);
+  const m = Math.round(x / HALF_PI_1);
   reduceHalfPi(x, m);
   const rl = redLo;
   const rh = redHi;

@@ -26,6 +26,9 @@ import {
   expUpper,
   logBounds,
   logUpper,
+  reduceHalfPi,
+  reducedHi,
+  reducedLo,
   sinCosBounds,
   trigCosHi,
   trigCosLo,
@@ -47,7 +50,6 @@ import {
   subDown,
   subUp,
   twoProductError,
-  twoSumError,
   up,
 } from './round.js';
 
@@ -482,22 +484,14 @@ export const E_HI = 2.7182818284590455;
 const HALF_PI_UP = nextUp(HALF_PI_HEAD);
 
 /**
- * Sign of x − m·π/2 for an integer m with |m| ≤ 2^40 and |x| ≤ 2^40: −1 (certainly below),
- * +1 (certainly above), 0 (equal or undecided). Exact: m·HP_H = p + e (TwoProduct), x − p = s + t
- * (TwoSum), so x − m·π/2 = s + (t − e − m·tail) with the tail enclosed; the small sum is rounded
- * outward.
+ * Sign of x − m·π/2 for an integer m with |m| ≤ 2^40 and |x| ≤ 2^41: −1 (certainly below),
+ * +1 (certainly above), 0 (equal or undecided). Decided from the enclosure of x − m·π/2 of
+ * elementary.ts reduceHalfPi (triple-double π/2, exact TwoProduct / TwoSum, directed small sum).
  */
 export function cmpMultipleOfHalfPi(x: number, m: number): number {
   if (m === 0) return x > 0 ? 1 : x < 0 ? -1 : 0;
-  const p = m * HALF_PI_HEAD;
-  const e = twoProductError(m, HALF_PI_HEAD, p);
-  const s = x - p;
-  const t = twoSumError(x, -p, s);
-  const mtLo = m > 0 ? mulDown(m, HALF_PI_TAIL_LO) : mulDown(m, HALF_PI_TAIL_HI);
-  const mtHi = m > 0 ? mulUp(m, HALF_PI_TAIL_HI) : mulUp(m, HALF_PI_TAIL_LO);
-  const rLo = addDown(s, subDown(subDown(t, e), mtHi));
-  const rHi = addUp(s, subUp(subUp(t, e), mtLo));
-  return rLo > 0 ? 1 : rHi < 0 ? -1 : 0;
+  reduceHalfPi(x, m);
+  return reducedLo() > 0 ? 1 : reducedHi() < 0 ? -1 : 0;
 }
 
 const TRIG_LIMIT = 2 ** 40;

@@ -6,7 +6,24 @@
 
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { LN2_HEAD, LN2_TAIL_HI, LN2_TAIL_LO, expBounds, expUpper, logBounds, logUpper } from '../../src/interval/elementary.js';
+import {
+  HALF_PI_1,
+  HALF_PI_2,
+  HALF_PI_3_HI,
+  HALF_PI_3_LO,
+  LN2_HEAD,
+  LN2_TAIL_HI,
+  LN2_TAIL_LO,
+  expBounds,
+  expUpper,
+  logBounds,
+  logUpper,
+  sinCosBounds,
+  trigCosHi,
+  trigCosLo,
+  trigSinHi,
+  trigSinLo,
+} from '../../src/interval/elementary.js';
 import { nextUp } from '../../src/interval/round.js';
 import { Dec60, dec60, exact, Exact } from './oracle.js';
 
@@ -25,6 +42,14 @@ describe('constants', () => {
     expect(dec60(LN2_HEAD).plus(dec60(LN2_TAIL_HI)).gt(LN2)).toBe(true);
     expect(Number.isInteger(LN2_HEAD * 2 ** 32)).toBe(true); // 32 bits after the binary point
     expect(LN2_HEAD * 2 ** 32 < 2 ** 32).toBe(true);
+  });
+  it('π/2 ∈ HALF_PI_1 + HALF_PI_2 + [HALF_PI_3_LO, HALF_PI_3_HI] (decimal.js π at 100 digits)', () => {
+    const D100 = Dec60.clone({ precision: 100 });
+    const half = D100.acos(-1).div(2);
+    const base = new D100(exact(HALF_PI_1).toString()).plus(new D100(exact(HALF_PI_2).toString()));
+    expect(base.plus(new D100(exact(HALF_PI_3_LO).toString())).lt(half)).toBe(true);
+    expect(base.plus(new D100(exact(HALF_PI_3_HI).toString())).gt(half)).toBe(true);
+    expect(nextUp(HALF_PI_3_LO)).toBe(HALF_PI_3_HI);
   });
   it('overflow / underflow thresholds: e^709.7827128933841 > MAX, e^-745.1332191019412 < 2^-1074', () => {
     expect(dec60(709.7827128933841).exp().gt(exact(Number.MAX_VALUE))).toBe(true);
@@ -69,6 +94,28 @@ describe('expBounds / logBounds contain decimal.js values and are tight', () => 
         expect(ulps(lo, hi), `log(${x}) = [${lo}, ${hi}]`).toBeLessThanOrEqual(5);
       }),
       { numRuns: 400 },
+    );
+  });
+  it('sin / cos on |x| ≤ 1e6 and near multiples of π/2 (decimal.js at 60 digits)', () => {
+    const xs = fc.oneof(
+      fc.double({ min: -1e6, max: 1e6, noNaN: true }),
+      fc.integer({ min: -100000, max: 100000 }).map((k) => k * HALF_PI_1),
+      fc.double({ min: -1e-200, max: 1e-200, noNaN: true }),
+    );
+    fc.assert(
+      fc.property(xs, (x) => {
+        expect(sinCosBounds(x)).toBe(true);
+        const d = dec60(x);
+        for (const [lo, hi, v, name] of [
+          [trigSinLo(), trigSinHi(), d.sin(), 'sin'],
+          [trigCosLo(), trigCosHi(), d.cos(), 'cos'],
+        ] as const) {
+          const s = v.abs().times(SLACK);
+          expect(exact(lo).lte(v.plus(s)), `${name}(${x}) lo ${lo} > ${v}`).toBe(true);
+          expect(exact(hi).gte(v.minus(s)), `${name}(${x}) hi ${hi} < ${v}`).toBe(true);
+        }
+      }),
+      { numRuns: 300 },
     );
   });
   it('exact points (closed form): exp(0) = 1, log(1) = 0, log(2^k) encloses k·ln 2', () => {

@@ -115,7 +115,7 @@ describe('flat ops agree with object ops', () => {
     expect(R[4]).toBe(0);
     expect(R[5]).toBe(2);
     F.fReset(R);
-    F.fSin(R, 2, 1);
+    F.fAtan(R, 2, 1);
     expect(F.fContinuous(R)).toBe(true);
     expect(F.fAssumed(R)).toBe(true);
     F.fReset(R);

@@ -256,7 +256,10 @@ describe('tightness spot checks', () => {
         const X = new Interval(x, x);
         // Math.*-based (assumed) functions: 2 successor steps each side → ≤ 4 ulps. Proven exp/log:
         // interval Horner → ≤ 5; proven cosh = (e^t + e^−t)/2 adds two exp widths → ≤ 7 (measured).
-        for (const f of [I.sin, I.cos, I.atan, I.sinh, I.tanh]) expect(ulpsWide(f(X))).toBeLessThanOrEqual(4);
+        for (const f of [I.atan, I.sinh, I.tanh]) expect(ulpsWide(f(X))).toBeLessThanOrEqual(4);
+        // Proven sin/cos: reduced argument enclosed (1–2 ulps) then interval Horner → ≤ 6.
+        expect(ulpsWide(I.sin(X))).toBeLessThanOrEqual(6);
+        expect(ulpsWide(I.cos(X))).toBeLessThanOrEqual(6);
         expect(ulpsWide(I.exp(X))).toBeLessThanOrEqual(5);
         expect(ulpsWide(I.cosh(X))).toBeLessThanOrEqual(7);
         if (x > 0) expect(ulpsWide(I.log(X))).toBeLessThanOrEqual(5);
