@@ -360,13 +360,14 @@ export function sinCosBounds(x: number): boolean {
   const rwl = mulIntervalLo(rl, rh, wl, wh);
   const rwh = mulIntervalHi(rl, rh, wl, wh);
   const rem = mulUp(amax, SIN_REL_REM);
-  const sinRl = subDown(addDown(rl, rwl), rem);
-  const sinRh = addUp(addUp(rh, rwh), rem);
+  // Fold the remainder into the small correction first, so r + correction rounds only once.
+  const sinRl = addDown(rl, subDown(rwl, rem));
+  const sinRh = addUp(rh, addUp(rwh, rem));
   // cos r ∈ 1 + z·C ± COS_REM
   const cl0 = hornerZ(zl, zh, C_LO, C_HI);
   const ch0 = polyHi;
-  const cosRl = subDown(addDown(1, mulIntervalLo(zl, zh, cl0, ch0)), COS_REM);
-  const cosRh = addUp(addUp(1, mulIntervalHi(zl, zh, cl0, ch0)), COS_REM);
+  const cosRl = addDown(1, subDown(mulIntervalLo(zl, zh, cl0, ch0), COS_REM));
+  const cosRh = addUp(1, addUp(mulIntervalHi(zl, zh, cl0, ch0), COS_REM));
   switch (((m % 4) + 4) % 4) {
     case 0:
       sinLo = sinRl; sinHi = sinRh; cosLo = cosRl; cosHi = cosRh;

@@ -149,7 +149,8 @@ export function fDiv(R: Float64Array, d: number, a: number, b: number): void {
   const mx = Math.max(q1, q2, q3, q4);
   const lo = mn - (PHI * Math.abs(mn) + EPS);
   const hi = mx + (PHI * Math.abs(mx) + EPS);
-  if ((blo > 0 || bhi < 0) && hi - lo <= MAXV) {
+  // blo <= bhi rejects an EMPTY divisor (whose quotients x/±∞ would look finite).
+  if ((blo > 0 || bhi < 0) && blo <= bhi && hi - lo <= MAXV) {
     R[2 * d] = lo;
     R[2 * d + 1] = hi;
   } else divSlow(R, d, a, b);

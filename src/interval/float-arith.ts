@@ -15,6 +15,9 @@ export function nearestMidpoint(lo: string, hi: string): number {
   if (lo === hi) return nearestOfLiteral(lo);
   const a = parseDecimal(lo);
   const b = parseDecimal(hi);
+  // Far-apart exponents (e.g. "1e-999999" and "1"): avoid huge BigInt powers; the heuristic
+  // midpoint of the two nearest doubles is as good as the float search needs.
+  if (Math.abs(a.exp10 - b.exp10) > 700) return 0.5 * nearestOfLiteral(lo) + 0.5 * nearestOfLiteral(hi);
   // Bring both to a common exponent e and write the midpoint as a decimal literal string exactly.
   const e = Math.min(a.exp10, b.exp10);
   const scale = (p: { negative: boolean; digits: bigint; exp10: number }) =>

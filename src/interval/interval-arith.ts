@@ -5,8 +5,8 @@
  *    continuity (kernel F_UNDEF: sqrt/log/pow outside the domain, division by a box containing 0,
  *    tan across a possible pole, NaN), when an input is empty (F_EMPTY), and when bounded inputs
  *    overflow to an unbounded result (F_OVERFLOW);
- *  - status.assumed := true when a result rests on the accuracy of Math.* (F_ASSUMED: sin, cos,
- *    tan, atan, sinh, tanh, pow; exp, log and cosh are proven; see README.md).
+ *  - status.assumed := true when a result rests on the accuracy of Math.* (F_ASSUMED: atan, sinh,
+ *    tanh, pow; exp, log, cosh, sin, cos and tan are proven; see README.md).
  * Enclosures are those of kernel.ts. `constant(lo, hi)` encloses the exact decimals
  * (decimal-literal.ts) and caches them per instance.
  */

@@ -204,11 +204,11 @@ export const sqrt = (a: Interval): Interval => res(K.kSqrt(S, 0, a.lo, a.hi));
 export const exp = (a: Interval): Interval => res(K.kExp(S, 0, a.lo, a.hi));
 /** log on a ∩ (0, ∞] (proven: elementary.ts). */
 export const log = (a: Interval): Interval => res(K.kLog(S, 0, a.lo, a.hi));
-/** sin with rigorous extremum detection (double-double π/2). */
+/** sin (proven: elementary.ts), extrema decided with a triple-double π/2. */
 export const sin = (a: Interval): Interval => res(K.kSin(S, 0, a.lo, a.hi));
-/** cos with rigorous extremum detection. */
+/** cos (proven), extrema decided rigorously. */
 export const cos = (a: Interval): Interval => res(K.kCos(S, 0, a.lo, a.hi));
-/** tan; a possible pole inside → ENTIRE. */
+/** tan (proven); a possible pole inside → ENTIRE. */
 export const tan = (a: Interval): Interval => res(K.kTan(S, 0, a.lo, a.hi));
 /** atan (Math.atan widened, assumption). */
 export const atan = (a: Interval): Interval => res(K.kAtan(S, 0, a.lo, a.hi));

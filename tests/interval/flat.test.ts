@@ -106,6 +106,43 @@ describe('flat ops agree with object ops', () => {
       { numRuns: 200 },
     );
   });
+  it('special boxes: EMPTY, ENTIRE, zeros, half-lines — every pair, every operation (regression: EMPTY divisor took the fast path)', () => {
+    const special = [
+      [Infinity, -Infinity],
+      [-Infinity, Infinity],
+      [0, 0],
+      [-0, 0],
+      [-Infinity, 0],
+      [1, Infinity],
+      [-2, 3],
+      [1e308, 1e308],
+      [-(2 ** -1074), 2 ** -1074],
+    ] as const;
+    for (const [alo, ahi] of special) {
+      for (const [blo, bhi] of special) {
+        for (const [name, f, g] of BIN) {
+          const R = new Float64Array(8);
+          F.fReset(R);
+          F.fConst(R, 1, alo, ahi);
+          F.fConst(R, 2, blo, bhi);
+          f(R, 3, 1, 2);
+          const A = new Interval(alo, ahi);
+          const B = new Interval(blo, bhi);
+          agree(new Interval(R[6]!, R[7]!), g(A, B), `${name}(${A}, ${B})`);
+          const arith = intervalArithmetic();
+          (arith as unknown as Record<string, (x: Interval, y: Interval) => Interval>)[name]!(A, B);
+          expect(F.fContinuous(R), `${name}(${A}, ${B}) continuous`).toBe(arith.status.continuous);
+        }
+      }
+      for (const [name, f, g] of UN) {
+        const R = new Float64Array(6);
+        F.fReset(R);
+        F.fConst(R, 1, alo, ahi);
+        f(R, 2, 1);
+        agree(new Interval(R[4]!, R[5]!), g(new Interval(alo, ahi)), `${name}([${alo}, ${ahi}])`);
+      }
+    }
+  });
   it('status register: domain violations clear R[0], Math.* sets R[1]; fCopy copies', () => {
     const R = new Float64Array(8);
     F.fReset(R);
