@@ -5,6 +5,10 @@
  * resting only on decimal.js rounding + − × ÷ and sqrt correctly in the set direction.
  * Special cases: division by an interval containing 0, sqrt of an interval reaching below 0, and
  * overflow / underflow of a nonzero product throw `DomainViolation` (the checker then REJECTS).
+ * Range: decimal.js flushes exponents beyond ±9e15 to 0 or Infinity in BOTH rounding directions,
+ * which would turn a directed bound into a wrong one. Every literal and every result is therefore
+ * held to |exponent| <= MAX_ABS_EXPONENT (1e15): with operands in that range no +, −, ×, ÷ or sqrt
+ * can reach decimal.js's limits, and a result outside it throws `DomainViolation`.
  */
 import { Decimal } from 'decimal.js';
 
@@ -15,6 +19,30 @@ export interface Iv {
 
 /** Evaluation left a domain (or the representable range): the claim cannot be verified. */
 export class DomainViolation extends Error {}
+
+/** Largest decimal exponent magnitude the checker lets any endpoint have (see the header). */
+export const MAX_ABS_EXPONENT = 1e15;
+
+/**
+ * The exact value of a decimal literal. decimal.js would flush a literal beyond its exponent
+ * limits to 0 or Infinity; such a literal is refused (DomainViolation) instead.
+ */
+function literalValue(ctor: Decimal.Constructor, text: string): Decimal {
+  const v = new ctor(text);
+  const mantissa = text.split(/[eE]/)[0] ?? '';
+  if (v.isZero() && /[1-9]/.test(mantissa)) {
+    throw new DomainViolation(`the literal ${text.slice(0, 40)} is outside the range the checker handles`);
+  }
+  return inRange(v);
+}
+
+/** r itself when finite with |exponent| <= MAX_ABS_EXPONENT (or zero); else DomainViolation. */
+function inRange(r: Decimal): Decimal {
+  if (!r.isFinite() || (!r.isZero() && (r.e > MAX_ABS_EXPONENT || r.e < -MAX_ABS_EXPONENT))) {
+    throw new DomainViolation('a number left the range the checker handles (|decimal exponent| > 1e15)');
+  }
+  return r;
+}
 
 const DECIMAL_LITERAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
@@ -51,17 +79,23 @@ export class IvCtx {
 
   /** Tightest enclosure at this precision of the exact decimal literals [lo, hi] (lo <= hi checked by caller). */
   literal(lo: string, hi: string = lo): Iv {
-    return { lo: new this.Down(lo).toSD(this.digits, Decimal.ROUND_FLOOR), hi: new this.Up(hi).toSD(this.digits, Decimal.ROUND_CEIL) };
+    return {
+      lo: inRange(literalValue(this.Down, lo).toSD(this.digits, Decimal.ROUND_FLOOR)),
+      hi: inRange(literalValue(this.Up, hi).toSD(this.digits, Decimal.ROUND_CEIL)),
+    };
   }
 
   /** Outward rounding of an interval computed at another precision. */
   round(a: Iv): Iv {
-    return { lo: new this.Down(a.lo).toSD(this.digits, Decimal.ROUND_FLOOR), hi: new this.Up(a.hi).toSD(this.digits, Decimal.ROUND_CEIL) };
+    return {
+      lo: inRange(new this.Down(a.lo).toSD(this.digits, Decimal.ROUND_FLOOR)),
+      hi: inRange(new this.Up(a.hi).toSD(this.digits, Decimal.ROUND_CEIL)),
+    };
   }
 
   private checkProduct(r: Decimal, x: Decimal, y: Decimal): Decimal {
     if (!r.isFinite() || (r.isZero() && !x.isZero() && !y.isZero())) throw new DomainViolation('overflow or underflow');
-    return r;
+    return inRange(r);
   }
   private mD(x: Decimal, y: Decimal): Decimal {
     return this.checkProduct(this.Down.mul(x, y), x, y);
@@ -71,10 +105,10 @@ export class IvCtx {
   }
 
   add(a: Iv, b: Iv): Iv {
-    return { lo: this.Down.add(a.lo, b.lo), hi: this.Up.add(a.hi, b.hi) };
+    return { lo: inRange(this.Down.add(a.lo, b.lo)), hi: inRange(this.Up.add(a.hi, b.hi)) };
   }
   sub(a: Iv, b: Iv): Iv {
-    return { lo: this.Down.sub(a.lo, b.hi), hi: this.Up.sub(a.hi, b.lo) };
+    return { lo: inRange(this.Down.sub(a.lo, b.hi)), hi: inRange(this.Up.sub(a.hi, b.lo)) };
   }
   /** Negation rounded outward (exact whenever x has at most `digits` digits). */
   neg(a: Iv): Iv {

@@ -46,7 +46,9 @@
  *   | any                  | NaN end                        | [−∞, +∞]          | false      |
  *   | mul, div             | decimal.js exponent overflow   | end ±∞ / ±1e9e15  | false      |
  *   | mul, div             | exponent underflow (< 1e−9e15) | end 0 or ±1e−9e15 | unchanged  |
- * add/sub do not repair decimal.js's exponent limits (±9e15): keep magnitudes far inside them.
+ * add/sub: a difference of two numbers beyond 1e±15 could underflow below decimal.js's 1e−9e15 and
+ * be flushed to 0 in both directions (a wrong bound); so add/sub with any finite non-zero operand
+ * end of |decimal exponent| > 1e15 clear status.continuous and return the entire line.
  *
  * Conversions: fromNumber is the exact double (rounded outward when it needs more than `digits`
  * digits, e.g. subnormals); fromDecimal/constant are exact when the literal fits in `digits`
@@ -163,6 +165,15 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
   function checked(r: MpInterval): MpInterval {
     if (r.lo.isNaN() || r.hi.isNaN()) return domainError();
     return r;
+  }
+
+  /** Operand end far enough inside decimal.js's exponent range for + and − to be exact-or-rounded. */
+  const ADD_EXPONENT_LIMIT = 1e15;
+  function addRangeOk(x: Decimal): boolean {
+    return x.isZero() || !x.isFinite() || (x.e <= ADD_EXPONENT_LIMIT && x.e >= -ADD_EXPONENT_LIMIT);
+  }
+  function addOperandsOk(a: MpInterval, b: MpInterval): boolean {
+    return addRangeOk(a.lo) && addRangeOk(a.hi) && addRangeOk(b.lo) && addRangeOk(b.hi);
   }
 
   function isNaNBox(a: MpInterval): boolean {
@@ -444,9 +455,11 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
     },
 
     add(a, b) {
+      if (!addOperandsOk(a, b)) return domainError();
       return checked({ lo: dn(a.lo).plus(b.lo), hi: up(a.hi).plus(b.hi) });
     },
     sub(a, b) {
+      if (!addOperandsOk(a, b)) return domainError();
       return checked({ lo: dn(a.lo).minus(b.hi), hi: up(a.hi).minus(b.lo) });
     },
     mul(a, b) {
