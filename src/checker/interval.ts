@@ -20,28 +20,21 @@ export interface Iv {
 /** Evaluation left a domain (or the representable range): the claim cannot be verified. */
 export class DomainViolation extends Error {}
 
-/** Largest decimal exponent magnitude the checker lets any endpoint have (see the header). */
+/** Largest decimal exponent magnitude any endpoint may have (see the header). */
 export const MAX_ABS_EXPONENT = 1e15;
+const RANGE = 'is outside the range the checker handles (|decimal exponent| > 1e15)';
 
-/**
- * The exact value of a decimal literal. decimal.js would flush a literal beyond its exponent
- * limits to 0 or Infinity; such a literal is refused (DomainViolation) instead.
- */
-function literalValue(ctor: Decimal.Constructor, text: string): Decimal {
-  const v = new ctor(text);
-  const mantissa = text.split(/[eE]/)[0] ?? '';
-  if (v.isZero() && /[1-9]/.test(mantissa)) {
-    throw new DomainViolation(`the literal ${text.slice(0, 40)} is outside the range the checker handles`);
-  }
-  return inRange(v);
+/** r when finite with |exponent| <= MAX_ABS_EXPONENT (or zero); else DomainViolation. */
+function inRange(r: Decimal): Decimal {
+  if (!r.isFinite() || (!r.isZero() && Math.abs(r.e) > MAX_ABS_EXPONENT)) throw new DomainViolation(`a number ${RANGE}`);
+  return r;
 }
 
-/** r itself when finite with |exponent| <= MAX_ABS_EXPONENT (or zero); else DomainViolation. */
-function inRange(r: Decimal): Decimal {
-  if (!r.isFinite() || (!r.isZero() && (r.e > MAX_ABS_EXPONENT || r.e < -MAX_ABS_EXPONENT))) {
-    throw new DomainViolation('a number left the range the checker handles (|decimal exponent| > 1e15)');
-  }
-  return r;
+/** A literal's exact value; one that decimal.js would flush to 0 or Infinity is refused. */
+function literalValue(ctor: Decimal.Constructor, text: string): Decimal {
+  const v = new ctor(text);
+  if (v.isZero() && /[1-9]/.test(text.split(/[eE]/)[0] ?? '')) throw new DomainViolation(`the literal ${text.slice(0, 40)} ${RANGE}`);
+  return inRange(v);
 }
 
 const DECIMAL_LITERAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
@@ -79,18 +72,13 @@ export class IvCtx {
 
   /** Tightest enclosure at this precision of the exact decimal literals [lo, hi] (lo <= hi checked by caller). */
   literal(lo: string, hi: string = lo): Iv {
-    return {
-      lo: inRange(literalValue(this.Down, lo).toSD(this.digits, Decimal.ROUND_FLOOR)),
-      hi: inRange(literalValue(this.Up, hi).toSD(this.digits, Decimal.ROUND_CEIL)),
-    };
+    const r = (x: Decimal, mode: Decimal.Rounding) => inRange(x.toSD(this.digits, mode));
+    return { lo: r(literalValue(this.Down, lo), Decimal.ROUND_FLOOR), hi: r(literalValue(this.Up, hi), Decimal.ROUND_CEIL) };
   }
 
   /** Outward rounding of an interval computed at another precision. */
   round(a: Iv): Iv {
-    return {
-      lo: inRange(new this.Down(a.lo).toSD(this.digits, Decimal.ROUND_FLOOR)),
-      hi: inRange(new this.Up(a.hi).toSD(this.digits, Decimal.ROUND_CEIL)),
-    };
+    return { lo: inRange(new this.Down(a.lo).toSD(this.digits, Decimal.ROUND_FLOOR)), hi: inRange(new this.Up(a.hi).toSD(this.digits, Decimal.ROUND_CEIL)) };
   }
 
   private checkProduct(r: Decimal, x: Decimal, y: Decimal): Decimal {
