@@ -8,7 +8,8 @@ import { parseFormula } from '../src/expr/parser.js';
 import { buildTape } from '../src/expr/tape.js';
 import { intervalArithmetic } from '../src/interval/interval-arith.js';
 import type { Interval } from '../src/interval/interval.js';
-import { compileMap, getCatalogueMap } from '../src/model/index.js';
+import { compileFlatJacobian } from '../src/expr/flat.js';
+import { compileMap, getCatalogueMap, paramBounds } from '../src/model/index.js';
 
 function rate(label: string, count: number, run: () => void): string {
   run(); // warm up
@@ -53,6 +54,16 @@ export async function runExprBench(): Promise<string[]> {
         flat.run(R);
       }
     }));
+    const flatJac = compileFlatJacobian(m.tape, m.paramValues.map(paramBounds));
+    if (flatJac !== undefined) {
+      const RJ = flatJac.newRegisters();
+      lines.push(rate(`${name}: interval image + Jacobian (flat generated)`, N, () => {
+        for (let k = 0; k < N; k++) {
+          for (let i = 0; i < n; i++) flatJac.setInput(RJ, i, 0.1, 0.2);
+          flatJac.run(RJ);
+        }
+      }));
+    }
   }
   return lines;
 }

@@ -1,21 +1,29 @@
 /**
- * Interval kernel benchmark: one Hénon step (x, y) ↦ (1 − a·x² + y, b·x), a = 1.4, b = 0.3
- * (Hénon 1976, Commun. Math. Phys. 50), on 10^6 varying inputs:
- *  - float: plain doubles (the honest baseline: inputs read from arrays, results consumed);
- *  - flat: interval registers, straight-line code over flat.ts ops (what generated code looks like),
- *    with a and b as exact-literal enclosures (thin intervals from encloseDecimal);
+ * Interval benchmark: one Hénon step (x, y) ↦ (1 − a·x² + y, b·x), a = 1.4, b = 0.3
+ * (Hénon 1976, Commun. Math. Phys. 50), on 10^6 varying inputs, in ONE run:
+ *  - float: plain doubles written by hand (the honest baseline: inputs read from arrays, results
+ *    consumed into a checksum so nothing is optimised away);
+ *  - compiled: the REAL compiled path, compileMap(getCatalogueMap('henon')).flatImage(): for each
+ *    input box setInput × 2, run(R), outputs read from R (generated straight-line code with the
+ *    outward rounding inline, src/expr/flat.ts);
+ *  - calls: the same step as one src/interval/flat.ts call per operation (the slow image);
  *  - object: the Interval object API (allocates).
- * Reports the best (CPU time) of several passes per variant and the ratio interval/float of one run.
- * Also: the step with the rounding inlined, and a midpoint-radius experiment (see midRadPass).
+ * And the image + Jacobian: float (hand-written (1 − a x² + y, b x) and [[−2 a x, 1], [b, 0]])
+ * against the interval image + Jacobian compiled to straight-line code (compileFlatJacobian, same
+ * API) and, for reference, the generic tape evaluator (forward mode over Interval objects).
+ * Reports the best (CPU time) of several passes and the ratio interval/float measured in this run.
  *
- * Run on its own: `npx tsx bench/interval-bench.ts` (or `node dist/bench/interval-bench.js`).
+ * Run on its own: `npx tsx bench/interval-bench.ts`.
  */
 
 import { pathToFileURL } from 'node:url';
 import { encloseDecimal } from '../src/interval/decimal-literal.js';
 import * as F from '../src/interval/flat.js';
+import { intervalArithmetic } from '../src/interval/interval-arith.js';
 import * as I from '../src/interval/interval.js';
 import { Interval } from '../src/interval/interval.js';
+import { compileFlatJacobian } from '../src/expr/flat.js';
+import { compileMap, getCatalogueMap, paramBounds } from '../src/model/index.js';
 
 const N = 1_000_000;
 const PASSES = 15;
@@ -58,15 +66,26 @@ function makeInputs(): Inputs {
   return inp;
 }
 
-function floatPass(inp: Inputs): number {
+/**
+ * The inputs live in module-level constants: V8 then treats the arrays as constants in every
+ * loop below (a Float64Array reached through a parameter costs up to 2× in the float loop, which
+ * would flatter the ratio). Made once at load (6 arrays of 10^6 doubles).
+ */
+const INP = makeInputs();
+const XS = INP.xs;
+const YS = INP.ys;
+const XLO = INP.xlo;
+const XHI = INP.xhi;
+const YLO = INP.ylo;
+const YHI = INP.yhi;
+
+function floatPass(): number {
   const a = 1.4;
   const b = 0.3;
-  const xs = inp.xs;
-  const ys = inp.ys;
   let sum = 0;
   for (let i = 0; i < N; i++) {
-    const x = xs[i]!;
-    const y = ys[i]!;
+    const x = XS[i]!;
+    const y = YS[i]!;
     const nx = 1 - a * x * x + y;
     const ny = b * x;
     sum += nx + ny;
@@ -74,21 +93,51 @@ function floatPass(inp: Inputs): number {
   return sum;
 }
 
-// Registers: 0 status, 1 a, 2 b, 3 one, 4 x, 5 y, 6 x', 7 y'.
+/** The same float step written as one expression; the baseline is the faster of the two forms. */
+function floatPassExpr(): number {
+  let s = 0;
+  for (let i = 0; i < N; i++) {
+    const x = XS[i]!;
+    const y = YS[i]!;
+    s += 1 - 1.4 * x * x + y + 0.3 * x;
+  }
+  return s;
+}
+
+const henon = compileMap(getCatalogueMap('henon')!);
+const image = henon.flatImage();
+/** Register file of the compiled image (module-level like the inputs, for the same reason). */
+const RI = image.newRegisters();
+
+/** The real compiled path: the FlatImage API of the catalogue map. */
+function compiledPass(): number {
+  const R = RI;
+  const f = image;
+  const o0 = 2 * f.outputRegisters[0]!;
+  const o1 = 2 * f.outputRegisters[1]!;
+  let sum = 0;
+  for (let i = 0; i < N; i++) {
+    f.setInput(R, 0, XLO[i]!, XHI[i]!);
+    f.setInput(R, 1, YLO[i]!, YHI[i]!);
+    f.run(R);
+    sum += R[o0]! + R[o0 + 1]! + R[o1]! + R[o1 + 1]!;
+  }
+  return sum;
+}
+
+// Registers of the hand-written call sequence: 0 status, 1 a, 2 b, 3 one, 4 x, 5 y, 6 x', 7 y'.
 const A = encloseDecimal('1.4');
 const B = encloseDecimal('0.3');
 
-function flatPass(inp: Inputs, R: Float64Array): number {
-  const { xlo, xhi, ylo, yhi } = inp;
+function callsPass(R: Float64Array): number {
   let sum = 0;
   F.fReset(R);
   F.fConst(R, 1, A.lo, A.hi);
   F.fConst(R, 2, B.lo, B.hi);
   F.fConst(R, 3, 1, 1);
   for (let i = 0; i < N; i++) {
-    F.fConst(R, 4, xlo[i]!, xhi[i]!);
-    F.fConst(R, 5, ylo[i]!, yhi[i]!);
-    // Straight-line code as a compiler would emit for x' = 1 − a·x² + y, y' = b·x.
+    F.fConst(R, 4, XLO[i]!, XHI[i]!);
+    F.fConst(R, 5, YLO[i]!, YHI[i]!);
     F.fSqr(R, 6, 4);
     F.fMul(R, 6, 1, 6);
     F.fSub(R, 6, 3, 6);
@@ -99,15 +148,14 @@ function flatPass(inp: Inputs, R: Float64Array): number {
   return sum;
 }
 
-function objectPass(inp: Inputs): number {
-  const { xlo, xhi, ylo, yhi } = inp;
+function objectPass(): number {
   const a = new Interval(A.lo, A.hi);
   const b = new Interval(B.lo, B.hi);
   const one = new Interval(1, 1);
   let sum = 0;
   for (let i = 0; i < N; i++) {
-    const x = new Interval(xlo[i]!, xhi[i]!);
-    const y = new Interval(ylo[i]!, yhi[i]!);
+    const x = new Interval(XLO[i]!, XHI[i]!);
+    const y = new Interval(YLO[i]!, YHI[i]!);
     const nx = I.add(I.sub(one, I.mul(a, I.sqr(x))), y);
     const ny = I.mul(b, x);
     sum += nx.lo + nx.hi + ny.lo + ny.hi;
@@ -115,82 +163,63 @@ function objectPass(inp: Inputs): number {
   return sum;
 }
 
-const PHI = 2 ** -53 * (1 + 2 ** -52);
-const EPS = 2 ** -1000;
-const dn = (c: number): number => c - (PHI * Math.abs(c) + EPS);
-const upw = (c: number): number => c + (PHI * Math.abs(c) + EPS);
-
-/**
- * The same step as straight-line code with the successor rounding inlined on local variables
- * (what a code generator could emit instead of calling flat.ts). Signs are not assumed: the
- * products use the four-corner min/max like fMul. Special cases are not handled (inputs here are
- * bounded and the check below would catch a NaN/∞).
- */
-function inlinePass(inp: Inputs): number {
-  const { xlo, xhi, ylo, yhi } = inp;
-  const alo = A.lo;
-  const ahi = A.hi;
-  const blo = B.lo;
-  const bhi = B.hi;
+/** Float image + Jacobian, hand-written: (1 − a x² + y, b x), [[−2 a x, 1], [b, 0]]. */
+function floatJacobianPass(count: number): number {
+  const a = 1.4;
+  const b = 0.3;
   let sum = 0;
-  for (let i = 0; i < N; i++) {
-    const x0 = xlo[i]!;
-    const x1 = xhi[i]!;
-    const y0 = ylo[i]!;
-    const y1 = yhi[i]!;
-    const p = x0 * x0;
-    const q = x1 * x1;
-    const s0 = Math.max(0, dn(x0 >= 0 ? p : x1 <= 0 ? q : 0));
-    const s1 = upw(Math.max(p, q));
-    const m0 = dn(Math.min(alo * s0, alo * s1, ahi * s0, ahi * s1));
-    const m1 = upw(Math.max(alo * s0, alo * s1, ahi * s0, ahi * s1));
-    const n0 = dn(dn(1 - m1) + y0);
-    const n1 = upw(upw(1 - m0) + y1);
-    const b0 = dn(Math.min(blo * x0, blo * x1, bhi * x0, bhi * x1));
-    const b1 = upw(Math.max(blo * x0, blo * x1, bhi * x0, bhi * x1));
-    sum += n0 + n1 + b0 + b1;
+  for (let i = 0; i < count; i++) {
+    const x = XS[i]!;
+    const y = YS[i]!;
+    const nx = 1 - a * x * x + y;
+    const ny = b * x;
+    const j00 = -2 * a * x;
+    const j01 = 1;
+    const j10 = b;
+    const j11 = 0;
+    sum += nx + ny + j00 + j01 + j10 + j11;
   }
   return sum;
 }
 
-/**
- * EXPERIMENT (timing only; not used by the kernel): midpoint-radius arithmetic with a-priori
- * error bounds in the style of Rump 1999 (BIT 39), without rounding-mode switches. A box is
- * <m, r> = [m − r, m + r]. Centres are computed in round-to-nearest; each radius adds u·|centre|
- * for the centre's rounding error (u = 2^-53) and is itself a sum of at most 6 nonnegative terms
- * computed in round-to-nearest, so its exact value is below fl(sum)·(1 + 8u) plus underflow terms;
- * we multiply by C = 1 + 2^-48 and add ε = 2^-1000, which covers both.
- */
-function midRadPass(inp: Inputs): number {
-  const { xlo, xhi, ylo, yhi } = inp;
-  const U = 2 ** -53;
-  const C = 1 + 2 ** -48;
-  const am = 0.5 * (A.lo + A.hi);
-  const ar = (Math.max(am - A.lo, A.hi - am) + U * Math.abs(am)) * C + EPS;
-  const bm = 0.5 * (B.lo + B.hi);
-  const br = (Math.max(bm - B.lo, B.hi - bm) + U * Math.abs(bm)) * C + EPS;
+const jacImage = compileFlatJacobian(henon.tape, henon.paramValues.map(paramBounds))!;
+const RJ = jacImage.newRegisters();
+
+/** Interval image + Jacobian, compiled (compileFlatJacobian): the real generated path. */
+function compiledJacobianPass(): number {
+  const R = RJ;
+  const f = jacImage;
+  const o0 = 2 * f.outputRegisters[0]!;
+  const o1 = 2 * f.outputRegisters[1]!;
+  const jr = f.jacobianRegisters;
+  const j0 = 2 * jr[0]!;
+  const j1 = 2 * jr[1]!;
+  const j2 = 2 * jr[2]!;
+  const j3 = 2 * jr[3]!;
   let sum = 0;
   for (let i = 0; i < N; i++) {
-    const x0 = xlo[i]!;
-    const x1 = xhi[i]!;
-    const y0 = ylo[i]!;
-    const y1 = yhi[i]!;
-    const xm = 0.5 * (x0 + x1);
-    const xr = (Math.max(xm - x0, x1 - xm) + U * Math.abs(xm)) * C + EPS;
-    const ym = 0.5 * (y0 + y1);
-    const yr = (Math.max(ym - y0, y1 - ym) + U * Math.abs(ym)) * C + EPS;
-    const axm = Math.abs(xm);
-    const qm = xm * xm; // x²: <xm², 2|xm|xr + xr²>
-    const qr = (2 * axm * xr + xr * xr + U * qm) * C + EPS;
-    const mm = am * qm; // a·x²
-    const mr = (Math.abs(am) * qr + ar * qm + ar * qr + U * Math.abs(mm)) * C + EPS;
-    const sm = 1 - mm; // 1 − a·x²
-    const sr = (mr + U * Math.abs(sm)) * C + EPS;
-    const nm = sm + ym; // + y
-    const nr = (sr + yr + U * Math.abs(nm)) * C + EPS;
-    const pm = bm * xm; // b·x
-    const pr = (Math.abs(bm) * xr + br * axm + br * xr + U * Math.abs(pm)) * C + EPS;
-    sum += nm + nr + pm + pr;
+    f.setInput(R, 0, XLO[i]!, XHI[i]!);
+    f.setInput(R, 1, YLO[i]!, YHI[i]!);
+    f.run(R);
+    sum += R[o0]! + R[o0 + 1]! + R[o1]! + R[o1 + 1]! + R[j0]! + R[j0 + 1]! + R[j1]! + R[j1 + 1]! + R[j2]! + R[j2 + 1]! + R[j3]! + R[j3 + 1]!;
+  }
+  return sum;
+}
+
+/** Interval image + Jacobian through the map's evaluator (generic tape, forward mode). */
+function intervalJacobianPass(count: number): number {
+  const Ia = intervalArithmetic();
+  const ev = henon.evaluator(Ia);
+  const box: Interval[] = [new Interval(0, 0), new Interval(0, 0)];
+  const out: Interval[] = [];
+  const jac: Interval[] = [];
+  let sum = 0;
+  for (let i = 0; i < count; i++) {
+    box[0] = new Interval(XLO[i]!, XHI[i]!);
+    box[1] = new Interval(YLO[i]!, YHI[i]!);
+    ev.imageAndJacobian(box, out, jac);
+    sum += out[0]!.lo + out[0]!.hi + out[1]!.lo + out[1]!.hi;
+    for (let k = 0; k < 4; k++) sum += jac[k]!.lo + jac[k]!.hi;
   }
   return sum;
 }
@@ -201,10 +230,10 @@ function cpuMs(): number {
   return (u.user + u.system) / 1000;
 }
 
-function best(f: () => number): { ms: number; check: number } {
+function best(f: () => number, passes = PASSES): { ms: number; check: number } {
   let ms = Infinity;
   let check = 0;
-  for (let p = 0; p < PASSES; p++) {
+  for (let p = 0; p < passes; p++) {
     const t0 = cpuMs();
     check = f();
     const dt = cpuMs() - t0;
@@ -215,44 +244,59 @@ function best(f: () => number): { ms: number; check: number } {
 
 /** Runs the benchmark and returns the lines to print. */
 export async function runIntervalBench(): Promise<string[]> {
-  const inp = makeInputs();
-  const R = new Float64Array(16);
+  const inp = INP;
+  const R = RI;
+  const Rc = new Float64Array(16);
   // Interleave variants so that each is measured under the same machine conditions.
-  const fl = best(() => floatPass(inp));
-  const ft = best(() => flatPass(inp, R));
-  const il = best(() => inlinePass(inp));
-  const mr = best(() => midRadPass(inp));
-  const ob = best(() => objectPass(inp));
-  const fl2 = best(() => floatPass(inp));
-  const floatMs = Math.min(fl.ms, fl2.ms);
+  const fl = best(() => floatPass());
+  const cp = best(() => compiledPass());
+  const ca = best(() => callsPass(Rc));
+  const ob = best(() => objectPass(), 5);
+  const fl2 = best(() => floatPassExpr());
+  const cp2 = best(() => compiledPass());
+  const fl3 = best(() => floatPass());
+  const floatMs = Math.min(fl.ms, fl2.ms, fl3.ms);
+  const compiledMs = Math.min(cp.ms, cp2.ms);
+  // Jacobian: the generic evaluator is slow, so it runs on the first 10^5 inputs; times are per step.
+  const NJ = 100_000;
+  const fj = best(() => floatJacobianPass(N));
+  const cj = best(() => compiledJacobianPass());
+  const ij = best(() => intervalJacobianPass(NJ), 5);
+  const fj2 = best(() => floatJacobianPass(N));
+  const cj2 = best(() => compiledJacobianPass());
+  const floatJacNs = (Math.min(fj.ms, fj2.ms) * 1e6) / N;
+  const compiledJacNs = (Math.min(cj.ms, cj2.ms) * 1e6) / N;
+  const intervalJacNs = (ij.ms * 1e6) / NJ;
+  const jacStatus = RJ[0];
   const nsPer = (ms: number) => ((ms * 1e6) / N).toFixed(2);
-  // Soundness spot check of the measured run: the interval images contain the float images.
-  let contained = true;
+
+  // Soundness spot check of the measured path: status still continuous, and the float images
+  // of the box centres inside the compiled boxes (float error ≪ 1e-12 here).
   const status = R[0];
-  F.fReset(R);
-  F.fConst(R, 1, A.lo, A.hi);
-  F.fConst(R, 2, B.lo, B.hi);
-  F.fConst(R, 3, 1, 1);
+  let contained = true;
+  const o0 = 2 * image.outputRegisters[0]!;
+  const o1 = 2 * image.outputRegisters[1]!;
   for (let i = 0; i < 1000; i++) {
-    F.fConst(R, 4, inp.xs[i]!, inp.xs[i]!);
-    F.fConst(R, 5, inp.ys[i]!, inp.ys[i]!);
-    F.fSqr(R, 6, 4);
-    F.fMul(R, 6, 1, 6);
-    F.fSub(R, 6, 3, 6);
-    F.fAdd(R, 6, 6, 5);
+    image.setInput(R, 0, inp.xs[i]!, inp.xs[i]!);
+    image.setInput(R, 1, inp.ys[i]!, inp.ys[i]!);
+    image.run(R);
     const nx = 1 - 1.4 * inp.xs[i]! * inp.xs[i]! + inp.ys[i]!;
-    if (!(R[12]! <= nx + 1e-12 && nx - 1e-12 <= R[13]!)) contained = false;
+    const ny = 0.3 * inp.xs[i]!;
+    if (!(R[o0]! <= nx + 1e-12 && nx - 1e-12 <= R[o0 + 1]! && R[o1]! <= ny + 1e-12 && ny - 1e-12 <= R[o1 + 1]!)) contained = false;
   }
   return [
-    `interval kernel: Hénon step (a = 1.4, b = 0.3 as literal enclosures) on ${N.toExponential(0)} varying inputs, best of ${PASSES} passes`,
-    `  float  (plain doubles)            ${floatMs.toFixed(1).padStart(8)} ms  ${nsPer(floatMs)} ns/step`,
-    `  flat   (interval registers)       ${ft.ms.toFixed(1).padStart(8)} ms  ${nsPer(ft.ms)} ns/step  ratio ${(ft.ms / floatMs).toFixed(2)} (target <= 5)`,
-    `  inline (successor rounding inlined)${il.ms.toFixed(1).padStart(8)} ms  ${nsPer(il.ms)} ns/step  ratio ${(il.ms / floatMs).toFixed(2)}`,
-    `  midrad (experiment, a-priori bounds)${mr.ms.toFixed(1).padStart(7)} ms  ${nsPer(mr.ms)} ns/step  ratio ${(mr.ms / floatMs).toFixed(2)}`,
-    `  object (Interval objects)         ${ob.ms.toFixed(1).padStart(8)} ms  ${nsPer(ob.ms)} ns/step  ratio ${(ob.ms / floatMs).toFixed(2)}`,
-    `  checksums float ${fl.check.toFixed(3)} | flat ${ft.check.toFixed(3)} | inline ${il.check.toFixed(3)} | object ${ob.check.toFixed(3)} | midrad ${mr.check.toFixed(3)}`,
-    `  flat status continuous=${status === 1}; float images inside flat boxes (1000 samples): ${contained}`,
-    `  (CPU time of the best pass; interval checksums sum lo + hi, about twice the float one)`,
+    `interval image: Hénon step (a = 1.4, b = 0.3 exact literals) on ${N.toExponential(0)} varying inputs, best CPU time of ${PASSES} passes`,
+    `  float    (plain doubles, best of 2 forms) ${floatMs.toFixed(1).padStart(8)} ms  ${nsPer(floatMs)} ns/step`,
+    `  compiled (henon flatImage(), inline rnd)  ${compiledMs.toFixed(1).padStart(8)} ms  ${nsPer(compiledMs)} ns/step  ratio ${(compiledMs / floatMs).toFixed(2)} (target <= 5)`,
+    `  calls    (one flat.ts call per op)        ${ca.ms.toFixed(1).padStart(8)} ms  ${nsPer(ca.ms)} ns/step  ratio ${(ca.ms / floatMs).toFixed(2)}`,
+    `  object   (Interval objects)               ${ob.ms.toFixed(1).padStart(8)} ms  ${nsPer(ob.ms)} ns/step  ratio ${(ob.ms / floatMs).toFixed(2)}`,
+    `  checksums float ${fl.check.toFixed(3)} | compiled ${cp.check.toFixed(3)} | calls ${ca.check.toFixed(3)} | object ${ob.check.toFixed(3)} (interval ones sum lo + hi, ≈ 2× float)`,
+    `  compiled status continuous=${status === 1}; float images inside compiled boxes (1000 samples): ${contained}`,
+    `image + Jacobian (Hénon):`,
+    `  float    (hand-written, 10^6 inputs)      ${floatJacNs.toFixed(2).padStart(8)} ns/step`,
+    `  compiled (compileFlatJacobian, 10^6)      ${compiledJacNs.toFixed(2).padStart(8)} ns/step  ratio ${(compiledJacNs / floatJacNs).toFixed(2)}`,
+    `  generic  (tape evaluator, 10^5 inputs)    ${intervalJacNs.toFixed(2).padStart(8)} ns/step  ratio ${(intervalJacNs / floatJacNs).toFixed(2)}`,
+    `  checksums float ${fj.check.toFixed(3)} | compiled ${cj.check.toFixed(3)} | generic ${ij.check.toFixed(3)} (10^5 inputs); compiled status continuous=${jacStatus === 1}`,
   ];
 }
 

@@ -29,6 +29,7 @@ export type MapLanguageErrorCode =
   | 'missing-step'
   | 'missing-region'
   | 'empty-region'
+  | 'empty-interval'
   | 'unknown-parameter'
   | 'bad-param-override'
   | 'unknown-map';

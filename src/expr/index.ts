@@ -7,5 +7,5 @@ export { buildTape, formatTape, Op, type Tape, type OpCode } from './tape.js';
 export { TapeEvaluator, type ParamEnclosure } from './evaluate.js';
 export { dualArithmetic, type Dual, type DualArithmetic } from './dual.js';
 export { SecondOrderEvaluator } from './second-order.js';
-export { compileFlat, type FlatImage } from './flat.js';
+export { compileFlat, compileFlatJacobian, MAX_INLINE_POWN, type FlatImage, type FlatJacobianImage } from './flat.js';
 export { compileFormulas, type CompiledFormulas } from './compile.js';

@@ -83,7 +83,7 @@ describe('map files', () => {
     ['unknown top-level key', GOOD.replace('params:', 'parms:'), 'unknown-key', 'parms', 3, 1],
     ['hex parameter', GOOD.replace('r: 3.83', 'r: 0x10'), 'bad-value', 'params.r', 4, 6],
     ['inf parameter', GOOD.replace('r: 3.83', 'r: .inf'), 'bad-value', 'params.r', 4, 6],
-    ['reversed parameter interval', GOOD.replace('[0.25, 0.5]', '[0.5, 0.25]'), 'empty-region', 'params.b', 5, 6],
+    ['reversed parameter interval', GOOD.replace('[0.25, 0.5]', '[0.5, 0.25]'), 'empty-interval', 'params.b', 5, 6],
     ['reserved state name', GOOD.replace('[x, y]', '[x, sin]'), 'reserved-name', 'state[1]', 2, 12],
     ['duplicate state name', GOOD.replace('[x, y]', '[x, x]'), 'duplicate-name', 'state[1]', 2, 12],
     ['parameter named like a state variable', GOOD.replace('  b: [0.25, 0.5]', '  y: 2'), 'duplicate-name', 'params.y', 5, 3],
