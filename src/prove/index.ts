@@ -20,6 +20,8 @@ export type {
   ShootingSystem,
 } from './krawczyk.js';
 export { orbitStability } from './stability.js';
+export { gershgorinDiscs } from './gershgorin.js';
+export type { EigenDisc } from './gershgorin.js';
 export { verifyWrittenBox } from './orbit-core.js';
 export type {
   DecimalPair,
@@ -28,6 +30,7 @@ export type {
   PrecisionAttempt,
   ProvenOrbit,
   ProvenStability,
+  ProverOnlyStability,
   ProveTiming,
   StabilityClass,
 } from './types.js';

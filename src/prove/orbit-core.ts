@@ -18,6 +18,8 @@ import {
   type Preconditioner,
   type ShootingSystem,
 } from './krawczyk.js';
+import { decimalAtLeast, nearDecimal, writtenAbove, writtenBelow } from './float-decimal.js';
+import { nextDown, nextUp, subUp } from '../interval/round.js';
 import { orbitStability } from './stability.js';
 import type { DecimalPair, NotProvenReason, ProvenStability } from './types.js';
 
@@ -119,8 +121,21 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   const sys: ShootingSystem<T> = { arith: a, evaluator: inp.evaluator, period: p, dim: n };
   const t0 = performance.now();
   // The Krawczyk point is the written centre: the candidate rounded to `digits` digits, enclosed.
-  const centreS: string[] = inp.centre.map((x) => roundDecimal(a.toDecimal(x).lo, digits, 'nearest'));
-  const m = centreS.map((c) => a.fromDecimal(c));
+  // float64 fast path (float-decimal.ts): short strings and their enclosures without exact
+  // double→decimal conversion; otherwise exact conversion through decimal.js.
+  const fast = a.kind === 'interval' && a.bits === 53;
+  const centreS: string[] = new Array<string>(N);
+  const m: T[] = new Array<T>(N);
+  for (let k = 0; k < N; k++) {
+    const near = fast ? nearDecimal(a.midNumber(inp.centre[k]!), digits) : null;
+    if (near !== null) {
+      centreS[k] = near.s;
+      m[k] = a.hull(a.fromNumber(near.lo), a.fromNumber(near.hi));
+    } else {
+      centreS[k] = roundDecimal(a.toDecimal(inp.centre[k]!).lo, digits, 'nearest');
+      m[k] = a.fromDecimal(centreS[k]!);
+    }
+  }
   const plan = prepareKrawczyk(sys, m, C);
   if ('domain' in plan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the centre left the domain at point ${plan.domain}` };
   // Epsilon-inflation (Rump): X ← hull(K(X), m) widened by 10 % of its width + η.
@@ -130,8 +145,15 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   let X = m.map((x, k) => a.inflate(x, eta[k]!));
   let last: KrawczykOutcome<T> | null = null;
   let found = false;
+  // float64 fast path: each step tests K(X⁺) ⊂ int X with X⁺ = X widened by 3 ulps per end,
+  // which covers the outer enclosure of the box as it will be written (float-decimal.ts; checked
+  // below), so the last step is also the re-test of the written box.
+  const loS: string[] = new Array<string>(N);
+  const hiS: string[] = new Array<string>(N);
+  let widened: T[] | null = null;
   for (let it = 0; it < inp.maxInflations; it++) {
-    last = krawczykPlanned(plan, X);
+    widened = fast ? ulpWiden(a, X, 3) : null;
+    last = widened !== null ? krawczykPlanned(plan, widened, X) : krawczykPlanned(plan, X);
     if (last.kind === 'inside') {
       found = true;
       break;
@@ -156,26 +178,38 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
     return { kind: 'failed', reason, detail: `epsilon-inflation did not reach K(X) ⊂ int X in ${inp.maxInflations} steps: ${why}` };
   }
   // Write outward-rounded decimals and re-test exactly what was written.
-  const loS: string[] = new Array<string>(N);
-  const hiS: string[] = new Array<string>(N);
-  for (let k = 0; k < N; k++) {
-    const xk = a.toDecimal(X[k]!);
-    loS[k] = roundDecimal(xk.lo, digits, 'floor');
-    hiS[k] = roundDecimal(xk.hi, digits, 'ceil');
+  const written = fast ? writeFast(a, X, m, digits, loS, hiS) : null;
+  let check: ReturnType<typeof verifyWrittenBox<T>>;
+  let outer: T[];
+  if (written !== null) {
+    // K(outer W) ⊂ int(inner W) with inner W ⊂ W ⊂ outer W (float-decimal.ts) is what
+    // verifyWrittenBox tests; m ⊂ inner W was checked, so the written centre lies in W. When
+    // outer W ⊆ X⁺ and X ⊆ inner W, the last step already showed K(outer W) ⊆ K(X⁺) ⊂ int X.
+    let covered = widened !== null;
+    for (let k = 0; k < N && covered; k++) covered = a.isSubset(written.outer[k]!, widened![k]!) && a.isSubset(X[k]!, written.inner[k]!);
+    check = covered ? last : krawczykPlanned(plan, written.outer, written.inner);
+    outer = written.outer;
+  } else {
+    for (let k = 0; k < N; k++) {
+      const xk = a.toDecimal(X[k]!);
+      loS[k] = roundDecimal(xk.lo, digits, 'floor');
+      hiS[k] = roundDecimal(xk.hi, digits, 'ceil');
+    }
+    check = verifyWrittenBox(plan, centreS, loS, hiS);
+    outer = new Array<T>(N);
+    for (let k = 0; k < N; k++) outer[k] = writtenEnclosures(a, loS[k]!, hiS[k]!).outer;
   }
-  const check = verifyWrittenBox(plan, centreS, loS, hiS);
   if (check.kind !== 'inside') {
     const why = check.kind === 'unrepresentable' ? 'written box not representable' : describe(check);
     return { kind: 'failed', reason: 'write-check-failed', detail: `re-test of the written box failed: ${why}` };
   }
   let assumed = check.assumed;
-  const outer: T[] = new Array<T>(N);
-  for (let k = 0; k < N; k++) outer[k] = writtenEnclosures(a, loS[k]!, hiS[k]!).outer;
   const t1 = performance.now();
   // Uniqueness radius.
   let uniquenessRadius: string | null = null;
   if (inp.uniqueness) {
-    const u = uniquenessSearch(plan, centreS, loS, hiS);
+    const r0 = written !== null ? coverRadiusFast(a, m, outer) : null;
+    const u = uniquenessSearch(plan, centreS, r0 ?? coverRadiusExact(centreS, loS, hiS));
     uniquenessRadius = u.radius;
     assumed ||= u.assumed;
   }
@@ -235,23 +269,82 @@ function pairwiseDisjoint<T>(a: IntervalArithmetic<T>, boxes: readonly T[], p: n
   return true;
 }
 
-/** Largest tested r (3 significant digits) with K(Y) ⊂ int Y for Y = centre ± r ⊇ written box. */
+/** X with each end moved outward by `ulps` doubles (float64 intervals). */
+function ulpWiden<T>(a: IntervalArithmetic<T>, X: readonly T[], ulps: number): T[] {
+  const out: T[] = new Array<T>(X.length);
+  for (let k = 0; k < X.length; k++) {
+    let lo = a.loDown(X[k]!);
+    let hi = a.hiUp(X[k]!);
+    for (let u = 0; u < ulps; u++) {
+      lo = nextDown(lo);
+      hi = nextUp(hi);
+    }
+    out[k] = a.hull(a.fromNumber(lo), a.fromNumber(hi));
+  }
+  return out;
+}
+
+/**
+ * float64 fast path of writing the box X: decimal ends loS < lo(X), hiS > hi(X) (float-decimal.ts)
+ * with outer/inner double enclosures of the written box; null when some end needs the exact path
+ * or the centre enclosure m is not inside the inner box.
+ */
+function writeFast<T>(
+  a: IntervalArithmetic<T>,
+  X: readonly T[],
+  m: readonly T[],
+  digits: number,
+  loS: string[],
+  hiS: string[],
+): { outer: T[]; inner: T[] } | null {
+  const N = X.length;
+  const outer: T[] = new Array<T>(N);
+  const inner: T[] = new Array<T>(N);
+  for (let k = 0; k < N; k++) {
+    const wl = writtenBelow(a.loDown(X[k]!), digits);
+    const wh = writtenAbove(a.hiUp(X[k]!), digits);
+    if (wl === null || wh === null) return null;
+    loS[k] = wl.s;
+    hiS[k] = wh.s;
+    outer[k] = a.hull(a.fromNumber(wl.outer), a.fromNumber(wh.outer));
+    inner[k] = a.hull(a.fromNumber(wl.inner), a.fromNumber(wh.inner));
+    if (!a.isSubset(m[k]!, inner[k]!)) return null;
+  }
+  return { outer, inner };
+}
+
+/** A 3-digit decimal r with centre ± r ⊇ written box, from double enclosures (null: use exact). */
+function coverRadiusFast<T>(a: IntervalArithmetic<T>, m: readonly T[], outer: readonly T[]): string | null {
+  let r = 0;
+  for (let k = 0; k < m.length; k++) {
+    r = Math.max(r, subUp(a.hiUp(m[k]!), a.loDown(outer[k]!)), subUp(a.hiUp(outer[k]!), a.loDown(m[k]!)));
+  }
+  return decimalAtLeast(r);
+}
+
+/** The same from the decimal strings (exact, decimal.js). */
+function coverRadiusExact(centre: readonly string[], lo: readonly string[], hi: readonly string[]): string {
+  let r0 = '0';
+  for (let k = 0; k < centre.length; k++) {
+    for (const e of [absDiffUp(centre[k]!, lo[k]!), absDiffUp(hi[k]!, centre[k]!)]) if (compareDecimal(e, r0) > 0) r0 = e;
+  }
+  return roundDecimal(r0, 3, 'ceil');
+}
+
+/** Largest tested r (3 significant digits) with K(Y) ⊂ int Y for Y = centre ± r, from r0 (Y ⊇ written box). */
 function uniquenessSearch<T>(
   plan: KrawczykPlan<T>,
   centre: readonly string[],
-  lo: readonly string[],
-  hi: readonly string[],
+  r0: string,
 ): { radius: string | null; assumed: boolean } {
   const N = centre.length;
-  let r0 = '0';
-  for (let k = 0; k < N; k++) {
-    for (const e of [absDiffUp(centre[k]!, lo[k]!), absDiffUp(hi[k]!, centre[k]!)]) if (compareDecimal(e, r0) > 0) r0 = e;
-  }
-  r0 = roundDecimal(r0, 3, 'ceil');
   if (compareDecimal(r0, '0') === 0) return { radius: null, assumed: false };
   let assumed = false;
   const ar = plan.sys.arith;
   const m = plan.m;
+  // @heuristic contraction ratio of the last tests: q(r) = max_k |K(Y)_k − m_k| / r, which for
+  // the Krawczyk bound behaves like T + L·r; the radius where q reaches 1 guides the search.
+  const samples: Array<{ r: number; q: number }> = [];
   const test = (r: string): boolean => {
     // Y = centre ± r: outer enclosure from the ends of m and r, inner one likewise (T operations).
     const rr = ar.fromDecimal(r);
@@ -268,43 +361,85 @@ function uniquenessSearch<T>(
       inner[k] = ar.hull(il, ih);
     }
     const out = krawczykPlanned(plan, outer, inner);
+    const rd = Number(r);
+    if (out.kind !== 'domain' && rd > 0) {
+      let dev = 0;
+      for (let k = 0; k < N; k++) {
+        const img = out.image[k]!;
+        dev = Math.max(dev, ar.hiUp(img) - ar.loDown(m[k]!), ar.hiUp(m[k]!) - ar.loDown(img));
+      }
+      samples.push({ r: rd, q: dev / rd });
+    }
     if (out.kind === 'inside') {
       assumed ||= out.assumed;
       return true;
     }
     return false;
   };
-  if (!test(r0)) return { radius: null, assumed: false };
-  // @heuristic search on doubles; every tested radius is an exact 3-digit decimal >= r0.
-  let good = r0;
-  let g = Number(r0);
+  // @heuristic search on doubles; every tested radius is an exact 3-digit decimal > r0, and the
+  // result is the largest radius that passed (r0 itself is tested only when none did). Keeps a
+  // bracket g < bad (g = r0 at first, bad = Infinity). The first test is at the ABSOLUTE start
+  // 1e-3·(1 + max|centre|) (never r0·16^k alone: near a zero coordinate r0 is ~1e-300). Then each
+  // step proposes (1) 0.97 × the radius where q reaches 1 on the line through the last two (r, q)
+  // samples — or, with one usable sample of q < 1, at r/q (q ∝ r) — but at least 1.12·g, unless
+  // the previous such proposal failed; else (2) growth by 16, 256, 65536, … while nothing failed,
+  // or (3) the log-space midpoint of the bracket. Stops when bad/g <= 1.25, or after 40 tests.
+  let good: string | null = null;
+  let g = Math.max(Number(r0), Number.MIN_VALUE);
   let bad = Infinity;
   let scale = 0;
   for (const c of centre) scale = Math.max(scale, Math.abs(Number(c)));
-  const guess = Math.max(g * 16, 1e-3 * (1 + scale));
-  let cand = Number(guess.toPrecision(3));
-  for (let j = 0; j < 14; j++) {
-    if (cand > 1e6 || cand <= g || cand >= bad) break;
-    const s = cand.toPrecision(3);
-    if (test(s)) {
-      good = s;
-      g = Number(s);
-      cand = g * 16;
+  let growth = 16;
+  let secantFailed = false;
+  let first = true;
+  const secant = (): number | null => {
+    if (samples.length === 1 && samples[0]!.q > 0 && samples[0]!.q < 1) return samples[0]!.r / samples[0]!.q;
+    if (samples.length < 2) return null;
+    const a1 = samples[samples.length - 2]!;
+    const a2 = samples[samples.length - 1]!;
+    if (!(Number.isFinite(a1.q) && Number.isFinite(a2.q)) || a1.r === a2.r) return null;
+    const L = (a2.q - a1.q) / (a2.r - a1.r);
+    const est = L > 0 ? a2.r + (1 - a2.q) / L : a2.q > 0 && a2.q < 1 ? a2.r / a2.q : NaN;
+    return Number.isFinite(est) && est > 0 ? est : null;
+  };
+  for (let j = 0; j < 40 && bad / g > 1.25; j++) {
+    let cand = NaN;
+    let viaSecant = false;
+    if (first) {
+      cand = Math.max(g * 16, 1e-3 * (1 + scale));
+      first = false;
     } else {
-      bad = Number(s);
-      cand = Math.max(bad / 16, Math.sqrt(g * bad));
-      if (bad / 16 <= g) break;
+      const est = secantFailed ? null : secant();
+      if (est !== null) {
+        cand = Math.max(0.97 * est, g * 1.12);
+        viaSecant = cand < bad;
+      }
+      if (!viaSecant) {
+        if (bad === Infinity) {
+          cand = g * growth;
+          growth = Math.min(growth * growth, 1e30);
+        } else cand = Math.exp((Math.log(g) + Math.log(bad)) / 2);
+      }
     }
-    if (bad < Infinity && bad / g <= 16) break;
-  }
-  for (let j = 0; j < 4 && bad < Infinity; j++) {
-    const s = Math.sqrt(g * bad).toPrecision(3);
+    if (!(cand <= 1e300)) break;
+    const s = cand.toPrecision(3);
     const v = Number(s);
-    if (v <= g || v >= bad) break;
+    if (!(v > g && v < bad)) {
+      if (viaSecant) {
+        secantFailed = true;
+        continue;
+      }
+      break;
+    }
     if (test(s)) {
       good = s;
       g = v;
-    } else bad = v;
+      secantFailed = false;
+    } else {
+      bad = v;
+      secantFailed = viaSecant;
+    }
   }
-  return { radius: good, assumed };
+  if (good === null) good = test(r0) ? r0 : null;
+  return { radius: good, assumed: good === null ? false : assumed };
 }

@@ -125,6 +125,7 @@ export function proveOrbitWith(
   let best: { claims: AttemptClaims; bits: number } | null = null;
   let lastFailure: { reason: NotProvenReason; detail: string } = { reason: 'undecided', detail: 'not attempted' };
   let mpStart: Decimal[] | null = null;
+  let mpStartOf: () => Decimal[] = () => [];
 
   // float64 attempt
   {
@@ -137,9 +138,11 @@ export function proveOrbitWith(
       for (let i = 0; i < p; i++) map.jacobianFloat(x.subarray(i * n, i * n + n), blocks.subarray(i * n * n, (i + 1) * n * n));
     }
     refineMs += performance.now() - tr;
-    mpStart = exactStart
-      ? points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))))
-      : Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
+    // Exact conversions only when escalation happens (they cost more than a float64 proof).
+    mpStartOf = () =>
+      exactStart
+        ? points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))))
+        : Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
     if (ref !== null && !ref.converged) {
       lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${ref.lastStep})` };
       attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
@@ -185,7 +188,8 @@ export function proveOrbitWith(
       const D = decimalContext(bits);
       const tr = performance.now();
       const noRefine = opts.refine === false;
-      const ref: MpRefinement = refineMp(a, ev, D, mpStart!, p, n, noRefine ? 0 : 60);
+      mpStart ??= mpStartOf();
+      const ref: MpRefinement = refineMp(a, ev, D, mpStart, p, n, noRefine ? 0 : 60);
       refineMs += performance.now() - tr;
       if ((!ref.converged && !noRefine) || ref.inverse === null) {
         const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${ref.lastStep})`;

@@ -6,6 +6,7 @@
 import type { Decimal } from 'decimal.js';
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { resetStatus } from '../interval/arithmetic.js';
+import { luFactorInPlace, luSolveInto } from '../linalg/dense.js';
 import { ShootingSolver } from '../linalg/shooting.js';
 import type { CompiledMap, MapEvaluator } from '../model/types.js';
 import { decimalLuFactor, decimalLuSolve, decimalShootingJacobian, type DecimalCtor } from './mp-point.js';
@@ -94,22 +95,158 @@ function maxAbs(x: ArrayLike<number>): number {
 }
 
 /**
- * C ≈ J(x)^{-1} (N×N row-major) from the float blocks, column by column with the structured
- * solver; null when J is singular to working precision.
+ * C ≈ J(x)^{-1} (N×N row-major) from the float blocks; null when J is singular to working
+ * precision or something non-finite appeared. The same structured Householder elimination as
+ * `ShootingSolver` (linalg/shooting.ts: panels of block rows k and the wrap-around spike) applied
+ * ONCE with all N right-hand sides (the identity) carried along, then N back-substitutions:
+ * O(n·N²) operations instead of N separate factorisations.
  */
 export function floatShootingInverse(blocks: Float64Array, p: number, n: number): Float64Array | null {
   const N = p * n;
-  const solver = new ShootingSolver(p, n);
+  const nn = n * n;
   const C = new Float64Array(N * N);
-  const e = new Float64Array(N);
-  const col = new Float64Array(N);
-  for (let k = 0; k < N; k++) {
-    e.fill(0);
-    e[k] = 1;
-    if (!solver.solveInto(blocks, e, col)) return null;
-    for (let r = 0; r < N; r++) C[r * N + k] = col[r]!;
+  if (p === 1) {
+    const a = new Float64Array(nn);
+    for (let k = 0; k < nn; k++) a[k] = -blocks[k]!;
+    for (let i = 0; i < n; i++) a[i * n + i] = a[i * n + i]! + 1;
+    const piv = new Int32Array(n);
+    if (!luFactorInPlace(a, n, piv)) return null;
+    const e = new Float64Array(n);
+    const col = new Float64Array(n);
+    for (let k = 0; k < n; k++) {
+      e.fill(0);
+      e[k] = 1;
+      luSolveInto({ n, lu: a, piv }, e, col);
+      for (let r = 0; r < n; r++) C[r * n + k] = col[r]!;
+    }
+    return finite(C) ? C : null;
   }
-  return C;
+  const cols = 3 * n + N;
+  const colK1 = n;
+  const colLast = 2 * n;
+  const colRhs = 3 * n;
+  const W = new Float64Array(2 * n * cols);
+  const v = new Float64Array(2 * n);
+  const steps = p - 1;
+  const rB = new Float64Array(steps * nn);
+  const eB = new Float64Array(steps * nn);
+  const gB = new Float64Array(steps * nn);
+  const rhsB = new Float64Array(steps * n * N);
+  const lastOff = (p - 1) * nn;
+  for (let r = 0; r < n; r++) {
+    const row = (n + r) * cols;
+    W[row + r] = 1;
+    for (let c = 0; c < n; c++) W[row + colLast + c] = -blocks[lastOff + r * n + c]!;
+    W[row + colRhs + (p - 1) * n + r] = 1;
+  }
+  for (let k = 0; k < steps; k++) {
+    const lastStep = k + 1 === p - 1;
+    for (let r = 0; r < n; r++) {
+      const row = r * cols;
+      W.fill(0, row, row + cols);
+      for (let c = 0; c < n; c++) W[row + c] = -blocks[k * nn + r * n + c]!;
+      W[row + (lastStep ? colLast : colK1) + r] = 1;
+      W[row + colRhs + k * n + r] = 1;
+    }
+    for (let j = 0; j < n; j++) {
+      let scale = 0;
+      for (let i = j; i < 2 * n; i++) scale = Math.max(scale, Math.abs(W[i * cols + j]!));
+      if (!(scale > 0)) {
+        if (scale !== 0) return null;
+        continue;
+      }
+      if (!Number.isFinite(scale)) return null;
+      let norm2 = 0;
+      for (let i = j; i < 2 * n; i++) {
+        const t = W[i * cols + j]! / scale;
+        v[i] = t;
+        norm2 += t * t;
+      }
+      const alpha = v[j]! >= 0 ? -Math.sqrt(norm2) : Math.sqrt(norm2);
+      v[j] = v[j]! - alpha;
+      let vtv = 0;
+      for (let i = j; i < 2 * n; i++) vtv += v[i]! * v[i]!;
+      if (vtv > 0) {
+        for (let c = j + 1; c < cols; c++) {
+          let s = 0;
+          for (let i = j; i < 2 * n; i++) s += v[i]! * W[i * cols + c]!;
+          if (s === 0) continue;
+          const f = (2 * s) / vtv;
+          for (let i = j; i < 2 * n; i++) W[i * cols + c] = W[i * cols + c]! - f * v[i]!;
+        }
+      }
+      W[j * cols + j] = alpha * scale;
+      for (let i = j + 1; i < 2 * n; i++) W[i * cols + j] = 0;
+    }
+    for (let r = 0; r < n; r++) {
+      const row = r * cols;
+      for (let c = 0; c < n; c++) {
+        rB[k * nn + r * n + c] = W[row + c]!;
+        eB[k * nn + r * n + c] = W[row + colK1 + c]!;
+        gB[k * nn + r * n + c] = W[row + colLast + c]!;
+      }
+      rhsB.set(W.subarray(row + colRhs, row + colRhs + N), (k * n + r) * N);
+    }
+    for (let r = 0; r < n; r++) {
+      const row = (n + r) * cols;
+      for (let c = 0; c < n; c++) W[row + c] = W[row + colK1 + c]!;
+      for (let c = 0; c < n; c++) W[row + colK1 + c] = 0;
+    }
+  }
+  // Final n×n system for the last block row of C, one column per right-hand side.
+  const last = new Float64Array(nn);
+  for (let r = 0; r < n; r++) {
+    const row = (n + r) * cols;
+    for (let c = 0; c < n; c++) last[r * n + c] = W[row + c]! + W[row + colLast + c]!;
+  }
+  const piv = new Int32Array(n);
+  if (!luFactorInPlace(last, n, piv)) return null;
+  const b = new Float64Array(n);
+  const x = new Float64Array(n);
+  const lastRow = (p - 1) * n;
+  for (let col = 0; col < N; col++) {
+    for (let r = 0; r < n; r++) b[r] = W[(n + r) * cols + colRhs + col]!;
+    luSolveInto({ n, lu: last, piv }, b, x);
+    for (let r = 0; r < n; r++) C[(lastRow + r) * N + col] = x[r]!;
+  }
+  // Back-substitution, all columns at once (row-major C: unknown index × right-hand side).
+  for (let k = steps - 1; k >= 0; k--) {
+    const useE = k + 1 !== p - 1;
+    for (let r = n - 1; r >= 0; r--) {
+      const out = (k * n + r) * N;
+      C.set(rhsB.subarray(out, out + N), out);
+      for (let c = 0; c < n; c++) {
+        const g = gB[k * nn + r * n + c]!;
+        if (g !== 0) {
+          const src = (lastRow + c) * N;
+          for (let q = 0; q < N; q++) C[out + q] = C[out + q]! - g * C[src + q]!;
+        }
+        if (useE) {
+          const e = eB[k * nn + r * n + c]!;
+          if (e !== 0) {
+            const src = ((k + 1) * n + c) * N;
+            for (let q = 0; q < N; q++) C[out + q] = C[out + q]! - e * C[src + q]!;
+          }
+        }
+      }
+      for (let c = r + 1; c < n; c++) {
+        const u = rB[k * nn + r * n + c]!;
+        if (u !== 0) {
+          const src = (k * n + c) * N;
+          for (let q = 0; q < N; q++) C[out + q] = C[out + q]! - u * C[src + q]!;
+        }
+      }
+      const d = rB[k * nn + r * n + r]!;
+      if (d === 0) return null;
+      for (let q = 0; q < N; q++) C[out + q] = C[out + q]! / d;
+    }
+  }
+  return finite(C) ? C : null;
+}
+
+function finite(x: Float64Array): boolean {
+  for (let i = 0; i < x.length; i++) if (!Number.isFinite(x[i]!)) return false;
+  return true;
 }
 
 export interface MpRefinement {

@@ -14,13 +14,20 @@
  *    Eigenvalues λ = (T ± √(T² − 4D))/2: real when T² − 4D > 0 certainly; the larger in modulus
  *    is λ₁ = (T + sign(T)·√(T² − 4D))/2 and the other λ₂ = D/λ₁ (no cancellation); complex when
  *    T² − 4D < 0 certainly, both of modulus √D. Otherwise moduli are not claimed.
- *  - n ≥ 3: not claimed (class 'undecided').
+ *  - n ≥ 3: the monodromy is formed in moving frames as for n = 2 (Q_k from float modified
+ *    Gram–Schmidt QR, Q_k^{-1} enclosed from ‖I − Q_kᵀQ_k‖∞ < 1 by a Neumann bound), giving an
+ *    interval matrix S ∋ Q_{p−1}^{-1}·M·Q_{p−1} (similar to M); Gershgorin discs of S in an
+ *    approximate eigenbasis (gershgorin.ts) bound |λ|. Reported as `proverOnly` (fast engine only,
+ *    not re-verified by the checker); `class` stays 'undecided'.
  * Every reported enclosure is widened by 2^-30 relative + 1e-300 absolute (decimal-out.ts) and the
  * class is decided from the widened enclosures only.
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { compareDecimal as cmp, pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
-import type { DecimalPair, ProvenStability } from './types.js';
+import { decimalOfDouble } from '../interval/decimal-literal.js';
+import { addUp, divUp, mulUp, subDown } from '../interval/round.js';
+import { gershgorinDiscs } from './gershgorin.js';
+import type { DecimalPair, ProvenStability, StabilityClass } from './types.js';
 
 function pairOf<T>(arith: IntervalArithmetic<T>, x: T): DecimalPair {
   const d = arith.toDecimal(x);
@@ -34,7 +41,7 @@ function pairOf<T>(arith: IntervalArithmetic<T>, x: T): DecimalPair {
 export function orbitStability<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
   if (n === 1) return stability1(arith, blocks, p);
   if (n === 2) return stability2(arith, blocks, p);
-  return { class: 'undecided', note: `stability for dimension ${n} >= 3 is not implemented` };
+  return stabilityN(arith, blocks, p, n);
 }
 
 function stability1<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
@@ -148,4 +155,115 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
 function compareLo(x: DecimalPair, y: DecimalPair): number {
   // Decimal strings: compare numerically through the exact comparator in decimal-out.
   return cmp(x[0], y[0]);
+}
+
+/** @heuristic float modified Gram–Schmidt: Q (n×n, row-major, orthonormal columns) of b; null if rank-deficient. */
+function floatQ(b: Float64Array, n: number): Float64Array | null {
+  const q = Float64Array.from(b);
+  for (let j = 0; j < n; j++) {
+    for (let k = 0; k < j; k++) {
+      let dot = 0;
+      for (let i = 0; i < n; i++) dot += q[i * n + k]! * q[i * n + j]!;
+      for (let i = 0; i < n; i++) q[i * n + j] = q[i * n + j]! - dot * q[i * n + k]!;
+    }
+    let norm = 0;
+    for (let i = 0; i < n; i++) norm = Math.hypot(norm, q[i * n + j]!);
+    if (!(norm > 0) || !Number.isFinite(norm)) return null;
+    for (let i = 0; i < n; i++) q[i * n + j] = q[i * n + j]! / norm;
+  }
+  return q;
+}
+
+function matMulT<T>(a: IntervalArithmetic<T>, x: readonly T[], y: readonly T[], n: number): T[] {
+  const out: T[] = new Array<T>(n * n);
+  const zero = a.fromNumber(0);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      let s = zero;
+      for (let k = 0; k < n; k++) s = a.add(s, a.mul(x[i * n + k]!, y[k * n + j]!));
+      out[i * n + j] = s;
+    }
+  }
+  return out;
+}
+
+/**
+ * Enclosure of Q^{-1} for a float matrix Q with QᵀQ ≈ I: with E = I − QᵀQ (intervals) and
+ * δ = ‖E‖∞ < 1, Q^{-1} = (I − E)^{-1}Qᵀ = Qᵀ + G·Qᵀ with ‖G‖∞ ≤ δ/(1 − δ), so entry (i, j) lies in
+ * Qᵀ_ij ± δ/(1 − δ)·max_l |Qᵀ_lj| (Neumann series, from memory). Null when δ ≥ 1.
+ */
+function orthogonalInverse<T>(a: IntervalArithmetic<T>, q: Float64Array, n: number): T[] | null {
+  let delta = 0;
+  for (let i = 0; i < n; i++) {
+    let row = 0;
+    for (let j = 0; j < n; j++) {
+      let s = a.fromNumber(i === j ? 1 : 0);
+      for (let k = 0; k < n; k++) s = a.sub(s, a.mul(a.fromNumber(q[k * n + i]!), a.fromNumber(q[k * n + j]!)));
+      row = addUp(row, a.magUp(s));
+    }
+    delta = Math.max(delta, row);
+  }
+  if (!(delta < 1)) return null;
+  const g = divUp(delta, subDown(1, delta));
+  const out: T[] = new Array<T>(n * n);
+  for (let j = 0; j < n; j++) {
+    let colMax = 0;
+    for (let l = 0; l < n; l++) colMax = Math.max(colMax, Math.abs(q[j * n + l]!)); // column j of Qᵀ = row j of Q
+    const e = mulUp(g, colMax);
+    for (let i = 0; i < n; i++) out[i * n + j] = a.inflate(a.fromNumber(q[j * n + i]!), e);
+  }
+  return out;
+}
+
+function stabilityN<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
+  const nn = n * n;
+  const undecided = (why: string): ProvenStability => ({ class: 'undecided', note: `n = ${n} >= 3: ${why}` });
+  const identity: Float64Array = new Float64Array(nn);
+  for (let i = 0; i < n; i++) identity[i * n + i] = 1;
+  let qPrevF: Float64Array = identity;
+  let qPrev: T[] = Array.from(identity, (v) => a.fromNumber(v));
+  let prod: T[] = qPrev.slice();
+  const bF = new Float64Array(nn);
+  for (let k = 0; k < p; k++) {
+    const blk = blocks.slice(k * nn, (k + 1) * nn);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        let s = 0;
+        for (let l = 0; l < n; l++) s += a.midNumber(blk[i * n + l]!) * qPrevF[l * n + j]!;
+        bF[i * n + j] = s;
+      }
+    }
+    let qF: Float64Array = floatQ(bF, n) ?? identity;
+    let qInv = orthogonalInverse(a, qF, n);
+    if (qInv === null) {
+      qF = identity;
+      qInv = Array.from(identity, (v) => a.fromNumber(v));
+    }
+    const q = Array.from(qF, (v) => a.fromNumber(v));
+    prod = matMulT(a, matMulT(a, qInv, matMulT(a, blk, qPrev, n), n), prod, n);
+    qPrevF = qF;
+    qPrev = q;
+  }
+  const S = matMulT(a, prod, qPrev, n);
+  for (const x of S) if (!isBounded(a, x)) return undecided('the monodromy enclosure is unbounded (overflow)');
+  const discs = gershgorinDiscs(a, S, n);
+  if (discs === null) return undecided('no Gershgorin enclosure (approximate eigenbasis too ill-conditioned)');
+  const moduli = discs
+    .map((d): DecimalPair => widenPair(decimalOfDouble(d.modulusLo), decimalOfDouble(d.modulusHi)))
+    .sort((x, y) => cmp(x[0], y[0]));
+  const below = moduli.map((x) => pairAbsBelowOne(x));
+  const above = moduli.map((x) => pairAbsAboveOne(x));
+  let cls: StabilityClass = 'undecided';
+  // Each disc is strictly inside or strictly outside the unit circle; the inside union is then
+  // disjoint from the outside union, so each holds as many eigenvalues as discs (Gershgorin).
+  if (below.every(Boolean)) cls = 'attracting';
+  else if (above.every(Boolean)) cls = 'repelling';
+  else if (below.every((b, i) => b || above[i])) cls = 'saddle';
+  return {
+    class: 'undecided',
+    note:
+      `n = ${n} >= 3: the independent checker does not re-verify stability; the fast engine's Gershgorin bound ` +
+      (cls === 'undecided' ? 'is undecided (a disc contains a point of modulus 1)' : `says ${cls} (fast engine only, not re-verified)`),
+    proverOnly: { class: cls, eigenvalueModuli: moduli, method: 'gershgorin' },
+  };
 }

@@ -23,6 +23,20 @@ export interface ProvenStability {
   eigenvalueModuli?: DecimalPair[];
   /** Why the class is 'undecided' (absent when decided). */
   note?: string;
+  /**
+   * n ≥ 3: the fast engine's Gershgorin result (stability.ts, gershgorin.ts). NOT re-verified by
+   * the independent checker, which does not yet handle n ≥ 3; so `class` above stays 'undecided'
+   * and this is never written into a certificate. Renderers must label it "fast engine only".
+   */
+  proverOnly?: ProverOnlyStability;
+}
+
+export interface ProverOnlyStability {
+  /** Decided from the disc moduli below only; 'undecided' when a disc straddles |λ| = 1. */
+  class: StabilityClass;
+  /** Per Gershgorin disc: enclosure of |λ| for the eigenvalues it holds (widened, ascending by lo). */
+  eigenvalueModuli: DecimalPair[];
+  method: 'gershgorin';
 }
 
 export interface ProvenOrbit {
