@@ -4,13 +4,16 @@
  */
 import { randomBytes } from 'node:crypto';
 import {
+  accessSync,
   closeSync,
+  constants as fsConstants,
   existsSync,
   fsyncSync,
   linkSync,
   mkdirSync,
   openSync,
   renameSync,
+  statSync,
   unlinkSync,
   writeSync,
 } from 'node:fs';
@@ -32,6 +35,84 @@ export class CertificateWriteError extends Error {
   }
   render(): string {
     return `${this.path}: error [${this.code}]: ${this.message}\n  hint: ${this.hint}`;
+  }
+}
+
+/**
+ * "ENOENT: no such file or directory, mkdir '/x'" → "ENOENT (no such file or directory)": node's
+ * message already starts with the code, so it is not repeated.
+ */
+export function describeFsError(e: unknown): string {
+  const err = e as NodeJS.ErrnoException;
+  const code = typeof err?.code === 'string' ? err.code : undefined;
+  let text = typeof err?.message === 'string' ? err.message : String(e);
+  if (code !== undefined && text.startsWith(`${code}: `)) text = text.slice(code.length + 2);
+  text = text.replace(/, \w+ '[^']*'( -> '[^']*')?$/, '');
+  return code !== undefined ? `${code} (${text})` : text;
+}
+
+function dirError(target: string, message: string): CertificateWriteError {
+  return new CertificateWriteError(
+    'CERT_WRITE_FAILED',
+    target,
+    message,
+    'choose a folder you can write to with --out (it is created if its parent folder is writable)',
+  );
+}
+
+/** The nearest ancestor of `dir` (itself included) that exists, and the missing levels below it. */
+function splitExisting(dir: string): { existing: string; missing: string[] } {
+  const missing: string[] = [];
+  let cur = resolve(dir);
+  for (;;) {
+    if (existsSync(cur)) return { existing: cur, missing };
+    missing.unshift(cur);
+    const up = dirname(cur);
+    if (up === cur) return { existing: cur, missing };
+    cur = up;
+  }
+}
+
+function checkWritableDir(existing: string, target: string): void {
+  let isDir: boolean;
+  try {
+    isDir = statSync(existing).isDirectory();
+  } catch (e) {
+    throw dirError(target, `cannot use folder ${existing}: ${describeFsError(e)}`);
+  }
+  if (!isDir) throw dirError(target, `${existing} exists and is not a folder`);
+  try {
+    accessSync(existing, fsConstants.W_OK | fsConstants.X_OK);
+  } catch {
+    throw dirError(target, `folder ${existing} is not writable`);
+  }
+}
+
+/**
+ * Throws CERT_WRITE_FAILED unless `dir` is a writable folder or could be created (its nearest
+ * existing ancestor is a writable folder). Creates nothing; for failing early, before long work.
+ */
+export function checkDirectoryUsable(dir: string): void {
+  const target = resolve(dir);
+  checkWritableDir(splitExisting(target).existing, target);
+}
+
+/**
+ * Create `dir` and its missing parents one level at a time. Not `mkdirSync(recursive)`: that loops
+ * forever on some pseudo file systems (e.g. under /proc on Linux, node 20). Throws CERT_WRITE_FAILED
+ * with the folder and the system's reason.
+ */
+export function ensureDirectory(dir: string): void {
+  const target = resolve(dir);
+  const { existing, missing } = splitExisting(target);
+  checkWritableDir(existing, target);
+  for (const level of missing) {
+    try {
+      mkdirSync(level);
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code === 'EEXIST' && existsSync(level) && statSync(level).isDirectory()) continue;
+      throw dirError(target, `cannot create folder ${level}: ${describeFsError(e)}`);
+    }
   }
 }
 
@@ -93,9 +174,9 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
       'pass --force to replace it, or choose another folder with --out',
     );
   if (!opts.force && existsSync(target)) throw existsError();
+  ensureDirectory(dir);
   const tmp = join(dir, `.${basename(target)}.${process.pid}.${randomBytes(6).toString('hex')}.tmp`);
   try {
-    mkdirSync(dir, { recursive: true });
     const fd = openSync(tmp, 'wx', 0o644);
     try {
       const buf = Buffer.from(text, 'utf8');
@@ -128,11 +209,10 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
       // already renamed or never created
     }
     if (e instanceof CertificateWriteError) throw e;
-    const err = e as NodeJS.ErrnoException;
     throw new CertificateWriteError(
       'CERT_WRITE_FAILED',
       target,
-      `cannot write file (${err.code ?? 'error'}: ${err.message})`,
+      `cannot write file: ${describeFsError(e)}`,
       'check that the folder exists or can be created and is writable, or choose another with --out',
     );
   }

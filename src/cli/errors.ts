@@ -25,6 +25,8 @@ export type UsageErrorCode =
   | 'bad-period'
   | 'bad-near'
   | 'bad-digits'
+  | 'bad-limit'
+  | 'bad-start'
   | 'bad-max-bits'
   | 'bad-option'
   | 'no-input'

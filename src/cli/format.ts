@@ -34,17 +34,29 @@ export function shortPoint(x: string, sig = 12): string {
   return new Decimal(x).toSignificantDigits(sig).toString();
 }
 
-/** Left-aligned text table with a header rule. Cells may contain newlines (continued lines). */
+/**
+ * Left-aligned text table with a header rule. Cells may contain newlines (continued lines).
+ * Loops only (no spread into Math.max): tables may have tens of thousands of lines.
+ */
 export function table(headers: string[], rows: string[][]): string {
   const expanded: string[][] = [];
   for (const row of rows) {
     const parts = row.map((c) => c.split('\n'));
-    const height = Math.max(1, ...parts.map((p) => p.length));
+    let height = 1;
+    for (const p of parts) if (p.length > height) height = p.length;
     for (let k = 0; k < height; k++) expanded.push(parts.map((p) => p[k] ?? ''));
   }
-  const widths = headers.map((h, j) => Math.max(h.length, ...expanded.map((r) => (r[j] ?? '').length)));
+  const widths = headers.map((h) => h.length);
+  for (const r of expanded) {
+    for (let j = 0; j < widths.length; j++) {
+      const len = (r[j] ?? '').length;
+      if (len > widths[j]!) widths[j] = len;
+    }
+  }
   const line = (cells: string[]) => cells.map((c, j) => c.padEnd(widths[j]!)).join('  ').trimEnd();
-  return [line(headers), line(widths.map((w) => '-'.repeat(w))), ...expanded.map(line)].join('\n');
+  const out: string[] = [line(headers), line(widths.map((w) => '-'.repeat(w)))];
+  for (const r of expanded) out.push(line(r));
+  return out.join('\n');
 }
 
 /** Indent every line of `text` by `n` spaces. */

@@ -14,7 +14,9 @@ for (const stream of [process.stdout, process.stderr]) {
 async function main(): Promise<void> {
   let result;
   try {
-    result = await runCli(process.argv.slice(2));
+    // progress only on a terminal: pipes, files and tests get clean output
+    const progress = process.stderr.isTTY ? (text: string) => void process.stderr.write(text) : undefined;
+    result = await runCli(process.argv.slice(2), progress ? { progress } : {});
   } catch (e) {
     result = errorResult(e);
   }

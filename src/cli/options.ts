@@ -1,4 +1,5 @@
 /** Validation of command-line option values (user mistakes become UsageError, exit 2). */
+import { DEFAULT_LIMITS } from '../checker/index.js';
 import { UsageError } from './errors.js';
 
 const MAX_PERIOD = 100_000;
@@ -58,4 +59,57 @@ export function parseBoundedInt(
 /** Commander collector for repeatable options. */
 export function collect(value: string, previous: string[] | undefined): string[] {
   return [...(previous ?? []), value];
+}
+
+/** Fewest checker digits accepted on the command line. */
+export const MIN_DIGITS = 10;
+
+/** `--digits D`: 10 ≤ D ≤ the checker's own limit (DEFAULT_LIMITS.maxDigits). */
+export function parseDigits(text: string): number {
+  const max = DEFAULT_LIMITS.maxDigits;
+  const ok = /^\s*\+?\d+\s*$/.test(text);
+  const v = ok ? Number(text.trim()) : Number.NaN;
+  if (!Number.isSafeInteger(v) || v < MIN_DIGITS || v > max) {
+    throw new UsageError(
+      'bad-digits',
+      '--digits',
+      text,
+      `expected a whole number from ${MIN_DIGITS} to ${max} (the independent checker works with at most ${max} digits)`,
+      'write e.g. --digits 60, or leave --digits out to use the precision the certificate asks for',
+    );
+  }
+  return v;
+}
+
+/** `--limit N`: a whole number N ≥ 1. */
+export function parseLimit(text: string): number {
+  const ok = /^\s*\+?\d+\s*$/.test(text);
+  const v = ok ? Number(text.trim()) : Number.NaN;
+  if (!Number.isSafeInteger(v) || v < 1) {
+    throw new UsageError('bad-limit', '--limit', text, 'expected a whole number of at least 1', 'write e.g. --limit 5, or --all for no limit');
+  }
+  return v;
+}
+
+const DECIMAL_RE = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/**
+ * `--start x0,y0,...`: ONE point as exact decimal strings (any number of digits), `dim`
+ * coordinates. Kept as strings: never rounded to doubles.
+ */
+export function parseStart(text: string, dim: number): string[] {
+  const parts = text.split(',').map((s) => s.trim());
+  if (parts.some((s) => !DECIMAL_RE.test(s))) {
+    throw new UsageError('bad-start', '--start', text, 'expected comma-separated decimal numbers', 'write e.g. --start 0.2 or --start 0.6,0.2 (as many digits as you like)');
+  }
+  if (parts.length !== dim) {
+    throw new UsageError(
+      'bad-start',
+      '--start',
+      text,
+      `the map has ${dim} state variable${dim === 1 ? '' : 's'} but ${parts.length} coordinate${parts.length === 1 ? ' was' : 's were'} given`,
+      `give ${dim} comma-separated decimals (one point of the orbit), in the order of the map's state variables`,
+    );
+  }
+  return parts;
 }

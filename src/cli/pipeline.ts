@@ -6,7 +6,8 @@
 import { join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
 import type { ProvenOrbit } from '../prove/types.js';
-import { certificateFileName, writeCertificate } from '../certificate/write.js';
+import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
+import type { CandidateCoordinate } from '../prove/orbit.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
 import * as lib from './library.js';
@@ -16,8 +17,20 @@ export interface CertifyOptions {
   period: number;
   /** Prove only the candidate nearest this point (unless `all`). */
   near?: number[];
-  /** Prove every candidate even when `near` is given. */
+  /** Prove every candidate: no `limit`, and not only the nearest to `near`. */
   all?: boolean;
+  /**
+   * Prove at most this many candidates (nearest to `near` first, else in search order). Default:
+   * 1 with `near`, else DEFAULT_PROVE_LIMIT; ignored with `all`.
+   */
+  limit?: number;
+  /**
+   * Skip the search and prove this one candidate (p points of n coordinates; decimal strings are
+   * taken exactly as the starting point of the prover's refinement).
+   */
+  start?: CandidateCoordinate[][];
+  /** Called before each proof attempt (1-based `attempt` of `total`); for a progress display. */
+  progress?: (attempt: number, total: number) => void;
   /** Folder for certificates; created when missing. */
   outDir: string;
   /** Replace existing certificate files. */
@@ -52,6 +65,15 @@ export interface CertifyReport {
   map: { title: string; origin?: string; state: string[] };
   period: number;
   candidatesFound: number;
+  /** Parameters given as intervals (a proof must then hold for every value in them). */
+  intervalParams: string[];
+  /** Where the candidates came from: the float search, or the user's --start point. */
+  source: 'search' | 'start';
+  /** Candidates found but not attempted because of the limit. */
+  unattempted: number;
+  /** The limit in force (null: none) and where it came from. */
+  limit: number | null;
+  limitFrom: 'option' | 'default' | 'near' | null;
   outcomes: OrbitOutcome[];
   outDir: string;
   checked: boolean;
@@ -78,6 +100,20 @@ function distance2(a: readonly number[], b: readonly number[]): number {
   return s;
 }
 
+/**
+ * A user-given starting orbit as a candidate for display: float copies of the points. Not a search
+ * result, so there is no residual or multiplier estimate (NaN / empty).
+ */
+function startCandidate(period: number, start: readonly (readonly CandidateCoordinate[])[]): CandidateLike {
+  return {
+    period,
+    points: start.map((pt) => pt.map((v) => (typeof v === 'number' ? v : Number(v)))),
+    residual: Number.NaN,
+    multipliers: [],
+    stabilityGuess: 'neutral',
+  };
+}
+
 /** @heuristic the candidate with an orbit point closest (Euclidean, floats) to `near`. */
 export function nearestCandidateIndex(cands: readonly CandidateLike[], near: readonly number[]): number {
   let best = -1;
@@ -94,6 +130,24 @@ export function nearestCandidateIndex(cands: readonly CandidateLike[], near: rea
   return best;
 }
 
+function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamValue>): string[] {
+  const all: Record<string, ParamValue> = { ...def.params, ...overrides };
+  return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
+}
+
+/** How many candidates `prove` attempts without --near, --limit or --all. */
+export const DEFAULT_PROVE_LIMIT = 20;
+
+/** @heuristic candidate indices sorted by float distance of their nearest point to `near` (stable). */
+export function candidatesByDistance(cands: readonly CandidateLike[], near: readonly number[]): number[] {
+  const d = cands.map((c) => {
+    let best = Infinity;
+    for (const pt of c.points) best = Math.min(best, distance2(pt, near));
+    return best;
+  });
+  return cands.map((_, i) => i).sort((a, b) => d[a]! - d[b]! || a - b);
+}
+
 /** Search, prove, write and re-check. Throws only user errors (e.g. CERT_EXISTS) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
@@ -105,15 +159,28 @@ export async function certifyOrbits(
   const checkOn = opts.check !== false;
   const checker = checkOn ? await lib.checker() : undefined;
 
-  const found = search.findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
-  let chosen: CandidateLike[] = found;
-  if (opts.near && !opts.all && found.length > 0) chosen = [found[nearestCandidateIndex(found, opts.near)]!];
+  // fail before long work when certificates could not be written
+  checkDirectoryUsable(opts.outDir);
+
+  let found: CandidateLike[];
+  let startPoints: CandidateCoordinate[][] | undefined;
+  if (opts.start) {
+    startPoints = opts.start;
+    found = [startCandidate(opts.period, opts.start)];
+  } else {
+    found = search.findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
+  }
+  const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
+  const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);
+  const chosen: CandidateLike[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
   const outcomes: OrbitOutcome[] = [];
   let k = 0;
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
-    const verdict = prover.proveOrbit(compiled, candidate.points, opts.maxBits ? { maxBits: opts.maxBits } : {});
+    opts.progress?.(index, chosen.length);
+    const points = startPoints ?? candidate.points;
+    const verdict = prover.proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
       outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
@@ -145,6 +212,11 @@ export async function certifyOrbits(
     map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
     period: opts.period,
     candidatesFound: found.length,
+    source: opts.start ? 'start' : 'search',
+    intervalParams: intervalParamNames(def, opts.overrides ?? {}),
+    unattempted: found.length - chosen.length,
+    limit,
+    limitFrom: limit === null ? null : opts.limit !== undefined ? 'option' : opts.near ? 'near' : 'default',
     outcomes,
     outDir: opts.outDir,
     checked: checkOn,

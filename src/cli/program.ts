@@ -15,6 +15,8 @@ import { showCommand, type ShowCommandOptions } from './commands/show.js';
 export interface RunContext {
   /** Working folder for relative paths (default process.cwd()). */
   cwd?: string;
+  /** Live progress of long commands (main.ts passes stderr only when it is a terminal). */
+  progress?: (text: string) => void;
 }
 
 const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
@@ -73,8 +75,10 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .description('prove periodic orbits, write a certificate for each, and re-check each with the independent checker')
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'period of the orbits to prove')
-    .option('--near <x,y,...>', 'prove only the candidate nearest this point')
-    .option('--all', 'prove every candidate found (the default without --near)')
+    .option('--near <x,y,...>', 'prove only the candidate nearest this point (with --limit N: the N nearest)')
+    .option('--limit <N>', 'prove at most N candidates (default 20; nearest to --near first)')
+    .option('--all', 'prove every candidate found (no limit)')
+    .option('--start <x0,y0,...>', 'prove the orbit through this one point (exact decimals, any number of digits); no search')
     .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
     .option('--force', 'replace existing certificate files')
     .option('--max-bits <B>', 'highest working precision for precision escalation')
@@ -84,7 +88,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => proveCommand(map, o, cwd))();
+      return run(() => proveCommand(map, o, cwd, ctx.progress))();
     });
 
   program
@@ -100,7 +104,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
 
   program
     .command('demo')
-    .description('prove the orbits of a built-in invented scenario, write and re-check certificates (a few seconds)')
+    .description('prove the orbits of two built-in invented scenarios, write and re-check certificates (a few seconds)')
     .option('--out <dir>', 'folder for certificates (default: a new temporary folder)')
     .option('--json', 'print one JSON document')
     .action((o: DemoCommandOptions) => {

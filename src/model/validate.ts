@@ -106,7 +106,7 @@ export function checkParamValue(v: ParamValue, key: string, locator?: Locator): 
   const lo = checkDecimal(v.lo, `${key}[0]`, locator);
   const hi = checkDecimal(v.hi, `${key}[1]`, locator);
   if (compareDecimal(lo, hi) > 0) {
-    throw definitionError('empty-region', `interval [${lo}, ${hi}] is empty (lower end above upper end)`, key,
+    throw definitionError('empty-interval', `interval [${lo}, ${hi}] is empty (lower end above upper end)`, key,
       `[${lo}, ${hi}]`, 'write [lo, hi] with lo <= hi', locator);
   }
   return { kind: 'interval', lo, hi };

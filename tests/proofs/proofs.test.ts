@@ -117,6 +117,23 @@ describe('committed proofs/ certificates', () => {
     },
   );
 
+  it('logistic/r4/near-critical/logistic-map-p50-1.json: Λ ∋ +2^50, x0 ∋ sin²(π/(2^50 − 1)), proven above 53 bits', () => {
+    // r = 4 is conjugate to θ ↦ 2θ mod 1 by x = sin²(πθ); θ = 1/(2^50 − 1) has period 50 and the
+    // multiplier is +2^50 (closed form, derived by hand). Written by `prove --start` (proofs/README.md).
+    const rel = 'logistic/r4/near-critical/logistic-map-p50-1.json';
+    const c = JSON.parse(readFileSync(join(proofsDir, rel), 'utf8')) as {
+      period: number;
+      orbit: { boxes: Iv[][] };
+      hints: { bits: number };
+      claims: { stability: Stability };
+    };
+    expect(c.period).toBe(50);
+    expect(strictlyContains(c.claims.stability.multiplier, d('2').pow(50))).toBe(true);
+    const x0 = D.sin(D.acos(-1).div(d('2').pow(50).minus(1))).pow(2);
+    expect(strictlyContains(c.orbit.boxes[0]![0], x0)).toBe(true);
+    expect(c.hints.bits).toBeGreaterThan(53);
+  });
+
   it('harvested fishery: for every h in [0.10, 0.12] the multipliers r − h (x = 0) and 2 + h − r lie in the enclosures', () => {
     const zero = readCert('examples/harvested-fishery-p1-1.json').claims.stability.multiplier;
     const inner = readCert('examples/harvested-fishery-p1-2.json').claims.stability.multiplier;

@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
-import { parseBoundedInt } from '../options.js';
+import { parseDigits } from '../options.js';
 import * as lib from '../library.js';
 import type { CheckReportLike } from '../library.js';
 
@@ -15,7 +15,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   if (paths.length === 0) {
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
-  const digits = o.digits !== undefined ? parseBoundedInt(o.digits, '--digits', 'bad-digits', 10, 100_000) : undefined;
+  const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
   absolute.forEach((p, i) => {
     if (!existsSync(p)) {
@@ -23,7 +23,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     }
   });
   const checker = await lib.checker();
-  const reports = await checker.checkPaths(absolute, digits ? { digits } : {});
+  const reports = (await checker.checkPaths(absolute, digits ? { digits } : {})).map(clarifyReport);
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
@@ -32,6 +32,17 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     return { stdout: JSON.stringify({ reports, exitCode }, null, 2) + '\n', stderr: '', exitCode };
   }
   return { stdout: renderCheck(reports, cwd) + '\n', stderr: '', exitCode };
+}
+
+/**
+ * A JSON file without a "format" key is no certificate at all: say so instead of the checker's
+ * "unknown format undefined". (Rewrites only that one reason; verdicts are never changed.)
+ */
+export function clarifyReport(r: CheckReportLike): CheckReportLike {
+  if (r.verdict !== 'VERIFIED' && r.path === '$.format' && /^unknown format undefined\b/.test(r.reason ?? '')) {
+    return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
+  }
+  return r;
 }
 
 /** Pure renderer: one row per certificate, then a count line. */

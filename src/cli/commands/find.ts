@@ -12,6 +12,9 @@ export interface FindCommandOptions {
   param?: string[];
 }
 
+/** The human table lists at most this many candidates; `--json` has them all. */
+export const MAX_CANDIDATES_SHOWN = 50;
+
 export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
 
 export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
@@ -53,7 +56,8 @@ export function renderFind(cands: readonly CandidateLike[], header: string, stat
     return lines.join('\n');
   }
   const shown = 6;
-  const rows = cands.map((c, i) => [
+  const listed = cands.slice(0, MAX_CANDIDATES_SHOWN);
+  const rows = listed.map((c, i) => [
     String(i + 1),
     c.points
       .slice(0, shown)
@@ -66,6 +70,7 @@ export function renderFind(cands: readonly CandidateLike[], header: string, stat
   ]);
   lines.push('');
   lines.push(table(['#', `points (${state.join(', ')})`, 'multipliers ≈', 'stability', 'residual'], rows));
+  if (cands.length > listed.length) lines.push(`… ${cands.length - listed.length} more; use --json for all`);
   lines.push('');
   lines.push('These are float approximations. Run `orbitseal prove` to turn them into proofs.');
   return lines.join('\n');

@@ -1,8 +1,9 @@
 import { relative, resolve } from 'node:path';
-import { type CommandResult } from '../errors.js';
+import { UsageError, type CommandResult } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { parseBoundedInt, parseNear, parsePeriod } from '../options.js';
-import { certifyOrbits, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
+import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
+import { iterateFromStart } from '../start.js';
 import { loadMap, paramsLine } from './common.js';
 
 export interface ProveCommandOptions {
@@ -16,24 +17,52 @@ export interface ProveCommandOptions {
   json?: boolean;
   param?: string[];
   digits?: string;
+  limit?: string;
+  start?: string;
 }
+
+/** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
+export type ProgressSink = (text: string) => void;
 
 export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
 
 /** Show at most this many orbit points in the table; the certificate has them all. */
 const MAX_POINTS_SHOWN = 6;
 
-export async function proveCommand(mapArg: string, o: ProveCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+export async function proveCommand(
+  mapArg: string,
+  o: ProveCommandOptions,
+  cwd = process.cwd(),
+  progressSink?: ProgressSink,
+): Promise<CommandResult> {
   const period = parsePeriod(o.period);
   const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
-  const digits = o.digits !== undefined ? parseBoundedInt(o.digits, '--digits', 'bad-digits', 10, 100_000) : undefined;
+  const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
+  const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
+  if (limit !== undefined && o.all) {
+    throw new UsageError('bad-option', '--limit', o.limit!, '--limit and --all contradict each other', 'use --limit N for at most N candidates, or --all for every one');
+  }
+  if (o.start !== undefined && (o.near !== undefined || o.all || limit !== undefined)) {
+    throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
+  }
   const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
+  const start = o.start !== undefined ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
+  let shown = false;
+  const progress = progressSink
+    ? (attempt: number, total: number) => {
+        shown = true;
+        progressSink(`\rproving ${attempt}/${total} …`);
+      }
+    : undefined;
   const report = await certifyOrbits(def, compiled, {
     period,
     outDir,
     ...(near ? { near } : {}),
+    ...(start ? { start } : {}),
+    ...(limit !== undefined ? { limit } : {}),
+    ...(progress ? { progress } : {}),
     all: o.all ?? false,
     force: o.force ?? false,
     check: o.check !== false,
@@ -41,6 +70,7 @@ export async function proveCommand(mapArg: string, o: ProveCommandOptions, cwd =
     ...(digits ? { digits } : {}),
     overrides,
   });
+  if (shown) progressSink?.('\r\x1b[K');
   if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode: report.exitCode };
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
   return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode: report.exitCode };
@@ -52,6 +82,8 @@ export function proveJson(r: CertifyReport): Record<string, unknown> {
     map: r.map,
     period: r.period,
     candidatesFound: r.candidatesFound,
+    limit: r.limit,
+    unattempted: r.unattempted,
     checked: r.checked,
     outDir: r.outDir,
     orbits: r.outcomes.map((o) => ({
@@ -113,7 +145,19 @@ export function stabilityCell(orbit: OrbitOutcome['orbit']): string {
   if (s.eigenvalueModuli) s.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatInterval(m, 8)}`));
   if (s.trace) lines.push(`tr M ∈ ${formatInterval(s.trace, 8)}`);
   if (s.determinant) lines.push(`det M ∈ ${formatInterval(s.determinant, 8)}`);
+  if (s.proverOnly) {
+    lines.push('fast engine only, not re-verified:');
+    s.proverOnly.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatInterval(m, 8)}`));
+  }
   return lines.join('\n');
+}
+
+/** The class column: the re-verifiable class; a fast-engine-only class (n ≥ 3) is labelled so. */
+function classCell(s: NonNullable<OrbitOutcome['orbit']>['stability']): string {
+  if (s.class === 'undecided' && s.proverOnly && s.proverOnly.class !== 'undecided') {
+    return `undecided\n(${s.proverOnly.class}: fast\nengine only,\nnot re-verified)`;
+  }
+  return s.class;
 }
 
 function displayPath(p: string, cwd: string): string {
@@ -124,7 +168,11 @@ function displayPath(p: string, cwd: string): string {
 /** Pure renderer for the human-readable prove output. */
 export function renderProve(r: CertifyReport, header: string, cwd: string): string {
   const out: string[] = [header];
-  out.push(`candidates (float search, not proofs): ${r.candidatesFound} of minimal period ${r.period}`);
+  out.push(
+    r.source === 'start'
+      ? `candidate (not a proof): the ${r.period} points from --start, iterated in multiprecision arithmetic`
+      : `candidates (float search, not proofs): ${r.candidatesFound} of minimal period ${r.period}`,
+  );
   if (r.outcomes.length === 0) {
     out.push('nothing proven: the float search found no candidate orbit of this minimal period in the region.');
     out.push('hint: try --near with a point close to the orbit, another --period, or check the region of the map.');
@@ -135,7 +183,7 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
     statusLabel(o.status) + (o.reason && o.status !== 'verified' ? `\n${wrap(o.reason, 40)}` : ''),
     pointsCell(o, r.map.state),
     stabilityCell(o.orbit),
-    o.orbit ? o.orbit.stability.class : '',
+    o.orbit ? classCell(o.orbit.stability) : '',
     o.orbit ? (o.orbit.uniquenessRadius !== null ? shortDown(o.orbit.uniquenessRadius, 3) : '—') : '',
     o.orbit ? `${o.orbit.bits}` : '',
     o.certificatePath ? displayPath(o.certificatePath, cwd) : '',
@@ -151,7 +199,34 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
     }
   }
   out.push(summaryLine(r));
+  const hint = intervalHint(r);
+  if (hint) out.push(hint);
+  const more = unattemptedLine(r);
+  if (more) out.push(more);
   return out.join('\n');
+}
+
+/** With an interval parameter, an undecided result often means the interval is too wide. */
+export function intervalHint(r: CertifyReport): string {
+  if (r.intervalParams.length === 0) return '';
+  const undecided = r.outcomes.some((o) => o.status === 'not-proven' || (o.orbit !== undefined && o.orbit.stability.class === 'undecided'));
+  if (!undecided) return '';
+  const names = r.intervalParams.join(', ');
+  return `hint: ${names} ${r.intervalParams.length === 1 ? 'is an interval' : 'are intervals'}; every claim must hold for all values in it: narrow the parameter interval or split it into pieces and prove each`;
+}
+
+/** "N candidates not attempted …" with how to get them; '' when every candidate was attempted. */
+export function unattemptedLine(r: CertifyReport): string {
+  if (r.unattempted <= 0) return '';
+  const n = r.unattempted;
+  const total = r.outcomes.length + n;
+  const why =
+    r.limitFrom === 'near'
+      ? '--near proves only the nearest candidate'
+      : r.limitFrom === 'default'
+        ? `the default limit is ${DEFAULT_PROVE_LIMIT}`
+        : `--limit ${r.limit}`;
+  return `${n} more candidate${n === 1 ? ' was' : 's were'} not attempted (${why}); to prove them too use --limit ${total} or --all`;
 }
 
 /** Greedy word wrap; words longer than `width` are cut; at most `maxLines` lines (then "…"). */

@@ -42,7 +42,7 @@ export function renderShow(d: MapDescription, overrides: Record<string, ParamVal
   for (const v of d.variables) lines.push(`  ${v.name}' = ${v.formula}`);
   lines.push('', 'region:');
   for (const v of d.variables) lines.push(`  ${v.name} ∈ [${v.region.lo}, ${v.region.hi}]`);
-  lines.push('', 'interval image of the region (every point of the region maps inside):');
+  lines.push('', 'enclosure of f(region): every image of a region point lies in these intervals:');
   for (const im of d.image) lines.push(`  ${im.name}' ∈ [${im.lo}, ${im.hi}]`);
   if (!d.imageContinuous) {
     lines.push('  warning: evaluating over the region leaves the domain of some function (sqrt, log, division by 0, …);');
