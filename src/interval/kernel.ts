@@ -37,6 +37,7 @@ import {
 } from './elementary.js';
 import {
   MAX,
+  TINY,
   addDown,
   addUp,
   divDown,
@@ -44,6 +45,7 @@ import {
   down,
   mulDown,
   mulUp,
+  nextDown,
   nextUp,
   sqrtDown,
   sqrtUp,
@@ -417,9 +419,18 @@ export const WIDEN = 2;
 /** Steps for Math.pow (fdlibm pow claims < 1 ulp too; one extra step of safety). */
 export const WIDEN_POW = 3;
 
-/** Lower bound of a value y that Math.* returned, assuming |error| ≤ 1 ulp; ±Inf handled. */
+/**
+ * Lower bound of a value y that Math.* returned, assuming |error| < `steps` ulps; ±Inf handled.
+ * Below 2^-969 the successor formula adds η = 2^-1074 and so may take 2 ulps per step (seen: atan at
+ * −2.225073858507201e-308 was 5 ulps wide); there the exact nextDown is used instead (rare path), so
+ * every step is exactly 1 ulp there and at most 2 elsewhere (usually exactly 1).
+ */
 export function widenDown(y: number, steps: number): number {
   if (y === Infinity) y = MAX;
+  if (Math.abs(y) < TINY) {
+    for (let i = 0; i < steps; i++) y = nextDown(y);
+    return y;
+  }
   for (let i = 0; i < steps; i++) y = down(y);
   return y;
 }
@@ -427,6 +438,10 @@ export function widenDown(y: number, steps: number): number {
 /** Upper bound counterpart of widenDown. */
 export function widenUp(y: number, steps: number): number {
   if (y === -Infinity) y = -MAX;
+  if (Math.abs(y) < TINY) {
+    for (let i = 0; i < steps; i++) y = nextUp(y);
+    return y;
+  }
   for (let i = 0; i < steps; i++) y = up(y);
   return y;
 }
