@@ -161,6 +161,8 @@ const MAX_INT_POWER = 100000;
 export class Evaluator {
   private lits = new Map<string, Iv>();
   private slope: Iv;
+  /** Set once a derivative used the slope set [−1, 1] of abs/min/max (a box touching a kink). */
+  kink = false;
   constructor(
     readonly c: IvCtx,
     private readonly params: ReadonlyMap<string, Iv>,
@@ -290,6 +292,7 @@ export class Evaluator {
         }
         case 'abs': {
           const s = u.lo.gte(0) ? c.one : u.hi.lte(0) ? c.neg(c.one) : this.slope;
+          if (s === this.slope && a.d) this.kink = true;
           return { v: c.abs(u), d: this.chain(s, a) };
         }
         case 'pow':
@@ -303,6 +306,7 @@ export class Evaluator {
           // min = (a + b − |a − b|)/2, max = (a + b + |a − b|)/2
           const diff = c.sub(u, b.v);
           const s = diff.lo.gte(0) ? c.one : diff.hi.lte(0) ? c.neg(c.one) : this.slope;
+          if (s === this.slope) this.kink = true;
           const sAbs = isMin ? c.neg(s) : s;
           const half = c.literal('0.5');
           const ka = c.mul(half, c.add(c.one, sAbs));

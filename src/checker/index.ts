@@ -273,6 +273,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
   const verified: ClaimName[] = ['existence'];
   const D = (kx as { jacobians: Iv[][] }).jacobians;
+  const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
 
   if (radius !== null) {
     const Yout: Iv[] = [];
@@ -315,6 +316,8 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   if (stab) {
     const st = stability(c, D, n);
     const claimed = stab.class as string;
+    // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
+    if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
     if (claimed !== 'undecided' && claimed !== st.cls) reject('$.claims.stability.class', `claimed class "${claimed}" but the checker derives "${st.cls}"${st.multiplier ? ` (multiplier ${fmt(st.multiplier)})` : ''}${st.moduli ? ` (moduli ${st.moduli.map((m) => fmt(m)).join(', ')})` : ''}`);
     const contains = (key: 'multiplier' | 'trace' | 'determinant', mine: Iv | undefined): void => {
       if (stab[key] === undefined || stab[key] === null) return;

@@ -66,9 +66,7 @@ export class IvCtx {
     this.one = this.point(new this.Down('1'));
   }
 
-  point(x: Decimal): Iv {
-    return { lo: x, hi: x };
-  }
+  point(x: Decimal): Iv { return { lo: x, hi: x }; }
 
   /** Tightest enclosure at this precision of the exact decimal literals [lo, hi] (lo <= hi checked by caller). */
   literal(lo: string, hi: string = lo): Iv {
@@ -102,12 +100,8 @@ export class IvCtx {
   neg(a: Iv): Iv {
     return { lo: new this.Down(a.hi).neg(), hi: new this.Up(a.lo).neg() };
   }
-  negD(x: Decimal): Decimal {
-    return new this.Down(x).neg();
-  }
-  negU(x: Decimal): Decimal {
-    return new this.Up(x).neg();
-  }
+  negD(x: Decimal): Decimal { return new this.Down(x).neg(); }
+  negU(x: Decimal): Decimal { return new this.Up(x).neg(); }
 
   /** Product, by the sign-case table (each end one directed product). */
   mul(a: Iv, b: Iv): Iv {
@@ -210,9 +204,7 @@ export class IvCtx {
     return this.Up.max(this.negU(a.lo), a.hi);
   }
   /** [-r, r] for r >= 0. */
-  sym(r: Decimal): Iv {
-    return { lo: this.negD(r), hi: r };
-  }
+  sym(r: Decimal): Iv { return { lo: this.negD(r), hi: r }; }
   /** [mid - r, mid + r] enclosing a (non-rigorous midpoint, rigorous result). */
   midpoint(a: Iv): Decimal {
     return this.Near.add(a.lo, a.hi).div(2);

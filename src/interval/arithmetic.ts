@@ -25,11 +25,18 @@ export interface EvalStatus {
    * independent checker never does.
    */
   assumed: boolean;
+  /**
+   * Becomes true when `absSlope` was asked about a range touching 0, i.e. a derivative enclosure
+   * over the box is a slope set at a kink of abs/min/max, not a derivative. Krawczyk stays valid;
+   * eigenvalues of one monodromy product then do not decide stability in dimension >= 2.
+   */
+  nonsmooth?: boolean;
 }
 
 export function resetStatus(a: { status: EvalStatus }): void {
   a.status.continuous = true;
   a.status.assumed = false;
+  a.status.nonsmooth = false;
 }
 
 /** Real-number operations over some representation T (a float, an interval, ...). */

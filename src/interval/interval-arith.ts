@@ -18,7 +18,7 @@ import { E, ENTIRE, Interval, PI, isEmpty, mag, mid, mig } from './interval.js';
 import { addUp, subDown, subUp } from './round.js';
 
 export function intervalArithmetic(): IntervalArithmetic<Interval> {
-  const status: EvalStatus = { continuous: true, assumed: false };
+  const status: EvalStatus = { continuous: true, assumed: false, nonsmooth: false };
   const S = new Float64Array(2);
   const constants = new Map<string, Interval>();
 
@@ -78,7 +78,10 @@ export function intervalArithmetic(): IntervalArithmetic<Interval> {
     abs: (a) => done(K.kAbs(S, 0, a.lo, a.hi)),
     min: (a, b) => done(K.kMin(S, 0, a.lo, a.hi, b.lo, b.hi)),
     max: (a, b) => done(K.kMax(S, 0, a.lo, a.hi, b.lo, b.hi)),
-    absSlope: (a) => done(K.kAbsSlope(S, 0, a.lo, a.hi)),
+    absSlope: (a) => {
+      if (!(a.lo > 0) && !(a.hi < 0)) status.nonsmooth = true;
+      return done(K.kAbsSlope(S, 0, a.lo, a.hi));
+    },
 
     hull(a, b) {
       if (isEmpty(a)) return b;

@@ -507,6 +507,7 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
     absSlope(a) {
       if (a.lo.isPos() && !a.lo.isZero()) return { lo: ONE, hi: ONE };
       if (a.hi.isNeg() && !a.hi.isZero()) return { lo: MINUS_ONE, hi: MINUS_ONE };
+      status.nonsmooth = true;
       return UNIT;
     },
 

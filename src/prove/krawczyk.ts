@@ -74,7 +74,10 @@ export function shootingResidual<T>(sys: ShootingSystem<T>, m: readonly T[]): { 
  * Interval Jacobian blocks A_i ⊇ Df(X_i) (row-major n×n per point) over the whole box, or the
  * index of the point whose evaluation left the domain.
  */
-export function shootingJacobianBlocks<T>(sys: ShootingSystem<T>, box: readonly T[]): { blocks: T[]; images: T[]; assumed: boolean } | { domain: number } {
+export function shootingJacobianBlocks<T>(
+  sys: ShootingSystem<T>,
+  box: readonly T[],
+): { blocks: T[]; images: T[]; assumed: boolean; nonsmooth: boolean } | { domain: number } {
   const { arith, evaluator, period: p, dim: n } = sys;
   const xi: T[] = new Array<T>(n);
   const fx: T[] = new Array<T>(n);
@@ -82,16 +85,18 @@ export function shootingJacobianBlocks<T>(sys: ShootingSystem<T>, box: readonly 
   const blocks: T[] = new Array<T>(p * n * n);
   const images: T[] = new Array<T>(p * n);
   let assumed = false;
+  let nonsmooth = false;
   for (let i = 0; i < p; i++) {
     for (let j = 0; j < n; j++) xi[j] = box[i * n + j]!;
     resetStatus(arith);
     evaluator.imageAndJacobian(xi, fx, jac);
     if (!arith.status.continuous) return { domain: i };
     assumed ||= arith.status.assumed;
+    nonsmooth ||= arith.status.nonsmooth === true;
     for (let k = 0; k < n * n; k++) blocks[i * n * n + k] = jac[k]!;
     for (let j = 0; j < n; j++) images[i * n + j] = fx[j]!;
   }
-  return { blocks, images, assumed };
+  return { blocks, images, assumed, nonsmooth };
 }
 
 /**

@@ -220,7 +220,12 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   const jb = shootingJacobianBlocks(sys, outer);
   let stability: ProvenStability;
   if ('domain' in jb) stability = { class: 'undecided', note: `Jacobian over the boxes left the domain at point ${jb.domain}` };
-  else {
+  else if (n >= 2 && jb.nonsmooth) {
+    // slope sets at a kink: switching between branches could destabilise the orbit even when every
+    // single product is stable (joint spectral radius), so no class is claimed.
+    stability = { class: 'undecided', note: 'a box touches a kink of abs/min/max; in dimension >= 2 stability is not decided there' };
+    assumed ||= jb.assumed;
+  } else {
     stability = orbitStability(a, jb.blocks, p, n);
     assumed ||= jb.assumed;
   }

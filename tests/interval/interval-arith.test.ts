@@ -13,7 +13,7 @@ describe('intervalArithmetic status', () => {
     expect(a.status.continuous).toBe(false);
     expect(b.status.continuous).toBe(true);
     resetStatus(a);
-    expect(a.status).toEqual({ continuous: true, assumed: false });
+    expect(a.status).toEqual({ continuous: true, assumed: false, nonsmooth: false });
   });
 
   const cases: [string, (A: ReturnType<typeof intervalArithmetic>) => unknown, boolean, boolean][] = [
