@@ -94,6 +94,11 @@ export function statusLabel(s: OrbitStatus): string {
   }
 }
 
+/** Why an orbit proven for the period-P system does not count as an orbit of minimal period P. */
+export function minimalPeriodNotShown(period: number): string {
+  return `minimal period ${period} NOT shown: two point boxes overlap, so this may be an orbit of a smaller period (e.g. a fixed point) run several times`;
+}
+
 function distance2(a: readonly number[], b: readonly number[]): number {
   let s = 0;
   for (let i = 0; i < a.length; i++) s += (a[i]! - b[i]!) ** 2;
@@ -203,11 +208,19 @@ export async function certifyOrbits(
         outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
       }
     }
+    if (outcome.status !== 'rejected-by-checker' && orbit.minimalPeriod !== opts.period) {
+      outcome.reason = minimalPeriodNotShown(opts.period);
+    }
     outcomes.push(outcome);
   }
 
+  // Asked for minimal period P: a solution of the period-P system whose boxes overlap (a fixed
+  // point, a shorter cycle run several times) is proven as stated, but not what was asked for.
   const allGood =
-    outcomes.length > 0 && outcomes.every((o) => o.status === 'verified' || (!checkOn && o.status === 'prover-only'));
+    outcomes.length > 0 &&
+    outcomes.every(
+      (o) => (o.status === 'verified' || (!checkOn && o.status === 'prover-only')) && o.orbit?.minimalPeriod === opts.period,
+    );
   return {
     map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
     period: opts.period,

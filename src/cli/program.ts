@@ -116,7 +116,8 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     await program.parseAsync([...argv], { from: 'user' });
   } catch (e) {
     if (e instanceof CommanderError) {
-      if (e.code === 'commander.helpDisplayed' || e.code === 'commander.version') {
+      // `orbitseal help [command]` displays help with exit code 0 (commander.help, exitCode 0)
+      if (e.code === 'commander.helpDisplayed' || e.code === 'commander.version' || (e.code === 'commander.help' && e.exitCode === 0)) {
         return { stdout: out, stderr: err, exitCode: 0 };
       }
       const hint = e.code === 'commander.help' ? '' : '  hint: run `orbitseal --help` (or `orbitseal COMMAND --help`) for usage\n';

@@ -20,6 +20,15 @@ export interface MapDescription {
   imageAssumed: boolean;
 }
 
+/** Exact decimal ends, or "-inf" / "+inf" for an unbounded end (e.g. log on a region reaching 0). */
+function imageEnds<T>(arith: IntervalArithmetic<T>, a: T): { lo: string; hi: string } {
+  const lo = arith.loDown(a);
+  const hi = arith.hiUp(a);
+  const finite = (x: number, sign: string) => (Number.isFinite(x) ? arith.toDecimal(arith.fromNumber(x)).lo : `${sign}inf`);
+  if (Number.isFinite(lo) && Number.isFinite(hi)) return arith.toDecimal(a);
+  return { lo: finite(lo, '-'), hi: finite(hi, '+') };
+}
+
 export function describeMap<T>(compiled: CompiledMap, arith: IntervalArithmetic<T>): MapDescription {
   const def = compiled.definition;
   const params = Object.keys(def.params).map((name) => {
@@ -39,7 +48,7 @@ export function describeMap<T>(compiled: CompiledMap, arith: IntervalArithmetic<
     dim: compiled.dim,
     variables: def.state.map((s) => ({ name: s, formula: def.step[s]!, region: { lo: def.region[s]![0], hi: def.region[s]![1] } })),
     params,
-    image: def.state.map((s, i) => ({ name: s, ...arith.toDecimal(out[i]!) })),
+    image: def.state.map((s, i) => ({ name: s, ...imageEnds(arith, out[i]!) })),
     imageContinuous,
     imageAssumed,
   };

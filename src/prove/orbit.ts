@@ -192,7 +192,7 @@ export function proveOrbitWith(
       const ref: MpRefinement = refineMp(a, ev, D, mpStart, p, n, noRefine ? 0 : 60);
       refineMs += performance.now() - tr;
       if ((!ref.converged && !noRefine) || ref.inverse === null) {
-        const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${ref.lastStep})`;
+        const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${shortNumber(ref.lastStep)})`;
         attempts.push({ bits, outcome: 'failed', detail });
         if (best === null) lastFailure = { reason: ref.inverse === null ? 'singular' : 'newton-failed', detail };
         continue;
@@ -257,4 +257,10 @@ export const defaultArithmetics: ProverArithmetics = {
  */
 export function proveOrbit(map: CompiledMap, points: ReadonlyArray<ReadonlyArray<CandidateCoordinate>>, opts: ProveOrbitOptions = {}): OrbitVerdict {
   return proveOrbitWith(defaultArithmetics, map, points, opts);
+}
+
+/** A correction size for messages: a few significant digits, whatever type it arrives as. */
+function shortNumber(x: unknown): string {
+  const v = typeof x === 'number' ? x : Number(String(x));
+  return Number.isFinite(v) ? v.toPrecision(3) : String(x).slice(0, 24);
 }

@@ -180,7 +180,7 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
   }
   const rows = r.outcomes.map((o) => [
     String(o.index),
-    statusLabel(o.status) + (o.reason && o.status !== 'verified' ? `\n${wrap(o.reason, 40)}` : ''),
+    statusLabel(o.status) + (o.reason ? `\n${wrap(o.reason, 40)}` : ''),
     pointsCell(o, r.map.state),
     stabilityCell(o.orbit),
     o.orbit ? classCell(o.orbit.stability) : '',
@@ -255,6 +255,8 @@ export function summaryLine(r: CertifyReport): string {
   if (count('prover-only') > 0) parts.push(`${count('prover-only')} proven by the fast engine only (checker not run)`);
   if (count('rejected-by-checker') > 0) parts.push(`${count('rejected-by-checker')} NOT confirmed (checker rejected the certificate)`);
   if (count('not-proven') > 0) parts.push(`${count('not-proven')} not proven`);
+  const notMinimal = r.outcomes.filter((o) => o.orbit !== undefined && o.orbit.minimalPeriod !== r.period).length;
+  if (notMinimal > 0) parts.push(`${notMinimal} without a proof of minimal period ${r.period}`);
   return `summary: ${parts.join('; ')}.` + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
 }
 
