@@ -99,6 +99,17 @@ export function minimalPeriodNotShown(period: number): string {
   return `minimal period ${period} NOT shown: two point boxes overlap, so this may be an orbit of a smaller period (e.g. a fixed point) run several times`;
 }
 
+/** @heuristic smallest max-norm distance (as doubles) from the start point to a proven orbit point. */
+function startDrift(start: readonly CandidateCoordinate[], centre: readonly (readonly string[])[]): number {
+  let best = Infinity;
+  for (const pt of centre) {
+    let d = 0;
+    for (let j = 0; j < pt.length; j++) d = Math.max(d, Math.abs(Number(pt[j]) - Number(start[j])) / (1 + Math.abs(Number(start[j]))));
+    best = Math.min(best, d);
+  }
+  return best;
+}
+
 function distance2(a: readonly number[], b: readonly number[]): number {
   let s = 0;
   for (let i = 0; i < a.length; i++) s += (a[i]! - b[i]!) ** 2;
@@ -210,6 +221,9 @@ export async function certifyOrbits(
     }
     if (outcome.status !== 'rejected-by-checker' && orbit.minimalPeriod !== opts.period) {
       outcome.reason = minimalPeriodNotShown(opts.period);
+    } else if (outcome.status !== 'rejected-by-checker' && startPoints) {
+      const moved = startDrift(startPoints[0]!, orbit.centre);
+      if (moved > 1e-6) outcome.reason = `note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`;
     }
     outcomes.push(outcome);
   }

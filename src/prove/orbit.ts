@@ -144,7 +144,7 @@ export function proveOrbitWith(
         ? points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))))
         : Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
     if (ref !== null && !ref.converged) {
-      lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${ref.lastStep})` };
+      lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there` };
       attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
     } else {
       const Cf = floatShootingInverse(blocks, p, n);
@@ -192,7 +192,7 @@ export function proveOrbitWith(
       const ref: MpRefinement = refineMp(a, ev, D, mpStart, p, n, noRefine ? 0 : 60);
       refineMs += performance.now() - tr;
       if ((!ref.converged && !noRefine) || ref.inverse === null) {
-        const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${shortNumber(ref.lastStep)})`;
+        const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there`;
         attempts.push({ bits, outcome: 'failed', detail });
         if (best === null) lastFailure = { reason: ref.inverse === null ? 'singular' : 'newton-failed', detail };
         continue;

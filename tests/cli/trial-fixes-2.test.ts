@@ -53,3 +53,15 @@ describe('help', () => {
     expect((await runCli([])).exitCode).toBe(2);
   });
 });
+
+describe('prove --start far from the orbit it converges to', () => {
+  it('says that Newton moved the start point (r = 3.83, start 0.3 converges to the period-3 orbit, arXiv:1204.0546)', async () => {
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--start', '0.3', '--out', fresh()]);
+    expect(r.stdout).toMatch(/Newton moved the --start point/);
+  });
+  it('says nothing when the start point is on the orbit (control)', async () => {
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--start', '0.156149315684', '--out', fresh()]);
+    expect(r.exitCode).toBe(0);
+    expect(r.stdout).not.toMatch(/Newton moved/);
+  });
+});
