@@ -200,9 +200,22 @@ function fillIterated(
 function defaultEffort(n: number, p: number): { grid: number; random: number; attractor: number } {
   // 1-D: a chaotic map has up to ~2^p/p orbits of period p; about 4 grid points per periodic
   // point of f^p find them all for the logistic map at r = 4 (bench/search-bench.ts), capped.
-  if (n === 1) return { grid: Math.min(40000, Math.max(1000, 2 ** Math.min(p + 2, 30))), random: 400, attractor: 200 };
-  if (n === 2) return { grid: 40, random: 600, attractor: 400 };
-  return { grid: Math.max(2, Math.round(Math.pow(600, 1 / n))), random: 600, attractor: 400 };
+  const e =
+    n === 1
+      ? { grid: Math.min(40000, Math.max(1000, 2 ** Math.min(p + 2, 30))), random: 400, attractor: 200 }
+      : n === 2
+        ? { grid: 40, random: 600, attractor: 400 }
+        : { grid: Math.max(2, Math.round(Math.pow(600, 1 / n))), random: 600, attractor: 400 };
+  // Long shooting vectors: every grid or random seed is a Newton solve in p·n unknowns, and long
+  // orbits are found by the attractor seeds anyway; cap the grid and random seeds by a work
+  // budget of ~2·10^5 seed-unknowns each (a period-1000 search then takes seconds, not minutes).
+  const unknowns = p * n;
+  if (unknowns > 50) {
+    const cap = Math.max(20, Math.ceil(2e5 / unknowns));
+    e.grid = n === 1 ? Math.min(e.grid, cap) : Math.min(e.grid, Math.max(2, Math.floor(Math.sqrt(cap))));
+    e.random = Math.min(e.random, cap);
+  }
+  return e;
 }
 
 /**
@@ -219,8 +232,8 @@ function defaultEffort(n: number, p: number): { grid: number; random: number; at
  * and has minimal period exactly p (tolerance 1e-7·(1 + region scale)). Cyclic shifts and
  * repeats are merged. Seeds that escape or produce NaN are dropped silently.
  * Default effort: n = 1: min(40000, max(1000, 2^(p+2))) grid + 400 random + 200 attractor
- * seeds; n = 2: 40×40 grid +
- * 600 random + 400 attractor seeds. Result sorted lexicographically by first point.
+ * seeds; n = 2: 40×40 grid + 600 random + 400 attractor seeds; when p·n > 50 the grid and random
+ * seeds are capped at max(20, 2·10^5/(p·n)) each (per axis: its square root for n ≥ 2). Result sorted lexicographically by first point.
  * Throws SearchOptionError for bad options, and the compiler's MapLanguageError for bad `params`.
  */
 export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Candidate[] {
