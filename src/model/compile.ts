@@ -37,16 +37,7 @@ export function withParameterAsState(map: FormulaMap, name: string): FormulaMap 
   const def = map.definition;
   const value = def.params[name];
   if (value === undefined) {
-    throw new MapLanguageError({
-      code: 'unknown-parameter',
-      message: `the map has no parameter '${name}'`,
-      key: `params.${name}`,
-      file: def.origin,
-      line: 0,
-      column: 0,
-      text: name,
-      hint: suggestionHint(name, Object.keys(def.params), 'give one of the map parameters'),
-    });
+    throw unknownParameter(name, def.origin, Object.keys(def.params), 'give one of the map parameters');
   }
   const params: Record<string, ParamValue> = Object.create(null) as Record<string, ParamValue>;
   for (const [k, v] of Object.entries(def.params)) if (k !== name) params[k] = v;
@@ -86,17 +77,8 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
   const definition = checked.definition;
   for (const { name, value } of overrideList(overrides)) {
     if (!checked.paramNames.includes(name)) {
-      throw new MapLanguageError({
-        code: 'unknown-parameter',
-        message: `the map has no parameter '${name}'`,
-        key: `params.${name}`,
-        file: definition.origin,
-        line: 0,
-        column: 0,
-        text: name,
-        hint: suggestionHint(name, checked.paramNames,
-          checked.paramNames.length > 0 ? `its parameters are ${checked.paramNames.join(', ')}` : 'this map has no parameters'),
-      });
+      const names = checked.paramNames;
+      throw unknownParameter(name, definition.origin, names, names.length > 0 ? `its parameters are ${names.join(', ')}` : 'this map has no parameters');
     }
     definition.params[name] = checkParamValue(value, `params.${name}`);
   }
@@ -139,4 +121,18 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
       return new SecondOrderEvaluator<T>(tape, arith, enclosures);
     },
   };
+}
+
+/** The error for a parameter name the map does not have (an override or a lookup). */
+function unknownParameter(name: string, file: string | undefined, known: readonly string[], fallbackHint: string): MapLanguageError {
+  return new MapLanguageError({
+    code: 'unknown-parameter',
+    message: `the map has no parameter '${name}'`,
+    key: `params.${name}`,
+    file,
+    line: 0,
+    column: 0,
+    text: name,
+    hint: suggestionHint(name, [...known], fallbackHint),
+  });
 }
