@@ -1,3 +1,5 @@
+// Check values here are invented demo/test data and its exact round trip (what goes in must come
+// out unchanged); no outside reference value is involved.
 import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';

@@ -1,3 +1,5 @@
+// Check values here are invented demo/test data and its exact round trip (what goes in must come
+// out unchanged); no outside reference value is involved.
 /** Creating the output folder without mkdirSync(recursive) (it loops forever under /proc on Linux). */
 import { existsSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';

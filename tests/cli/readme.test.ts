@@ -1,3 +1,5 @@
+// Check values here are invented demo/test data and its exact round trip (what goes in must come
+// out unchanged); no outside reference value is involved.
 /** README.md stays true: the quick start is exactly two lines, and every command it shows runs. */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';

@@ -1,3 +1,5 @@
+// Check values here are invented demo/test data and its exact round trip (what goes in must come
+// out unchanged); no outside reference value is involved.
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
