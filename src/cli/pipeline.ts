@@ -219,11 +219,12 @@ export async function certifyOrbits(
         outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
       }
     }
-    if (outcome.status !== 'rejected-by-checker' && orbit.minimalPeriod !== opts.period) {
-      outcome.reason = minimalPeriodNotShown(opts.period);
-    } else if (outcome.status !== 'rejected-by-checker' && startPoints) {
-      const moved = startDrift(startPoints[0]!, orbit.centre);
-      if (moved > 1e-6) outcome.reason = `note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`;
+    if (outcome.status !== 'rejected-by-checker') {
+      const notes: string[] = [];
+      if (orbit.minimalPeriod !== opts.period) notes.push(minimalPeriodNotShown(opts.period));
+      const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;
+      if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
+      if (notes.length > 0) outcome.reason = notes.join('; ');
     }
     outcomes.push(outcome);
   }

@@ -65,3 +65,15 @@ describe('prove --start far from the orbit it converges to', () => {
     expect(r.stdout).not.toMatch(/Newton moved/);
   });
 });
+
+describe('both notes survive together', () => {
+  it('a far --start that converges to a fixed point: minimal period NOT shown AND Newton moved the point', async () => {
+    // r = 3.83, period 2 from 0.7: Newton converges to the fixed point 1 − 1/r ≈ 0.7389 (closed form,
+    // derived by hand), 0.039 away from the start (relative drift ≈ 0.023 > 1e-6)
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '2', '--start', '0.7', '--out', fresh()]);
+    expect(r.exitCode).toBe(1);
+    const flat = r.stdout.replace(/\s+/g, ' ');
+    expect(flat).toMatch(/minimal period 2 NOT shown/);
+    expect(flat).toMatch(/Newton moved the --start point/);
+  });
+});
