@@ -16,7 +16,7 @@ export function importSpecifiers(src: string): string[] {
 
 function allowed(spec: string): boolean {
   if (spec === 'decimal.js' || spec.startsWith('node:')) return true;
-  if (spec === '../certificate/types.js') return true;
+  if (spec === '../certificate/types.js' || spec === '../certificate/limits.js') return true;
   return /^\.\/[\w-]+\.js$/.test(spec); // sibling checker files only
 }
 
