@@ -17,6 +17,14 @@ import * as K from './kernel.js';
 import { E, ENTIRE, Interval, PI, isEmpty, mag, mid, mig } from './interval.js';
 import { addUp, subDown, subUp } from './round.js';
 
+/** Every instance made by `intervalArithmetic()` (so compiled evaluators can recognise T = Interval). */
+const INSTANCES = new WeakSet<object>();
+
+/** True when `a` was made by `intervalArithmetic()` (its T is `Interval`). */
+export function isFloatIntervalArithmetic(a: object): a is IntervalArithmetic<Interval> {
+  return INSTANCES.has(a);
+}
+
 export function intervalArithmetic(): IntervalArithmetic<Interval> {
   const status: EvalStatus = { continuous: true, assumed: false, nonsmooth: false };
   const S = new Float64Array(2);
@@ -126,5 +134,6 @@ export function intervalArithmetic(): IntervalArithmetic<Interval> {
       return new Interval(lo, hi);
     },
   };
+  INSTANCES.add(arith);
   return arith;
 }

@@ -4,15 +4,18 @@
  * carries the flat float64 interval image (generated straight-line code) and second-order
  * forward-mode evaluation for fold/flip work.
  */
-import type { Arithmetic } from '../interval/arithmetic.js';
+import { resetStatus, type Arithmetic } from '../interval/arithmetic.js';
 import { createFloatArithmetic } from '../interval/float-arith.js';
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
-import { compileFlat, type FlatImage } from '../expr/flat.js';
+import { compileFlat, compileFlatJacobian, type FlatImage, type FlatJacobianImage } from '../expr/flat.js';
+import { compileFloatCode } from '../expr/float-code.js';
+import { intervalArithmetic, isFloatIntervalArithmetic } from '../interval/interval-arith.js';
+import { Interval } from '../interval/interval.js';
 import { SecondOrderEvaluator } from '../expr/second-order.js';
 import { buildTape, type Tape } from '../expr/tape.js';
 import type { ParamOverride } from './params.js';
-import type { CompiledMap, MapDefinition, MapEvaluator, ParamValue } from './types.js';
+import { BOX_ASSUMED, BOX_DISCONTINUOUS, BOX_NONSMOOTH, type CompiledMap, type MapDefinition, type MapEvaluator, type ParamValue } from './types.js';
 import { checkParamValue, validateDefinition } from './validate.js';
 
 export interface FormulaMap extends CompiledMap {
@@ -88,11 +91,15 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
   const tape = buildTape(checked.formulas, definition.state, paramNames);
   const n = definition.state.length;
 
+  // @heuristic float image/Jacobian: generated straight-line code, bit-identical to the tape
+  // evaluator over float arithmetic (tests/expr/float-code.test.ts); the tape for huge formulas.
+  const floatCode = compileFloatCode(tape, enclosures);
   const floatEval = new TapeEvaluator<number>(tape, createFloatArithmetic(), enclosures);
   const xs = new Array<number>(n).fill(0);
   const ys = new Array<number>(n).fill(0);
   const jac = new Array<number>(n * n).fill(0);
   let flat: FlatImage | undefined;
+  const box = compiledBox(tape, enclosures, n, () => (flat ??= compileFlat(tape, enclosures)));
 
   return {
     definition,
@@ -101,18 +108,29 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
     paramNames,
     paramValues,
     evalFloat(x, out) {
+      if (floatCode !== undefined) {
+        floatCode.image(x, out);
+        return;
+      }
       for (let i = 0; i < n; i++) xs[i] = x[i]!;
       floatEval.image(xs, ys);
       for (let i = 0; i < n; i++) out[i] = ys[i]!;
     },
     jacobianFloat(x, out) {
+      if (floatCode !== undefined) {
+        floatCode.imageAndJacobian(x, box.floatOut, out);
+        return;
+      }
       for (let i = 0; i < n; i++) xs[i] = x[i]!;
       floatEval.imageAndJacobian(xs, ys, jac);
       for (let i = 0; i < n * n; i++) out[i] = jac[i]!;
     },
     evaluator<T>(arith: Arithmetic<T>): MapEvaluator<T> {
+      if (isFloatIntervalArithmetic(arith)) return box.evaluator(arith) as unknown as MapEvaluator<T>;
       return new TapeEvaluator<T>(tape, arith, enclosures);
     },
+    intervalImage: box.image,
+    intervalJacobian: box.jacobian,
     flatImage() {
       flat ??= compileFlat(tape, enclosures);
       return flat;
@@ -121,6 +139,116 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
       return new SecondOrderEvaluator<T>(tape, arith, enclosures);
     },
   };
+}
+
+/**
+ * The float64 interval image and Jacobian of a box through generated straight-line code
+ * (`compileFlat` / `compileFlatJacobian`, compiled on first use), with the tape evaluator over
+ * `intervalArithmetic()` where no generated Jacobian exists (abs, min, max, pow: slope rules).
+ * Register files are allocated once; not thread-safe (like every evaluator).
+ */
+function compiledBox(tape: Tape, enclosures: readonly ParamEnclosure[], n: number, flatOf: () => FlatImage) {
+  let imageR: Float64Array | undefined;
+  let jacobian: FlatJacobianImage | null | undefined;
+  let jacR: Float64Array | undefined;
+  let tapeArith: ReturnType<typeof intervalArithmetic> | undefined;
+  let tapeEval: TapeEvaluator<Interval> | undefined;
+  const xi: Interval[] = new Array<Interval>(n);
+  const fi: Interval[] = new Array<Interval>(n);
+  const ji: Interval[] = new Array<Interval>(n * n);
+  const floatOut = new Float64Array(n);
+  const statusFlags = (R: Float64Array): number => (R[0] === 1 ? 0 : BOX_DISCONTINUOUS) | (R[1] === 1 ? BOX_ASSUMED : 0);
+
+  const viaTape = (x: Float64Array, out: Float64Array, jac: Float64Array | null): number => {
+    if (tapeEval === undefined) {
+      tapeArith = intervalArithmetic();
+      tapeEval = new TapeEvaluator<Interval>(tape, tapeArith, enclosures);
+    }
+    const A = tapeArith!;
+    resetStatus(A);
+    for (let i = 0; i < n; i++) xi[i] = new Interval(x[2 * i]!, x[2 * i + 1]!);
+    if (jac === null) tapeEval.image(xi, fi);
+    else tapeEval.imageAndJacobian(xi, fi, ji);
+    for (let i = 0; i < n; i++) {
+      out[2 * i] = fi[i]!.lo;
+      out[2 * i + 1] = fi[i]!.hi;
+    }
+    if (jac !== null) {
+      for (let k = 0; k < n * n; k++) {
+        jac[2 * k] = ji[k]!.lo;
+        jac[2 * k + 1] = ji[k]!.hi;
+      }
+    }
+    return (A.status.continuous ? 0 : BOX_DISCONTINUOUS) | (A.status.assumed ? BOX_ASSUMED : 0) | (A.status.nonsmooth === true ? BOX_NONSMOOTH : 0);
+  };
+
+  const image = (x: Float64Array, out: Float64Array): number => {
+    const f = flatOf();
+    const R = (imageR ??= f.newRegisters());
+    f.resetStatus(R);
+    for (let i = 0; i < n; i++) f.setInput(R, i, x[2 * i]!, x[2 * i + 1]!);
+    f.run(R);
+    const o = f.outputRegisters;
+    for (let i = 0; i < n; i++) {
+      out[2 * i] = R[2 * o[i]!]!;
+      out[2 * i + 1] = R[2 * o[i]! + 1]!;
+    }
+    return statusFlags(R);
+  };
+
+  const jacobianOf = (x: Float64Array, out: Float64Array, jac: Float64Array): number => {
+    if (jacobian === undefined) jacobian = compileFlatJacobian(tape, enclosures) ?? null;
+    if (jacobian === null) return viaTape(x, out, jac);
+    const f = jacobian;
+    const R = (jacR ??= f.newRegisters());
+    f.resetStatus(R);
+    for (let i = 0; i < n; i++) f.setInput(R, i, x[2 * i]!, x[2 * i + 1]!);
+    f.run(R);
+    const o = f.outputRegisters;
+    for (let i = 0; i < n; i++) {
+      out[2 * i] = R[2 * o[i]!]!;
+      out[2 * i + 1] = R[2 * o[i]! + 1]!;
+    }
+    const jr = f.jacobianRegisters;
+    for (let k = 0; k < n * n; k++) {
+      jac[2 * k] = R[2 * jr[k]!]!;
+      jac[2 * k + 1] = R[2 * jr[k]! + 1]!;
+    }
+    return statusFlags(R);
+  };
+
+  /** MapEvaluator<Interval> over the compiled box functions, flags reported in `arith.status`. */
+  const evaluator = (arith: { status: { continuous: boolean; assumed: boolean; nonsmooth?: boolean } }): MapEvaluator<Interval> => {
+    const bx = new Float64Array(2 * n);
+    const bo = new Float64Array(2 * n);
+    const bj = new Float64Array(2 * n * n);
+    const load = (x: readonly Interval[]): void => {
+      for (let i = 0; i < n; i++) {
+        bx[2 * i] = x[i]!.lo;
+        bx[2 * i + 1] = x[i]!.hi;
+      }
+    };
+    const report = (flags: number): void => {
+      if (flags & BOX_DISCONTINUOUS) arith.status.continuous = false;
+      if (flags & BOX_ASSUMED) arith.status.assumed = true;
+      if (flags & BOX_NONSMOOTH) arith.status.nonsmooth = true;
+    };
+    return {
+      image(x, out) {
+        load(x);
+        report(image(bx, bo));
+        for (let i = 0; i < n; i++) out[i] = new Interval(bo[2 * i]!, bo[2 * i + 1]!);
+      },
+      imageAndJacobian(x, out, jac) {
+        load(x);
+        report(jacobianOf(bx, bo, bj));
+        for (let i = 0; i < n; i++) out[i] = new Interval(bo[2 * i]!, bo[2 * i + 1]!);
+        for (let k = 0; k < n * n; k++) jac[k] = new Interval(bj[2 * k]!, bj[2 * k + 1]!);
+      },
+    };
+  };
+
+  return { image, jacobian: jacobianOf, evaluator, floatOut };
 }
 
 /** The error for a parameter name the map does not have (an override or a lookup). */

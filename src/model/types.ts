@@ -45,6 +45,29 @@ export interface CompiledMap {
   evalFloat(x: ArrayLike<number>, out: Float64Array): void;
   /** @heuristic float Jacobian, row-major n×n. */
   jacobianFloat(x: ArrayLike<number>, out: Float64Array): void;
-  /** Evaluator over any arithmetic; parameters enclosed exactly by `arith.constant`. */
+  /**
+   * Evaluator over any arithmetic; parameters enclosed exactly by `arith.constant`. Over the
+   * float64 interval arithmetic (`intervalArithmetic()`) it runs `intervalImage` /
+   * `intervalJacobian` (generated straight-line code) and reports their flags in `arith.status`.
+   */
   evaluator<T>(arith: Arithmetic<T>): MapEvaluator<T>;
+  /**
+   * Float64 interval image of a box, allocation-free: box[2i], box[2i+1] = lo, hi of x_i, and
+   * out the same layout for f_i. Encloses f over the box (outward rounding, generated code from the
+   * checked tape; the tape evaluator's kernel decides every special case). Returns `BOX_*` flags
+   * (0: continuous on the whole box, no assumption).
+   */
+  intervalImage(box: Float64Array, out: Float64Array): number;
+  /**
+   * `intervalImage` plus jac[2(i·n + j)], jac[2(i·n + j) + 1] = lo, hi of an enclosure of
+   * ∂f_i/∂x_j over the whole box (for abs/min/max a slope enclosure, flag `BOX_NONSMOOTH`).
+   */
+  intervalJacobian(box: Float64Array, out: Float64Array, jac: Float64Array): number;
 }
+
+/** Flag of `intervalImage`/`intervalJacobian`: some operation left its domain of continuity (or overflowed). */
+export const BOX_DISCONTINUOUS = 1;
+/** Flag: some result rests on the Math.* accuracy assumption (status.assumed). */
+export const BOX_ASSUMED = 2;
+/** Flag: a slope enclosure at a kink of abs/min/max was used (status.nonsmooth). */
+export const BOX_NONSMOOTH = 4;
