@@ -11,6 +11,7 @@ interface BenchSpec {
 const BENCHES: BenchSpec[] = [
   { title: 'interval kernel', module: './interval-bench.js', fn: 'runIntervalBench' },
   { title: 'map language', module: './expr-bench.js', fn: 'runExprBench' },
+  { title: 'production evaluation path', module: './eval-bench.js', fn: 'runEvalBench' },
   { title: 'candidate search', module: './search-bench.js', fn: 'runSearchBench' },
   { title: 'prover', module: './prove-bench.js', fn: 'runProveBench' },
   { title: 'independent checker', module: './check-bench.js', fn: 'runCheckBench' },

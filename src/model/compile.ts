@@ -8,7 +8,7 @@ import { resetStatus, type Arithmetic } from '../interval/arithmetic.js';
 import { createFloatArithmetic } from '../interval/float-arith.js';
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
-import { compileFlat, compileFlatJacobian, type FlatImage, type FlatJacobianImage } from '../expr/flat.js';
+import { compileFlat, compileFlatJacobian, type FlatImage } from '../expr/flat.js';
 import { compileFloatCode } from '../expr/float-code.js';
 import { intervalArithmetic, isFloatIntervalArithmetic } from '../interval/interval-arith.js';
 import { Interval } from '../interval/interval.js';
@@ -141,6 +141,46 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
   };
 }
 
+type BoxCall = (x: Float64Array, out: Float64Array, jac: Float64Array) => number;
+
+/**
+ * The copy in / run / copy out of one flat image as a generated function with constant register
+ * offsets (built only from integers we produce, checked by `Number.isSafeInteger`): resets the
+ * status (constant flags re-applied), loads the box, runs, stores image (and Jacobian), returns
+ * the BOX_* flags.
+ */
+function boxCall(f: FlatImage, R: Float64Array, jacobianRegisters: Int32Array | null): BoxCall {
+  const int = (k: number): string => {
+    if (!Number.isSafeInteger(k)) throw new Error(`internal: non-integer ${k} in generated code`);
+    return String(k);
+  };
+  const n = f.dim;
+  const lines: string[] = ['reset(R);'];
+  for (let i = 0; i < n; i++) {
+    const r = f.inputRegisters[i]!;
+    lines.push(`R[${int(2 * r)}] = x[${int(2 * i)}]; R[${int(2 * r + 1)}] = x[${int(2 * i + 1)}];`);
+  }
+  lines.push('run(R);');
+  for (let i = 0; i < n; i++) {
+    const r = f.outputRegisters[i]!;
+    lines.push(`out[${int(2 * i)}] = R[${int(2 * r)}]; out[${int(2 * i + 1)}] = R[${int(2 * r + 1)}];`);
+  }
+  if (jacobianRegisters !== null) {
+    for (let k = 0; k < jacobianRegisters.length; k++) {
+      const r = jacobianRegisters[k]!;
+      lines.push(`jac[${int(2 * k)}] = R[${int(2 * r)}]; jac[${int(2 * k + 1)}] = R[${int(2 * r + 1)}];`);
+    }
+  }
+  lines.push(`return (R[0] === 1 ? 0 : ${int(BOX_DISCONTINUOUS)}) | (R[1] === 1 ? ${int(BOX_ASSUMED)} : 0);`);
+  // code generated from integers only (register offsets, indices, flag values)
+  const factory = new Function('R', 'reset', 'run', `"use strict";\nreturn function boxCall(x, out, jac) {\n${lines.join('\n')}\n};`) as (
+    R: Float64Array,
+    reset: (R: Float64Array) => void,
+    run: (R: Float64Array) => void,
+  ) => BoxCall;
+  return factory(R, f.resetStatus, f.run);
+}
+
 /**
  * The float64 interval image and Jacobian of a box through generated straight-line code
  * (`compileFlat` / `compileFlatJacobian`, compiled on first use), with the tape evaluator over
@@ -148,16 +188,12 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
  * Register files are allocated once; not thread-safe (like every evaluator).
  */
 function compiledBox(tape: Tape, enclosures: readonly ParamEnclosure[], n: number, flatOf: () => FlatImage) {
-  let imageR: Float64Array | undefined;
-  let jacobian: FlatJacobianImage | null | undefined;
-  let jacR: Float64Array | undefined;
   let tapeArith: ReturnType<typeof intervalArithmetic> | undefined;
   let tapeEval: TapeEvaluator<Interval> | undefined;
   const xi: Interval[] = new Array<Interval>(n);
   const fi: Interval[] = new Array<Interval>(n);
   const ji: Interval[] = new Array<Interval>(n * n);
   const floatOut = new Float64Array(n);
-  const statusFlags = (R: Float64Array): number => (R[0] === 1 ? 0 : BOX_DISCONTINUOUS) | (R[1] === 1 ? BOX_ASSUMED : 0);
 
   const viaTape = (x: Float64Array, out: Float64Array, jac: Float64Array | null): number => {
     if (tapeEval === undefined) {
@@ -182,39 +218,23 @@ function compiledBox(tape: Tape, enclosures: readonly ParamEnclosure[], n: numbe
     return (A.status.continuous ? 0 : BOX_DISCONTINUOUS) | (A.status.assumed ? BOX_ASSUMED : 0) | (A.status.nonsmooth === true ? BOX_NONSMOOTH : 0);
   };
 
+  let imageCall: BoxCall | undefined;
   const image = (x: Float64Array, out: Float64Array): number => {
-    const f = flatOf();
-    const R = (imageR ??= f.newRegisters());
-    f.resetStatus(R);
-    for (let i = 0; i < n; i++) f.setInput(R, i, x[2 * i]!, x[2 * i + 1]!);
-    f.run(R);
-    const o = f.outputRegisters;
-    for (let i = 0; i < n; i++) {
-      out[2 * i] = R[2 * o[i]!]!;
-      out[2 * i + 1] = R[2 * o[i]! + 1]!;
+    if (imageCall === undefined) {
+      const f = flatOf();
+      imageCall = boxCall(f, f.newRegisters(), null);
     }
-    return statusFlags(R);
+    return imageCall(x, out, out);
   };
 
+  let jacobianCall: BoxCall | null | undefined;
   const jacobianOf = (x: Float64Array, out: Float64Array, jac: Float64Array): number => {
-    if (jacobian === undefined) jacobian = compileFlatJacobian(tape, enclosures) ?? null;
-    if (jacobian === null) return viaTape(x, out, jac);
-    const f = jacobian;
-    const R = (jacR ??= f.newRegisters());
-    f.resetStatus(R);
-    for (let i = 0; i < n; i++) f.setInput(R, i, x[2 * i]!, x[2 * i + 1]!);
-    f.run(R);
-    const o = f.outputRegisters;
-    for (let i = 0; i < n; i++) {
-      out[2 * i] = R[2 * o[i]!]!;
-      out[2 * i + 1] = R[2 * o[i]! + 1]!;
+    if (jacobianCall === undefined) {
+      const f = compileFlatJacobian(tape, enclosures);
+      jacobianCall = f === undefined ? null : boxCall(f, f.newRegisters(), f.jacobianRegisters);
     }
-    const jr = f.jacobianRegisters;
-    for (let k = 0; k < n * n; k++) {
-      jac[2 * k] = R[2 * jr[k]!]!;
-      jac[2 * k + 1] = R[2 * jr[k]! + 1]!;
-    }
-    return statusFlags(R);
+    if (jacobianCall === null) return viaTape(x, out, jac);
+    return jacobianCall(x, out, jac);
   };
 
   /** MapEvaluator<Interval> over the compiled box functions, flags reported in `arith.status`. */
