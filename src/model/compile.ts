@@ -24,6 +24,11 @@ export interface FormulaMap extends CompiledMap {
   /** Parameter names in tape order, with their effective (overridden) values. */
   readonly paramNames: readonly string[];
   readonly paramValues: readonly ParamValue[];
+  /**
+   * The generic tape evaluator over any arithmetic (the kernel's tight rounding; the reference of
+   * the generated code): for one-off displays where the last ulp shows (`show`'s region image).
+   */
+  tapeEvaluator<T>(arith: Arithmetic<T>): MapEvaluator<T>;
   /** The allocation-free float64 interval image (compiled once, on first use). */
   flatImage(): FlatImage;
   /** Value, Jacobian and second derivatives over any arithmetic (nested forward mode). */
@@ -127,6 +132,9 @@ export function compileMap(def: MapDefinition, overrides?: ParamOverrides): Form
     },
     evaluator<T>(arith: Arithmetic<T>): MapEvaluator<T> {
       if (isFloatIntervalArithmetic(arith)) return box.evaluator(arith) as unknown as MapEvaluator<T>;
+      return new TapeEvaluator<T>(tape, arith, enclosures);
+    },
+    tapeEvaluator<T>(arith: Arithmetic<T>): MapEvaluator<T> {
       return new TapeEvaluator<T>(tape, arith, enclosures);
     },
     intervalImage: box.image,

@@ -4,6 +4,7 @@
  */
 import { resetStatus, type IntervalArithmetic } from '../interval/arithmetic.js';
 import type { CompiledMap, ParamValue } from './types.js';
+import type { FormulaMap } from './compile.js';
 
 export interface MapDescription {
   title: string;
@@ -40,7 +41,10 @@ export function describeMap<T>(compiled: CompiledMap, arith: IntervalArithmetic<
   const box = def.state.map((s) => arith.constant(def.region[s]![0], def.region[s]![1]));
   const out = new Array<T>(compiled.dim);
   resetStatus(arith);
-  compiled.evaluator(arith).image(box, out);
+  // the tape evaluator where available: tight ends for display (the generated code may step one
+  // ulp — or 2^-1000 at 0 — outward, src/expr/flat.ts)
+  const tight = (compiled as Partial<FormulaMap>).tapeEvaluator;
+  (tight !== undefined ? tight<T>(arith) : compiled.evaluator(arith)).image(box, out);
   const imageContinuous = arith.status.continuous;
   const imageAssumed = arith.status.assumed;
   const result: MapDescription = {
