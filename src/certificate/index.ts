@@ -12,6 +12,7 @@ export {
 export {
   writeCertificate,
   writeFileAtomic,
+  DirectorySync,
   serializeCertificate,
   certificateFileName,
   mapSlug,

@@ -142,6 +142,35 @@ export function serializeCertificate(cert: CertificateV1): string {
 export interface WriteOptions {
   /** Replace an existing file (default false: refuse with CERT_EXISTS). */
   force?: boolean;
+  /**
+   * Defer the folder fsync to `dirSync.flush()` (once per folder per batch) instead of once per
+   * file. The file's own data is still fsynced before it gets its name, so a reader or a crash
+   * never sees a half-written certificate; until the flush a crash may lose a NAME (the file is
+   * then absent, never partial). Callers flush before they report the batch as written.
+   */
+  dirSync?: DirectorySync;
+}
+
+/**
+ * The folders a batch of atomic writes still owes an fsync (see `WriteOptions.dirSync`).
+ * `flush()` syncs each once and forgets them; it never throws (like the per-file folder sync,
+ * a platform that cannot fsync a folder is not an error).
+ */
+export class DirectorySync {
+  private readonly pending = new Set<string>();
+  /** `sync` is replaceable for tests (counting calls); default: open + fsync + close. */
+  constructor(private readonly sync: (dir: string) => void = fsyncDir) {}
+  add(dir: string): void {
+    this.pending.add(resolve(dir));
+  }
+  /** Number of folders waiting for their fsync. */
+  get size(): number {
+    return this.pending.size;
+  }
+  flush(): void {
+    for (const d of this.pending) this.sync(d);
+    this.pending.clear();
+  }
 }
 
 function fsyncDir(dir: string): void {
@@ -200,7 +229,8 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
         renameSync(tmp, target);
       }
     }
-    fsyncDir(dir);
+    if (opts.dirSync !== undefined) opts.dirSync.add(dir);
+    else fsyncDir(dir);
     return target;
   } catch (e) {
     try {

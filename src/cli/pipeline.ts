@@ -6,7 +6,7 @@
 import { join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
 import type { ProvenOrbit } from '../prove/types.js';
-import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
+import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
@@ -192,6 +192,9 @@ export async function certifyOrbits(
 
   const outcomes: OrbitOutcome[] = [];
   let k = 0;
+  // one folder fsync for the whole run (each file's data is synced as it is written)
+  const dirSync = new DirectorySync();
+  try {
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
     opts.progress?.(index, chosen.length);
@@ -207,6 +210,7 @@ export async function certifyOrbits(
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k)), cert, {
       force: opts.force ?? false,
+      dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
     if (checker) {
@@ -227,6 +231,9 @@ export async function certifyOrbits(
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
     outcomes.push(outcome);
+  }
+  } finally {
+    dirSync.flush();
   }
 
   // Asked for minimal period P: a solution of the period-P system whose boxes overlap (a fixed
