@@ -390,8 +390,16 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
 
 /** Check files and directories (every *.json inside, recursively, symlinked directories not followed). */
 export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckReport[] {
-  const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
-  const out: CheckReport[] = [];
+  return listCheckTargets(paths, opts).map((t) => (typeof t === 'string' ? checkFile(t, opts) : t));
+}
+
+/**
+ * What `checkPaths` would check, in its order, without checking: each regular file as its path,
+ * each thing that cannot be checked as its UNREADABLE report (so a caller may check the files in
+ * parallel with `checkFile` and keep the order).
+ */
+export function listCheckTargets(paths: string[], opts: CheckOptions = {}): (string | CheckReport)[] {
+  const out: (string | CheckReport)[] = [];
   const unreadable = (file: string, reason: string): CheckReport => ({
     verdict: 'UNREADABLE', file, reason, claimsVerified: [], digits: opts.digits ?? DEFAULT_DIGITS, elapsedMs: 0,
   });
@@ -415,21 +423,34 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
       if (top) out.push(unreadable(p, 'not a regular file or directory'));
       return;
     }
-    if (st.size > limits.maxFileBytes) {
-      out.push(unreadable(p, `file is ${st.size} bytes, larger than the limit of ${limits.maxFileBytes} bytes`));
-      return;
-    }
-    let text: string;
-    try {
-      text = readFileSync(p, 'utf8');
-    } catch (e) {
-      out.push(unreadable(p, `cannot read: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`));
-      return;
-    }
-    out.push({ ...checkCertificate(text, opts), file: p });
+    out.push(p);
   };
   for (const p of paths) visit(p, true);
   return out;
+}
+
+/** Checks one certificate file (size limit, read, `checkCertificate`). */
+export function checkFile(p: string, opts: CheckOptions = {}): CheckReport {
+  const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
+  const unreadable = (reason: string): CheckReport => ({
+    verdict: 'UNREADABLE', file: p, reason, claimsVerified: [], digits: opts.digits ?? DEFAULT_DIGITS, elapsedMs: 0,
+  });
+  let st;
+  try {
+    st = statSync(p);
+  } catch (e) {
+    return unreadable(`cannot read: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+  }
+  if (st.size > limits.maxFileBytes) {
+    return unreadable(`file is ${st.size} bytes, larger than the limit of ${limits.maxFileBytes} bytes`);
+  }
+  let text: string;
+  try {
+    text = readFileSync(p, 'utf8');
+  } catch (e) {
+    return unreadable(`cannot read: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+  }
+  return { ...checkCertificate(text, opts), file: p };
 }
 
 export { canonicalJson, certificateHash } from './json.js';

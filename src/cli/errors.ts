@@ -25,6 +25,7 @@ export type UsageErrorCode =
   | 'bad-period'
   | 'bad-near'
   | 'bad-digits'
+  | 'bad-workers'
   | 'bad-limit'
   | 'bad-start'
   | 'bad-max-bits'

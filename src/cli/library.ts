@@ -6,6 +6,7 @@ import { checkCertificate, checkPaths, type CheckReport } from '../checker/index
 import { compileMap, describeMap, parseMapSource, parseParamOverride, resolveMap } from '../model/index.js';
 import { proveOrbit, type OrbitVerdict } from '../prove/index.js';
 import { findCandidates, type Candidate } from '../search/index.js';
+import { checkMany } from '../workflow/check.js';
 
 export type CandidateLike = Candidate;
 export type ProveVerdictLike = OrbitVerdict;
@@ -20,3 +21,5 @@ export const model = async () => modelModule;
 export const search = async () => searchModule;
 export const prove = async () => proveModule;
 export const checker = async () => checkerModule;
+const workflowModule = { checkMany };
+export const workflow = async () => workflowModule;

@@ -1,4 +1,5 @@
 /** Validation of command-line option values (user mistakes become UsageError, exit 2). */
+import { MAX_WORKERS } from '../workflow/pool.js';
 import { DEFAULT_LIMITS } from '../checker/index.js';
 import { UsageError } from './errors.js';
 
@@ -112,4 +113,20 @@ export function parseStart(text: string, dim: number): string[] {
     );
   }
   return parts;
+}
+
+/** `--workers K`: worker threads, 1 to MAX_WORKERS (src/workflow/pool.ts). */
+export function parseWorkers(text: string): number {
+  const ok = /^\s*\+?\d+\s*$/.test(text);
+  const v = ok ? Number(text.trim()) : Number.NaN;
+  if (!Number.isSafeInteger(v) || v < 1 || v > MAX_WORKERS) {
+    throw new UsageError(
+      'bad-workers',
+      '--workers',
+      text,
+      `expected a whole number from 1 to ${MAX_WORKERS}`,
+      'write e.g. --workers 2, or leave --workers out to use every core',
+    );
+  }
+  return v;
 }

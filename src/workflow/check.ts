@@ -1,0 +1,30 @@
+/**
+ * `checkMany`: the `check` workflow over files and folders, on all cores. Same reports, in the same
+ * order, as the checker's sequential `checkPaths` (the folder walk is the checker's own
+ * `listCheckTargets`; each file is checked by `checkFile` in some worker).
+ */
+import { listCheckTargets, type CheckReport } from '../checker/index.js';
+import type { CheckTask } from './check-task.js';
+import { runPool } from './pool.js';
+
+export interface CheckManyOptions {
+  digits?: number;
+  /** Worker threads (default: the number of cores). */
+  workers?: number;
+  /** Finished certificates so far, across workers. */
+  progress?: (done: number, total: number) => void;
+}
+
+const CHECK_TASK = { module: new URL('./check-task.js', import.meta.url).href, exportName: 'checkTask' };
+
+export async function checkMany(paths: string[], opts: CheckManyOptions = {}): Promise<CheckReport[]> {
+  const targets = listCheckTargets(paths, opts.digits !== undefined ? { digits: opts.digits } : {});
+  const tasks: CheckTask[] = [];
+  for (const t of targets) if (typeof t === 'string') tasks.push(opts.digits !== undefined ? { file: t, digits: opts.digits } : { file: t });
+  const checked = await runPool<CheckTask, CheckReport>(CHECK_TASK, tasks, {
+    ...(opts.workers !== undefined ? { workers: opts.workers } : {}),
+    ...(opts.progress !== undefined ? { progress: opts.progress } : {}),
+  });
+  let k = 0;
+  return targets.map((t) => (typeof t === 'string' ? checked[k++]! : t));
+}
