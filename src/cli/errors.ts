@@ -54,14 +54,6 @@ export class UsageError extends Error {
   }
 }
 
-/** A library layer the CLI needs is not built (yet). An internal condition: exit 3. */
-export class NotAvailableError extends Error {
-  override readonly name = 'NotAvailableError';
-  constructor(readonly feature: string) {
-    super(`${feature} is not available yet in this build of orbitseal`);
-  }
-}
-
 /** A user-facing error from any layer: has a stable string `code` (and usually a `render()`). */
 interface UserErrorLike {
   code: string;
@@ -95,9 +87,6 @@ export function errorResult(e: unknown, json = false): CommandResult {
       return { stdout: JSON.stringify({ error: detail }, null, 2) + '\n', stderr: renderUserError(e) + '\n', exitCode: EXIT_USAGE };
     }
     return { stdout: '', stderr: renderUserError(e) + '\n', exitCode: EXIT_USAGE };
-  }
-  if (e instanceof NotAvailableError) {
-    return { stdout: '', stderr: `orbitseal: ${e.message} (exit 3).\n`, exitCode: EXIT_INTERNAL };
   }
   const what = e instanceof Error ? `${e.name}: ${e.message}` : String(e);
   return {

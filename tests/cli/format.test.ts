@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
-import { errorResult, NotAvailableError, UsageError } from '../../src/cli/errors.js';
+import { errorResult, UsageError } from '../../src/cli/errors.js';
 import { formatInterval, shortDown, shortUp, table, widthUp } from '../../src/cli/format.js';
 import { parseNear, parsePeriod } from '../../src/cli/options.js';
 
@@ -77,7 +77,6 @@ describe('error channels', () => {
     expect(bug.exitCode).toBe(3);
     expect(bug.stderr).toMatch(/internal error \(this is a bug in orbitseal, not in your input\): TypeError/);
     expect(bug.stderr).not.toMatch(/\n\s+at /);
-    expect(errorResult(new NotAvailableError('the prover')).exitCode).toBe(3);
     // an error from another layer that only looks like a user error by name and code
     const searchErr = Object.assign(new Error('period must be positive'), { name: 'SearchOptionError', code: 'bad-period', hint: 'use 1 or more' });
     expect(errorResult(searchErr)).toEqual({ stdout: '', stderr: 'error [bad-period]: period must be positive\n  hint: use 1 or more\n', exitCode: 2 });
