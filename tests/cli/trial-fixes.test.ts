@@ -54,7 +54,7 @@ describe('prove --out into an unusable folder', () => {
     expect(performance.now() - t0).toBeLessThan(3000);
     expect(r.exitCode).toBe(2);
     expect(r.stdout).toBe('');
-    expect(r.stderr).toMatch(/^\/proc\/nope: error \[CERT_WRITE_FAILED\]: cannot create folder \/proc\/nope: E[A-Z]+ \(.*\)\n {2}hint: /);
+    expect(r.stderr).toMatch(/^\/proc\/nope: error \[cert-write-failed\]: cannot create folder \/proc\/nope: E[A-Z]+ \(.*\)\n {2}hint: /);
     expect(r.stderr).not.toMatch(/(E[A-Z]+): \1/);
   }, 20_000);
 });
