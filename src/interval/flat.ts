@@ -22,14 +22,15 @@
 
 import * as K from './kernel.js';
 
-const PHI = 2 ** -53 * (1 + 2 ** -52);
+/** Relative term φ = 2^-53·(1 + 2^-52) of the fast-path rounding c ± (φ|c| + ε) (Rump et al.). */
+export const PHI = 2 ** -53 * (1 + 2 ** -52);
 /**
  * Absolute term of the fast-path rounding. Rump et al. use η = 2^-1074; any larger ε is also
  * valid (fl(φ|c| + ε) ≥ fl(φ|c| + η) and rounding is monotone, so c + fl(φ|c| + ε) still rounds to
  * ≥ succ(c)). ε = 2^-1000 is a normal number: an operation with the subnormal η as operand takes a
  * microcode assist on x86 (≈10× slower). Cost: for |c| < 2^-947 the step is ε instead of one ulp.
  */
-const EPS = 2 ** -1000;
+export const EPS = 2 ** -1000;
 const MAXV = Number.MAX_VALUE;
 
 /** Record kernel flags in the status register. */

@@ -60,6 +60,7 @@
  */
 import { Decimal } from 'decimal.js';
 import type { EvalStatus, IntervalArithmetic } from './arithmetic.js';
+import { DECIMAL_LITERAL, digitsForBits } from './decimal-literal.js';
 import { decimalValueOfDouble, doubleDown, doubleUp } from './mp-convert.js';
 import {
   atanPoint,
@@ -89,13 +90,6 @@ export const MP_MAX_BITS = 100_000;
 /** Arguments above this make exp/sinh/cosh report overflow (upper end +Infinity). */
 const EXP_LIMIT = new Decimal('1e15');
 
-const DECIMAL_LITERAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-/** Number of significant decimal digits used for `bits` binary digits. */
-export function mpDigitsForBits(bits: number): number {
-  return Math.ceil(bits * Math.log10(2)) + 2;
-}
-
 /**
  * Multiprecision interval arithmetic with `bits` binary digits of working precision
  * (24 <= bits <= 100000). See the header of this file for each operation's contract.
@@ -104,7 +98,7 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
   if (!Number.isInteger(bits) || bits < MP_MIN_BITS || bits > MP_MAX_BITS) {
     throw new RangeError(`mpIntervalArithmetic: bits must be an integer in [${MP_MIN_BITS}, ${MP_MAX_BITS}], got ${bits}`);
   }
-  const digits = mpDigitsForBits(bits);
+  const digits = digitsForBits(bits);
   const { Dn, Up, Nr } = contextFor(digits);
   // Products of two working-precision numbers are exact at 2·digits + 2 (sqrt check).
   const Wide = contextFor(2 * digits + 2).Nr;

@@ -5,7 +5,7 @@ import { resetStatus } from '../../src/interval/arithmetic.js';
 import { createFloatArithmetic } from '../../src/interval/float-arith.js';
 import { intervalArithmetic } from '../../src/interval/interval-arith.js';
 import type { Interval } from '../../src/interval/interval.js';
-import { compareDecimal } from '../../src/model/decimal.js';
+import { compareDecimal } from '../../src/interval/decimal-literal.js';
 
 /** Exact rational p/q (q > 0) vs decimal literal d: sign of d − p/q, with BigInt. */
 function cmpDecimalRational(d: string, p: bigint, q: bigint): number {

@@ -1,7 +1,7 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { loadMap, paramsLine } from './common.js';
 
@@ -35,7 +35,7 @@ export async function proveCommand(
   progressSink?: ProgressSink,
 ): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
+  const maxBits = o.maxBits !== undefined ? parseMaxBits(o.maxBits) : undefined;
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
   if (limit !== undefined && o.all) {
