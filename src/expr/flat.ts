@@ -299,7 +299,8 @@ function buildImage(prog: Program, constStatus: { continuous: boolean; assumed: 
     if (typeof f !== 'function') throw new Error(`internal: src/interval/flat.ts has no ${name}`);
     return f;
   });
-  // code generated from the checked tape only (see the header)
+  // code generated from the checked tape only (see the header): the one place allowed to compile code
+  // eslint-disable-next-line no-new-func
   const factory = new Function(
     ...OP_FUNCTIONS, 'K', 'abs', 'min', 'max',
     `"use strict";\nfunction slow(R) {\n${slowBody}\n}\nreturn function flatImage(R) {\n${fastBody}\n};`,

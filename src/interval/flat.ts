@@ -39,11 +39,6 @@ function flag(R: Float64Array, f: number): void {
   if (f & K.F_ASSUMED) R[1] = 1;
 }
 
-/** Number of doubles needed for n registers (register 0 included). */
-export function registerFileSize(registers: number): number {
-  return 2 * registers;
-}
-
 /** Reset the status register: continuous, no assumption. */
 export function fReset(R: Float64Array): void {
   R[0] = 1;

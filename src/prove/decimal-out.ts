@@ -11,9 +11,6 @@ import { compareDecimal } from '../interval/decimal-literal.js';
 const Exact = Decimal.clone({ precision: 2000, rounding: Decimal.ROUND_HALF_EVEN });
 const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
 const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
-function ctorOf(m: RoundMode): typeof Decimal {
-  return m === 'floor' ? ExactFloor : m === 'ceil' ? ExactCeil : Exact;
-}
 
 export type RoundMode = 'floor' | 'ceil' | 'nearest';
 

@@ -123,7 +123,7 @@ export function proveOrbitWith(
   let best: { claims: AttemptClaims; bits: number } | null = null;
   let lastFailure: { reason: NotProvenReason; detail: string } = { reason: 'undecided', detail: 'not attempted' };
   let mpStart: Decimal[] | null = null;
-  let mpStartOf: () => Decimal[] = () => [];
+  let mpStartOf: () => Decimal[];
 
   // float64 attempt
   {
