@@ -1,8 +1,10 @@
 /** Validation of command-line option values (user mistakes become UsageError, exit 2). */
-import { MAX_DIGITS, MAX_PERIOD } from '../certificate/limits.js';
+import { MAX_BITS, MAX_DIGITS, MAX_PERIOD } from '../certificate/limits.js';
 import { DECIMAL_LITERAL } from '../interval/decimal-literal.js';
-import { MP_MAX_BITS } from '../interval/mp.js';
 import { UsageError, type UsageErrorCode } from './errors.js';
+
+/** Where `prove` writes certificates without --out. */
+export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
 
 /** How one whole-number option is checked and explained. */
 export interface WholeNumberSpec {
@@ -44,9 +46,9 @@ export function parsePeriod(text: string): number {
   });
 }
 
-/** `--max-bits B`: 53 ≤ B ≤ the multiprecision kernel's ceiling (MP_MAX_BITS). */
+/** `--max-bits B`: 53 ≤ B ≤ the multiprecision kernel's ceiling (MAX_BITS). */
 export function parseMaxBits(text: string): number {
-  return parseWholeNumber(text, { option: '--max-bits', code: 'bad-max-bits', min: 53, max: MP_MAX_BITS, hint: 'write e.g. --max-bits 106' });
+  return parseWholeNumber(text, { option: '--max-bits', code: 'bad-max-bits', min: 53, max: MAX_BITS, hint: 'write e.g. --max-bits 106' });
 }
 
 /** Fewest checker digits accepted on the command line. */
@@ -110,9 +112,4 @@ export function parseStart(text: string, dim: number): string[] {
     );
   }
   return parts;
-}
-
-/** Commander collector for repeatable options. */
-export function collect(value: string, previous: string[] | undefined): string[] {
-  return [...(previous ?? []), value];
 }

@@ -59,6 +59,7 @@
  * clamped into the box (0, or twice the finite end, for unbounded boxes).
  */
 import { Decimal } from 'decimal.js';
+import { MAX_BITS } from '../certificate/limits.js';
 import type { EvalStatus, IntervalArithmetic } from './arithmetic.js';
 import { DECIMAL_LITERAL, digitsForBits } from './decimal-literal.js';
 import { decimalValueOfDouble, doubleDown, doubleUp } from './mp-convert.js';
@@ -85,7 +86,7 @@ export interface MpInterval {
 
 /** Smallest and largest supported working precisions in bits. */
 export const MP_MIN_BITS = 24;
-export const MP_MAX_BITS = 100_000;
+export const MP_MAX_BITS = MAX_BITS;
 
 /** Arguments above this make exp/sinh/cosh report overflow (upper end +Infinity). */
 const EXP_LIMIT = new Decimal('1e15');

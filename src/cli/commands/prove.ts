@@ -3,6 +3,7 @@ import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
 import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
 
 export interface ProveCommandOptions {
@@ -23,7 +24,7 @@ export interface ProveCommandOptions {
 /** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
 export type ProgressSink = (text: string) => void;
 
-export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
+export { DEFAULT_OUT_DIR } from '../options.js';
 
 /** Show at most this many orbit points in the table; the certificate has them all. */
 const MAX_POINTS_SHOWN = 6;
