@@ -3,8 +3,8 @@ import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
 import { parseDigits, parseWorkers } from '../options.js';
-import * as lib from '../library.js';
-import type { CheckReportLike } from '../library.js';
+import type { CheckReport } from '../../checker/index.js';
+import { checkMany } from '../../workflow/check.js';
 
 export interface CheckCommandOptions {
   digits?: string;
@@ -24,8 +24,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const workflow = await lib.workflow();
-  const reports = (await workflow.checkMany(absolute, { ...(digits ? { digits } : {}), ...(workers !== undefined ? { workers } : {}) })).map(clarifyReport);
+  const reports = (await checkMany(absolute, { ...(digits ? { digits } : {}), ...(workers !== undefined ? { workers } : {}) })).map(clarifyReport);
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
@@ -40,7 +39,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
  * A JSON file without a "format" key is no certificate at all: say so instead of the checker's
  * "unknown format undefined". (Rewrites only that one reason; verdicts are never changed.)
  */
-export function clarifyReport(r: CheckReportLike): CheckReportLike {
+export function clarifyReport(r: CheckReport): CheckReport {
   if (r.verdict !== 'VERIFIED' && r.path === '$.format' && /^unknown format undefined\b/.test(r.reason ?? '')) {
     return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
   }
@@ -48,7 +47,7 @@ export function clarifyReport(r: CheckReportLike): CheckReportLike {
 }
 
 /** Pure renderer: one row per certificate, then a count line. */
-export function renderCheck(reports: readonly CheckReportLike[], cwd: string): string {
+export function renderCheck(reports: readonly CheckReport[], cwd: string): string {
   const rows = reports.map((r) => {
     const file = r.file ? relative(cwd, r.file) || r.file : '(input)';
     const detail =
@@ -58,7 +57,7 @@ export function renderCheck(reports: readonly CheckReportLike[], cwd: string): s
     const timing = r.elapsedMs !== undefined ? `${Math.round(r.elapsedMs)} ms` : '';
     return [r.verdict, file.startsWith('..') ? r.file ?? file : file, detail, timing];
   });
-  const n = (v: CheckReportLike['verdict']) => reports.filter((r) => r.verdict === v).length;
+  const n = (v: CheckReport['verdict']) => reports.filter((r) => r.verdict === v).length;
   return [
     table(['verdict', 'certificate', 'detail', 'time'], rows),
     '',
