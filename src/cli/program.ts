@@ -93,6 +93,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--max-bits <B>', 'highest working precision for precision escalation')
     .option('--no-check', 'do not run the independent checker (results are then labelled "fast engine only")')
     .option('--digits <D>', 'decimal digits for the checker (default: the certificate hint)')
+    .option('--workers <K>', 'worker threads (default: the number of cores); certificates are the same for any K')
     .option('--param <name=value>', PARAM_HELP, collect)
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {

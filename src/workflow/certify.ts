@@ -13,6 +13,11 @@ import { proveOrbit } from '../prove/index.js';
 import type { ProvenOrbit } from '../prove/types.js';
 import { candidatesByDistance, findCandidates, type Candidate } from '../search/index.js';
 import { iterateFromStart } from './start.js';
+import { checkMany } from './check.js';
+import { defaultWorkerCount, runPool, workersAvailable } from './pool.js';
+import type { ProveTask, ProveTaskResult } from './prove-task.js';
+
+const PROVE_TASK = { module: new URL('./prove-task.js', import.meta.url).href, exportName: 'proveTask' };
 
 export interface CertifyOptions {
   period: number;
@@ -37,6 +42,12 @@ export interface CertifyOptions {
   startPoint?: readonly string[];
   /** Called before each proof attempt (1-based `attempt` of `total`); for a progress display. */
   progress?: (attempt: number, total: number) => void;
+  /**
+   * Worker threads (default: the number of cores). With more than one, the candidates are proven
+   * in parallel (src/workflow/prove-task.ts), the certificates written in candidate order by this
+   * thread, then checked in parallel: the same files and report as one worker.
+   */
+  workers?: number;
   /** Folder for certificates; created when missing. */
   outDir: string;
   /** Replace existing certificate files. */
@@ -139,6 +150,80 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
 }
 
+/** The notes of a proven orbit the checker did not reject (minimal period, --start drift). */
+function addNotes(outcome: OrbitOutcome, orbit: ProvenOrbit, period: number, startPoints: CandidateCoordinate[][] | undefined): void {
+  if (outcome.status === 'rejected-by-checker') return;
+  const notes: string[] = [];
+  if (orbit.minimalPeriod !== period) notes.push(minimalPeriodNotShown(period));
+  const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;
+  if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
+  if (notes.length > 0) outcome.reason = notes.join('; ');
+}
+
+/**
+ * The parallel form of the loop in `certifyOrbits`: prove + build in the pool, write in candidate
+ * order here (so file numbers and contents are those of a one-worker run), check the written files
+ * in the pool. Returns the number of certificates written.
+ */
+async function certifyParallel(
+  def: MapDefinition,
+  compiled: CompiledMap,
+  opts: CertifyOptions,
+  chosen: readonly Candidate[],
+  startPoints: CandidateCoordinate[][] | undefined,
+  workers: number,
+  dirSync: DirectorySync,
+  outcomes: OrbitOutcome[],
+): Promise<number> {
+  const tasks: ProveTask[] = chosen.map((c) => ({
+    map: compiled.definition,
+    def,
+    ...(opts.overrides ? { overrides: opts.overrides } : {}),
+    points: startPoints ?? c.points,
+    ...(opts.maxBits ? { maxBits: opts.maxBits } : {}),
+  }));
+  const results = await runPool<ProveTask, ProveTaskResult>(PROVE_TASK, tasks, {
+    workers,
+    ...(opts.progress ? { progress: opts.progress } : {}),
+  });
+  let k = 0;
+  const written: OrbitOutcome[] = [];
+  results.forEach((r, i) => {
+    const index = i + 1;
+    const candidate = chosen[i]!;
+    const verdict = r.verdict;
+    if (verdict.status !== 'proven' || r.certificate === undefined) {
+      const detail = verdict.status !== 'proven' && typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
+      outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.status !== 'proven' ? verdict.reason : 'no certificate'}${detail}` });
+      return;
+    }
+    k++;
+    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k)), r.certificate, {
+      force: opts.force ?? false,
+      dirSync,
+    });
+    const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit: verdict.orbit, certificatePath: path };
+    outcomes.push(outcome);
+    written.push(outcome);
+  });
+  if (opts.check !== false && written.length > 0) {
+    dirSync.flush();
+    const reports = await checkMany(written.map((o) => o.certificatePath!), { workers, ...(opts.digits ? { digits: opts.digits } : {}) });
+    written.forEach((outcome, i) => {
+      const report = reports[i];
+      if (report === undefined) throw new Error(`checker returned no report for ${outcome.certificatePath}`);
+      outcome.check = report;
+      if (report.verdict === 'VERIFIED') outcome.status = 'verified';
+      else {
+        outcome.status = 'rejected-by-checker';
+        outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
+      }
+    });
+  }
+  for (const o of written) addNotes(o, o.orbit!, opts.period, startPoints);
+  return k;
+}
+
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
@@ -169,7 +254,11 @@ export async function certifyOrbits(
   let k = 0;
   // one folder fsync for the whole run (each file's data is synced as it is written)
   const dirSync = new DirectorySync();
+  const workers = Math.min(opts.workers ?? defaultWorkerCount(), chosen.length);
   try {
+  if (workers > 1 && workersAvailable()) {
+    k = await certifyParallel(def, compiled, opts, chosen, startPoints, workers, dirSync, outcomes);
+  } else
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
     opts.progress?.(index, chosen.length);
@@ -198,13 +287,7 @@ export async function certifyOrbits(
         outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
       }
     }
-    if (outcome.status !== 'rejected-by-checker') {
-      const notes: string[] = [];
-      if (orbit.minimalPeriod !== opts.period) notes.push(minimalPeriodNotShown(opts.period));
-      const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;
-      if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
-      if (notes.length > 0) outcome.reason = notes.join('; ');
-    }
+    addNotes(outcome, orbit, opts.period, startPoints);
     outcomes.push(outcome);
   }
   } finally {

@@ -4,7 +4,7 @@
  * first); from TypeScript sources the pool runs inline, which the last test pins.
  */
 import { execFileSync } from 'node:child_process';
-import { cpSync, existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -92,6 +92,25 @@ describe.runIf(built)('runPool on worker threads (dist build)', () => {
     }
     expect(code).toBe(2);
     expect(err).toMatch(/--workers/);
+  });
+});
+
+describe.runIf(built)('prove --workers (dist build)', () => {
+  it('prove henon --period 8 --all: the same certificate files, bytes and table with 2 workers as with 1', () => {
+    const run = (w: string): { out: string; files: Map<string, string> } => {
+      const outDir = join(dir, `prove-w${w}`);
+      const out = execFileSync('node', [CLI, 'prove', 'henon', '--period', '8', '--all', '--workers', w, '--out', outDir], { encoding: 'utf8' });
+      const files = new Map<string, string>();
+      for (const f of readdirSync(outDir).sort()) files.set(f, readFileSync(join(outDir, f), 'utf8'));
+      return { out: out.replaceAll(outDir, 'OUT'), files };
+    };
+    const one = run('1');
+    const two = run('2');
+    // Hénon (1.4, 0.3) has 7 period-8 orbits of minimal period 8 (Galias 2001, from memory)
+    expect(one.files.size).toBeGreaterThanOrEqual(7);
+    expect([...two.files.keys()]).toEqual([...one.files.keys()]);
+    for (const [f, text] of one.files) expect(two.files.get(f)).toBe(text);
+    expect(two.out).toBe(one.out);
   });
 });
 

@@ -1,7 +1,7 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
+import { parseDigits, parseWorkers, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
@@ -17,6 +17,7 @@ export interface ProveCommandOptions {
   json?: boolean;
   param?: string[];
   digits?: string;
+  workers?: string;
   limit?: string;
   start?: string;
 }
@@ -38,6 +39,7 @@ export async function proveCommand(
   const period = parsePeriod(o.period);
   const maxBits = o.maxBits !== undefined ? parseMaxBits(o.maxBits) : undefined;
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
+  const workers = o.workers !== undefined ? parseWorkers(o.workers) : undefined;
   const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
   if (limit !== undefined && o.all) {
     throw new UsageError('bad-option', '--limit', o.limit!, '--limit and --all contradict each other', 'use --limit N for at most N candidates, or --all for every one');
@@ -68,6 +70,7 @@ export async function proveCommand(
     check: o.check !== false,
     ...(maxBits ? { maxBits } : {}),
     ...(digits ? { digits } : {}),
+    ...(workers !== undefined ? { workers } : {}),
     overrides,
   });
   if (shown) progressSink?.('\r\x1b[K');

@@ -1,0 +1,38 @@
+/**
+ * The pool task of the parallel `prove` workflow (src/workflow/certify.ts): prove one candidate
+ * and build its certificate, in a worker thread. The map is compiled once per worker from the
+ * definition the caller compiled (overrides already applied), so the worker proves exactly the
+ * map the calling thread would.
+ */
+import { buildCertificate } from '../certificate/build.js';
+import type { CertificateV1 } from '../certificate/types.js';
+import { compileMap, type FormulaMap } from '../model/compile.js';
+import type { MapDefinition, ParamValue } from '../model/types.js';
+import { proveOrbit } from '../prove/index.js';
+import type { CandidateCoordinate } from '../prove/orbit.js';
+import type { OrbitVerdict } from '../prove/types.js';
+
+export interface ProveTask {
+  /** The compiled map's definition (parameters as proven). */
+  map: MapDefinition;
+  /** The user's definition and overrides, as the certificate records them. */
+  def: MapDefinition;
+  overrides?: Record<string, ParamValue>;
+  points: CandidateCoordinate[][];
+  maxBits?: number;
+}
+
+export interface ProveTaskResult {
+  verdict: OrbitVerdict;
+  certificate?: CertificateV1;
+}
+
+let cached: { key: string; map: FormulaMap } | undefined;
+
+export function proveTask(t: ProveTask): ProveTaskResult {
+  const key = JSON.stringify(t.map);
+  if (cached?.key !== key) cached = { key, map: compileMap(t.map) };
+  const verdict = proveOrbit(cached.map, t.points, t.maxBits ? { maxBits: t.maxBits } : {});
+  if (verdict.status !== 'proven') return { verdict };
+  return { verdict, certificate: buildCertificate(verdict.orbit, t.def, t.overrides ? { overrides: t.overrides } : {}) };
+}
