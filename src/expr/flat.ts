@@ -279,6 +279,16 @@ export function compileFlatJacobian(tape: Tape, params: readonly ParamEnclosure[
   return { ...image, jacobianRegisters };
 }
 
+/**
+ * The one place that compiles code: `body` must be generated from a checked tape (or from
+ * integers we produce) only — src/expr/flat.ts, src/expr/float-code.ts and the box calls of
+ * src/model/compile.ts, each argued in its header. Returns the factory taking `names`.
+ */
+export function compileGeneratedCode(names: readonly string[], body: string): (...args: unknown[]) => unknown {
+  // eslint-disable-next-line no-new-func
+  return new Function(...names, body) as (...args: unknown[]) => unknown;
+}
+
 /** Generates, compiles and wraps the program (see the header). */
 function buildImage(prog: Program, constStatus: { continuous: boolean; assumed: boolean }, outputRegisters: Int32Array): FlatImage {
   const n = prog.dim;
@@ -299,10 +309,9 @@ function buildImage(prog: Program, constStatus: { continuous: boolean; assumed: 
     if (typeof f !== 'function') throw new Error(`internal: src/interval/flat.ts has no ${name}`);
     return f;
   });
-  // code generated from the checked tape only (see the header): the one place allowed to compile code
-  // eslint-disable-next-line no-new-func
-  const factory = new Function(
-    ...OP_FUNCTIONS, 'K', 'abs', 'min', 'max',
+  // code generated from the checked tape only (see the header)
+  const factory = compileGeneratedCode(
+    [...OP_FUNCTIONS, 'K', 'abs', 'min', 'max'],
     `"use strict";\nfunction slow(R) {\n${slowBody}\n}\nreturn function flatImage(R) {\n${fastBody}\n};`,
   ) as (...fs: unknown[]) => (R: Float64Array) => void;
   const run = factory(...bound, K, Math.abs, Math.min, Math.max);

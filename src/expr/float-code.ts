@@ -21,6 +21,7 @@
  */
 import { createFloatArithmetic } from '../interval/float-arith.js';
 import { TapeEvaluator, type ParamEnclosure } from './evaluate.js';
+import { compileGeneratedCode } from './flat.js';
 import { Op, type Tape } from './tape.js';
 
 export interface FloatCode {
@@ -204,8 +205,8 @@ export function compileFloatCode(tape: Tape, params: readonly ParamEnclosure[]):
   const imageBody = [...valueLines, ...outLines].join('\n');
   const jacobianBody = [...valueLines, ...gradLines, ...outLines, ...jacLines].join('\n');
   // code generated from the checked tape only (see the header)
-  const factory = new Function(
-    'C', ...MATH_NAMES,
+  const factory = compileGeneratedCode(
+    ['C', ...MATH_NAMES],
     `"use strict";\nreturn [function floatImage(x, out) {\n${imageBody}\n}, function floatJacobian(x, out, jac) {\n${jacobianBody}\n}];`,
   ) as (...args: unknown[]) => [FloatCode['image'], FloatCode['imageAndJacobian']];
   const [image, imageAndJacobian] = factory(C, ...MATH_NAMES.map((m) => Math[m]));

@@ -8,7 +8,7 @@ import { resetStatus, type Arithmetic } from '../interval/arithmetic.js';
 import { createFloatArithmetic } from '../interval/float-arith.js';
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
-import { compileFlat, compileFlatJacobian, type FlatImage } from '../expr/flat.js';
+import { compileFlat, compileFlatJacobian, compileGeneratedCode, type FlatImage } from '../expr/flat.js';
 import { compileFloatCode } from '../expr/float-code.js';
 import { intervalArithmetic, isFloatIntervalArithmetic } from '../interval/interval-arith.js';
 import { Interval } from '../interval/interval.js';
@@ -181,7 +181,7 @@ function boxCall(f: FlatImage, R: Float64Array, jacobianRegisters: Int32Array | 
   }
   lines.push(`return (R[0] === 1 ? 0 : ${int(BOX_DISCONTINUOUS)}) | (R[1] === 1 ? ${int(BOX_ASSUMED)} : 0);`);
   // code generated from integers only (register offsets, indices, flag values)
-  const factory = new Function('R', 'reset', 'run', `"use strict";\nreturn function boxCall(x, out, jac) {\n${lines.join('\n')}\n};`) as (
+  const factory = compileGeneratedCode(['R', 'reset', 'run'], `"use strict";\nreturn function boxCall(x, out, jac) {\n${lines.join('\n')}\n};`) as (
     R: Float64Array,
     reset: (R: Float64Array) => void,
     run: (R: Float64Array) => void,
