@@ -41,6 +41,7 @@ export interface ProvenOrbitData {
     trace?: DecimalInterval | null;
     determinant?: DecimalInterval | null;
     eigenvalueModuli?: DecimalInterval[] | null;
+    eigenbasis?: { re: DecimalString[][]; im: DecimalString[][]; inverseRe: DecimalString[][]; inverseIm: DecimalString[][] } | null;
   };
   /** Working precision the prover used (53 for float64 intervals). */
   bits: number;
@@ -89,6 +90,11 @@ function stabilitySection(s: ProvenOrbitData['stability']): CertificateStability
   if (s.trace) out.trace = copyInterval(s.trace);
   if (s.determinant) out.determinant = copyInterval(s.determinant);
   if (s.eigenvalueModuli) out.eigenvalueModuli = s.eigenvalueModuli.map(copyInterval);
+  if (s.eigenbasis) {
+    const e = s.eigenbasis;
+    const copy = (m: readonly (readonly string[])[]): string[][] => m.map((r) => [...r]);
+    out.eigenbasis = { re: copy(e.re), im: copy(e.im), inverseRe: copy(e.inverseRe), inverseIm: copy(e.inverseIm) };
+  }
   return out;
 }
 

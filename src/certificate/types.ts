@@ -48,6 +48,12 @@ export interface CertificateStability {
   determinant?: DecimalInterval;
   /** n >= 2: enclosures of the eigenvalue moduli (sorted ascending when real). */
   eigenvalueModuli?: DecimalInterval[];
+  /**
+   * n >= 3: an untrusted hint for the class: a complex n × n matrix V (re, im; ideally eigenvectors
+   * of the monodromy) and R (ideally V⁻¹). The checker proves ‖I − R·V‖∞ < 1 and the class from
+   * Gershgorin discs of R·M·V (src/checker/stability-n.ts).
+   */
+  eigenbasis?: { re: DecimalString[][]; im: DecimalString[][]; inverseRe: DecimalString[][]; inverseIm: DecimalString[][] };
 }
 
 export interface CertificateClaims {

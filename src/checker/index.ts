@@ -37,7 +37,8 @@ import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type Shooting, type Stability } from './krawczyk.js';
+import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
@@ -217,9 +218,16 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (minimal !== p) reject('$.claims.minimalPeriod', `minimalPeriod ${minimal} differs from period ${p}; only minimalPeriod = period can be verified`);
   }
   const stab = claims.stability === undefined || claims.stability === null ? null : obj(claims.stability, '$.claims.stability');
+  let eigenbasis: EigenbasisHint | null = null;
   if (stab) {
     for (const k of Object.keys(stab)) {
-      if (!['class', 'multiplier', 'trace', 'determinant', 'eigenvalueModuli'].includes(k)) reject(`$.claims.stability.${k}`, `unknown stability field "${k}"`);
+      if (!['class', 'multiplier', 'trace', 'determinant', 'eigenvalueModuli', 'eigenbasis'].includes(k)) reject(`$.claims.stability.${k}`, `unknown stability field "${k}"`);
+    }
+    if (stab.eigenbasis !== undefined && stab.eigenbasis !== null) {
+      if (n < 3) reject('$.claims.stability.eigenbasis', `an eigenbasis hint is only read in dimension >= 3 (this map has ${n})`);
+      const parsed = parseEigenbasis(stab.eigenbasis, n);
+      if (typeof parsed === 'string') reject('$.claims.stability.eigenbasis', parsed);
+      eigenbasis = parsed as EigenbasisHint;
     }
     if (!['attracting', 'repelling', 'saddle', 'undecided'].includes(stab.class as string)) reject('$.claims.stability.class', `unknown stability class ${JSON.stringify(stab.class)}`);
   }
@@ -313,7 +321,8 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   }
 
   if (stab) {
-    const st = stability(c, D, n);
+    // n >= 3: Gershgorin discs in the certificate's (untrusted) eigenbasis, src/checker/stability-n.ts
+    const st: Stability = n >= 3 ? { cls: stabilityN(c, D, n, eigenbasis).cls } : stability(c, D, n);
     const claimed = stab.class as string;
     // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
     if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);

@@ -27,11 +27,17 @@ export interface EigenDisc {
   modulusHi: number;
 }
 
+/** The approximate eigenbasis V and its approximate inverse R a call used (filled when given). */
+export interface GershgorinBasis {
+  V?: { re: Float64Array; im: Float64Array };
+  R?: { re: Float64Array; im: Float64Array };
+}
+
 /**
  * Gershgorin discs for the eigenvalues of every matrix in the interval matrix `S` (n×n, row-major).
  * Returns null when nothing can be claimed (see the module comment).
  */
-export function gershgorinDiscs<T>(a: IntervalArithmetic<T>, S: readonly T[], n: number): EigenDisc[] | null {
+export function gershgorinDiscs<T>(a: IntervalArithmetic<T>, S: readonly T[], n: number, basis?: GershgorinBasis): EigenDisc[] | null {
   const mid = new Float64Array(n * n);
   for (let k = 0; k < n * n; k++) {
     mid[k] = a.midNumber(S[k]!);
@@ -41,6 +47,10 @@ export function gershgorinDiscs<T>(a: IntervalArithmetic<T>, S: readonly T[], n:
   if (V === null) return null;
   const R = complexInverse(V, n);
   if (R === null) return null;
+  if (basis !== undefined) {
+    basis.V = { re: Float64Array.from(V.re), im: Float64Array.from(V.im) };
+    basis.R = { re: Float64Array.from(R.re), im: Float64Array.from(R.im) };
+  }
   const zero = a.fromNumber(0);
   const num = (x: number): T => a.fromNumber(x);
   // SV = S·V (real interval × complex point)

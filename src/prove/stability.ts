@@ -26,7 +26,7 @@ import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
 import { compareDecimal as cmp, decimalOfDouble } from '../interval/decimal-literal.js';
 import { intervalMatMul, orthogonalInverseEnclosure, orthonormalColumns } from '../linalg/interval-matrix.js';
-import { gershgorinDiscs } from './gershgorin.js';
+import { gershgorinDiscs, type GershgorinBasis } from './gershgorin.js';
 import type { DecimalPair, ProvenStability, StabilityClass } from './types.js';
 
 function pairOf<T>(arith: IntervalArithmetic<T>, x: T): DecimalPair {
@@ -157,7 +157,46 @@ function compareLo(x: DecimalPair, y: DecimalPair): number {
   return cmp(x[0], y[0]);
 }
 
+/**
+ * n >= 3, the class the independent checker re-verifies: Gershgorin discs of the DIRECT monodromy
+ * product M = A_{p−1}···A_0 (intervals) in an approximate eigenbasis of mid M (gershgorin.ts); the
+ * basis goes into the certificate as a hint (src/checker/stability-n.ts repeats the argument in
+ * decimal arithmetic). Null when the discs decide nothing (e.g. long orbits: the direct product
+ * wraps; then the moving-frame bound below is reported as fast engine only).
+ */
+function stabilityDirect<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability | null {
+  const nn = n * n;
+  let M: T[] = [];
+  for (let i = 0; i < nn; i++) M.push(a.fromNumber(i % (n + 1) === 0 ? 1 : 0));
+  for (let k = 0; k < p; k++) M = intervalMatMul(a, blocks.slice(k * nn, (k + 1) * nn), M, n);
+  for (const x of M) if (!isBounded(a, x)) return null;
+  const basis: GershgorinBasis = {};
+  const discs = gershgorinDiscs(a, M, n, basis);
+  if (discs === null || basis.V === undefined || basis.R === undefined) return null;
+  const inside = discs.map((d) => d.modulusHi < 1);
+  const outside = discs.map((d) => d.modulusLo > 1);
+  let cls: StabilityClass | null = null;
+  if (inside.every(Boolean)) cls = 'attracting';
+  else if (outside.every(Boolean)) cls = 'repelling';
+  else if (inside.every((b, i) => b || outside[i])) cls = 'saddle';
+  if (cls === null) return null;
+  const rows = (m: Float64Array): string[][] =>
+    Array.from({ length: n }, (_, i) => Array.from(m.subarray(i * n, i * n + n), (v) => decimalOfDouble(v)));
+  return {
+    class: cls,
+    eigenbasis: { re: rows(basis.V.re), im: rows(basis.V.im), inverseRe: rows(basis.R.re), inverseIm: rows(basis.R.im) },
+  };
+}
+
 function stabilityN<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
+  const moving = stabilityMovingFrames(a, blocks, p, n);
+  const direct = stabilityDirect(a, blocks, p, n);
+  if (direct === null) return moving;
+  // the class the checker re-verifies; the moving-frame moduli stay as prover-only information
+  return { ...direct, ...(moving.proverOnly ? { proverOnly: moving.proverOnly } : {}) };
+}
+
+function stabilityMovingFrames<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
   const nn = n * n;
   const undecided = (why: string): ProvenStability => ({ class: 'undecided', note: `n = ${n} >= 3: ${why}` });
   const identity: Float64Array = new Float64Array(nn);

@@ -23,6 +23,11 @@ export interface ProvenStability {
   determinant?: DecimalPair;
   /** n = 2: enclosures of |λ|, ascending when real, equal when complex. */
   eigenvalueModuli?: DecimalPair[];
+  /**
+   * n >= 3: the approximate eigenbasis V (re, im) and R ≈ V⁻¹ of the Gershgorin proof of the class
+   * (exact decimals of doubles; a hint the checker re-verifies, src/checker/stability-n.ts).
+   */
+  eigenbasis?: { re: string[][]; im: string[][]; inverseRe: string[][]; inverseIm: string[][] };
   /** Why the class is 'undecided' (absent when decided). */
   note?: string;
   /**

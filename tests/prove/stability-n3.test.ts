@@ -1,5 +1,7 @@
 /**
- * Stability for n ≥ 3 (Gershgorin discs, fast engine only). Check values are closed forms derived
+ * Stability for n ≥ 3: the class from Gershgorin discs of the direct monodromy in an approximate
+ * eigenbasis (re-verified by the checker, src/checker/stability-n.ts), and the moving-frame disc
+ * moduli as prover-only information. Check values are closed forms derived
  * by hand: a decoupled product of logistic maps x → r x (1 − x) has as multipliers the 1-D ones
  * (fixed point 1 − 1/r: 2 − r; fixed point 0: r; 2-cycle: 4 + 2r − r²), and a map that is linear
  * plus quadratic terms has the eigenvalues of its linear part at 0.
@@ -8,6 +10,7 @@ import { Decimal } from 'decimal.js';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { buildCertificate } from '../../src/certificate/build.js';
+import { checkCertificate } from '../../src/checker/index.js';
 import { intervalArithmetic } from '../../src/interval/interval-arith.js';
 import { eigenvaluesQR } from '../../src/linalg/eigen.js';
 import { compileMap } from '../../src/model/compile.js';
@@ -46,7 +49,7 @@ function expectedClass(mods: Decimal[]): string {
 const rAway = fc.integer({ min: 1100, max: 3950 }).filter((k) => Math.abs(k - 3000) >= 20 && Math.abs(k - 1000) >= 20);
 
 describe('n = 3: Gershgorin discs on decoupled logistic products (closed forms, derived by hand)', () => {
-  it('property: fixed point (1 − 1/a, 1 − 1/b, 1 − 1/c): moduli |2 − r| enclosed, class right, certificate says undecided', () => {
+  it('property: fixed point (1 − 1/a, 1 − 1/b, 1 − 1/c): moduli |2 − r| enclosed, class right and re-verified by the checker', () => {
     fc.assert(
       fc.property(fc.tuple(rAway, rAway, rAway), (ks) => {
         const rs = ks.map((k) => new D50(k).div(1000).toString());
@@ -54,21 +57,22 @@ describe('n = 3: Gershgorin discs on decoupled logistic products (closed forms, 
         const fp = rs.map((r) => dbl(new D50(1).sub(new D50(1).div(r))));
         const o = proven(proveOrbit(compileMap(def), [fp]));
         const mods = rs.map((r) => new D50(2).sub(r).abs()); // multiplier 2 − r
-        expect(o.stability.class).toBe('undecided'); // the checker does not re-verify n ≥ 3
+        expect(o.stability.class).toBe(expectedClass(mods));
         const po = o.stability.proverOnly!;
         expect(po.method).toBe('gershgorin');
         expect(matches(po.eigenvalueModuli, mods)).toBe(true);
         expect(po.class).toBe(expectedClass(mods));
-        expect(o.stability.note).toContain('fast engine only');
         const cert = buildCertificate(o, def);
-        expect(cert.claims.stability.class).toBe('undecided');
+        expect(cert.claims.stability.class).toBe(expectedClass(mods));
+        expect(cert.claims.stability.eigenbasis).toBeDefined();
         expect(JSON.stringify(cert)).not.toContain('proverOnly');
+        expect(checkCertificate(JSON.stringify(cert)).verdict).toBe('VERIFIED');
       }),
       { numRuns: 15, seed: 42 },
     );
   });
 
-  it('fixed point 0 has multipliers a, b, c: repelling (fast engine only)', () => {
+  it('fixed point 0 has multipliers a, b, c: repelling', () => {
     const o = proven(proveOrbit(compileMap(product(['2.5', '2.8', '3.2'])), [[0, 0, 0]]));
     expect(matches(o.stability.proverOnly!.eigenvalueModuli, ['2.5', '2.8', '3.2'].map((s) => new D50(s)))).toBe(true);
     expect(o.stability.proverOnly!.class).toBe('repelling');
