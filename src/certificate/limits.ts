@@ -19,3 +19,6 @@ export const MAX_DIGITS = 2000;
 export const MAX_NUMBER_LENGTH = 2000;
 /** Highest working precision of the multiprecision kernel and of `--max-bits`, in bits. */
 export const MAX_BITS = 100_000;
+
+/** Upper limit of `--workers` (worker threads of src/workflow/pool.ts; more only cost memory). */
+export const MAX_WORKERS = 64;

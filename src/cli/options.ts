@@ -1,6 +1,5 @@
 /** Validation of command-line option values (user mistakes become UsageError, exit 2). */
-import { MAX_WORKERS } from '../workflow/pool.js';
-import { MAX_BITS, MAX_DIGITS, MAX_PERIOD } from '../certificate/limits.js';
+import { MAX_BITS, MAX_DIGITS, MAX_PERIOD, MAX_WORKERS } from '../certificate/limits.js';
 import { DECIMAL_LITERAL } from '../interval/decimal-literal.js';
 import { UsageError, type UsageErrorCode } from './errors.js';
 

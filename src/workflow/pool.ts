@@ -18,6 +18,7 @@ import { existsSync } from 'node:fs';
 import { availableParallelism, cpus } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
+import { MAX_WORKERS } from '../certificate/limits.js';
 
 /** The function a pool runs: `export function name(task: I): O | Promise<O>` in module `module`. */
 export interface TaskFunction {
@@ -33,8 +34,7 @@ export interface PoolOptions {
   progress?: (done: number, total: number) => void;
 }
 
-/** Upper limit of `--workers` (more threads than this only cost memory). */
-export const MAX_WORKERS = 64;
+export { MAX_WORKERS };
 
 /** The number of cores Node may use (the default worker count). */
 export function defaultWorkerCount(): number {
