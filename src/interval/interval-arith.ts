@@ -25,6 +25,7 @@ export function isFloatIntervalArithmetic(a: object): a is IntervalArithmetic<In
   return INSTANCES.has(a);
 }
 
+/** The float64 interval arithmetic (outward rounding, proven elementary functions) as an `IntervalArithmetic`. */
 export function intervalArithmetic(): IntervalArithmetic<Interval> {
   const status: EvalStatus = { continuous: true, assumed: false, nonsmooth: false };
   const S = new Float64Array(2);
