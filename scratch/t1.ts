@@ -1,0 +1,10 @@
+import { resolveMap } from '../src/model/index.js';
+import { coverWindow } from '../src/windows/cover.js';
+const def = resolveMap('logistic');
+console.log(def.step, def.params, def.region);
+let t = performance.now();
+const c = coverWindow(def, {}, 'r', ['3.8285', '3.8414'], 3);
+console.log(performance.now() - t, c.pieces.length, c.gaps, c.provenLength, c.attempts, c.pieces.map(p => [p.param, p.orbit.stability.class, p.joinedToNext]).slice(0, 10));
+t = performance.now();
+const c2 = coverWindow(def, {}, 'r', ['3.82', '3.86'], 3);
+console.log(performance.now() - t, c2.pieces.length, c2.gaps, c2.provenLength, c2.attempts, c2.pieces[0].param, c2.pieces.at(-1).param, c2.pieces.every(p=>p.joinedToNext));
