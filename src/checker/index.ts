@@ -39,6 +39,7 @@ import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
+import { checkEdge, checkWindow } from './window.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
@@ -155,7 +156,14 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const d = obj(doc, '$');
   if (d.format !== 'orbitseal-certificate') reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "orbitseal-certificate")`);
   if (d.formatVersion !== 1) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version 1)`);
-  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit")`);
+  if (d.kind === 'periodic-window' || d.kind === 'bifurcation-edge') {
+    // kinds of their own (window.ts): windows and bifurcation edges
+    const digits = opts.digits ?? DEFAULT_DIGITS;
+    if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
+    else checkEdge(d, digits, limits, reject);
+    return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : ['existence', 'uniqueness'], digits };
+  }
+  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit", "periodic-window" or "bifurcation-edge")`);
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
