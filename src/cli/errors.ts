@@ -75,6 +75,7 @@ const USER_ERROR_NAMES = new Set([
   'CertificateWriteError',
   'SearchOptionError',
   'ModelError',
+  'UserError',
 ]);
 
 function isUserError(e: unknown): e is Error & UserErrorLike {

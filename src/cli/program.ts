@@ -11,6 +11,7 @@ import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
 import { findCommand, type FindCommandOptions } from './commands/find.js';
 import { DEFAULT_OUT_DIR, proveCommand, type ProveCommandOptions } from './commands/prove.js';
 import { showCommand, type ShowCommandOptions } from './commands/show.js';
+import { registerWindowCommands } from './commands/register-windows.js';
 
 export interface RunContext {
   /** Working folder for relative paths (default process.cwd()). */
@@ -90,6 +91,13 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
       wantsJson = !!o.json;
       return run(() => proveCommand(map, o, cwd, ctx.progress))();
     });
+
+  registerWindowCommands(program, {
+    cwd,
+    ...(ctx.progress ? { progress: ctx.progress } : {}),
+    json: (v) => (wantsJson = v),
+    run: (f) => run(f)(),
+  });
 
   program
     .command('check')

@@ -212,7 +212,8 @@ export function intervalHint(r: CertifyReport): string {
   const undecided = r.outcomes.some((o) => o.status === 'not-proven' || (o.orbit !== undefined && o.orbit.stability.class === 'undecided'));
   if (!undecided) return '';
   const names = r.intervalParams.join(', ');
-  return `hint: ${names} ${r.intervalParams.length === 1 ? 'is an interval' : 'are intervals'}; every claim must hold for all values in it: narrow the parameter interval or split it into pieces and prove each`;
+  const cmd = r.intervalParams.length === 1 ? `orbitseal window MAP --period ${r.period} --param "${names}=[lo,hi]"` : '`orbitseal window` (one parameter as a range)';
+  return `hint: ${names} ${r.intervalParams.length === 1 ? 'is an interval' : 'are intervals'}; every claim must hold for all values in it: run ${cmd}, which splits the range by itself and reports the pieces proven and the gaps`;
 }
 
 /** "N candidates not attempted …" with how to get them; '' when every candidate was attempted. */
