@@ -7,6 +7,8 @@ import { certificateHash } from './canonical.js';
 import { certificateMap, CertificateBuildError } from './build.js';
 import { PRODUCER_NAME, packageVersion } from './producer.js';
 import type {
+  AbsenceCertificateV1,
+  AbsenceLeafV1,
   CertificateStability,
   DecimalInterval,
   EdgeCertificateV1,
@@ -94,6 +96,32 @@ export function buildEdgeCertificate(e: EdgeData, def: MapDefinition, range: Dec
     centre: { orbit: [...e.centre], param: e.centreParam },
     boxes: e.boxes.map((b) => [b[0], b[1]] as DecimalInterval),
     minimalPeriod: e.minimalPeriod,
+  };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
+
+export interface AbsenceData {
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
+}
+
+export function buildAbsenceCertificate(a: AbsenceData, def: MapDefinition, overrides: Record<string, ParamValue> = {}): AbsenceCertificateV1 {
+  if (def.state.length !== 1) throw new CertificateBuildError('absence certificates are for one-dimensional maps');
+  const value: ParamValue = a.range[0] === a.range[1] ? { kind: 'exact', value: a.range[0] } : { kind: 'interval', lo: a.range[0], hi: a.range[1] };
+  const unsigned: Omit<AbsenceCertificateV1, 'sha256'> = {
+    format: 'orbitseal-certificate',
+    formatVersion: 1,
+    kind: 'periodic-absence',
+    producer: { name: PRODUCER_NAME, version: packageVersion() },
+    map: certificateMap(def, { ...overrides, [a.parameter]: value }),
+    period: a.period,
+    parameter: a.parameter,
+    range: [a.range[0], a.range[1]],
+    region: [a.region[0], a.region[1]],
+    pieces: a.pieces.map((p) => ({ param: [p.param[0], p.param[1]], leaves: p.leaves.map((l) => JSON.parse(JSON.stringify(l)) as AbsenceLeafV1) })),
   };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

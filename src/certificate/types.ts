@@ -145,3 +145,35 @@ export interface EdgeCertificateV1 {
   minimalPeriod: number | null;
   sha256: string;
 }
+
+export const CERTIFICATE_KIND_ABSENCE = 'periodic-absence';
+
+export type AbsenceLeafV1 =
+  | { kind: 'empty'; x: DecimalInterval }
+  | {
+      kind: 'lower';
+      x: DecimalInterval;
+      divisor: number;
+      boxes: DecimalInterval[];
+      centre: DecimalString[];
+      lowerBoxes: DecimalInterval[];
+      lowerCentre: DecimalString[];
+    };
+
+/**
+ * For every θ in each piece's `param`: no orbit of minimal period p with all points in `region`
+ * (one-dimensional maps). Pieces tile `range` (= map.params[parameter]); leaves tile `region`.
+ */
+export interface AbsenceCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-absence';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
+  sha256: string;
+}

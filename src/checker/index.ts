@@ -40,9 +40,10 @@ import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
 import { checkEdge, checkWindow } from './window.js';
+import { checkAbsence } from './absence.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -156,14 +157,16 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const d = obj(doc, '$');
   if (d.format !== 'orbitseal-certificate') reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "orbitseal-certificate")`);
   if (d.formatVersion !== 1) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version 1)`);
-  if (d.kind === 'periodic-window' || d.kind === 'bifurcation-edge') {
-    // kinds of their own (window.ts): windows and bifurcation edges
+  if (d.kind === 'periodic-window' || d.kind === 'bifurcation-edge' || d.kind === 'periodic-absence') {
+    // kinds of their own (window.ts, absence.ts): windows, bifurcation edges, absence covers
     const digits = opts.digits ?? DEFAULT_DIGITS;
     if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
-    else checkEdge(d, digits, limits, reject);
-    return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : ['existence', 'uniqueness'], digits };
+    else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
+    else checkAbsence(d, digits, limits, reject);
+    const claims: ClaimName[] = d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : ['absence'];
+    return { claims, digits };
   }
-  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit", "periodic-window" or "bifurcation-edge")`);
+  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit", "periodic-window", "bifurcation-edge" or "periodic-absence")`);
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);

@@ -31,7 +31,7 @@ export interface KindLimits {
 export const MAX_WINDOW_PIECES = 100_000;
 export const MAX_EDGE_UNKNOWNS = 400;
 
-class Reader {
+export class Reader {
   constructor(
     readonly reject: Reject,
     readonly limits: KindLimits,
@@ -77,7 +77,7 @@ interface ParsedMap {
   stepText: Record<string, unknown>;
 }
 
-function readMap(r: Reader, d: Obj): ParsedMap {
+export function readMap(r: Reader, d: Obj): ParsedMap {
   const map = r.obj(d.map, '$.map');
   const state = r.arr(map.state, '$.map.state').map((s, i) => r.str(s, `$.map.state[${i}]`));
   if (state.length < 1 || state.length > r.limits.maxDimension) r.reject('$.map.state', 'state dimension out of range');
@@ -100,7 +100,7 @@ function readMap(r: Reader, d: Obj): ParsedMap {
   return { state, params, stepText };
 }
 
-function parseSteps(r: Reader, m: ParsedMap, stateNames: string[], paramNames: Set<string>): Node[] {
+export function parseSteps(r: Reader, m: ParsedMap, stateNames: string[], paramNames: Set<string>): Node[] {
   return m.state.map((s) => {
     const path = `$.map.step.${s}`;
     const src = r.str(m.stepText[s], path);
@@ -115,7 +115,7 @@ function parseSteps(r: Reader, m: ParsedMap, stateNames: string[], paramNames: S
 }
 
 /** X_i ∩ X_{i+p/q} = ∅ for every prime q | p (implies minimal period p). */
-function minimalPeriodShown(X: readonly Iv[], p: number, n: number): boolean {
+export function minimalPeriodShown(X: readonly Iv[], p: number, n: number): boolean {
   const disjoint = (i: number, j: number): boolean => {
     for (let a = 0; a < n; a++) {
       const u = X[i * n + a]!;
@@ -132,7 +132,7 @@ function minimalPeriodShown(X: readonly Iv[], p: number, n: number): boolean {
   return true;
 }
 
-function header(r: Reader, d: Obj, kind: string): { p: number; parameter: string; m: ParsedMap; range: [string, string] } {
+export function header(r: Reader, d: Obj, kind: string): { p: number; parameter: string; m: ParsedMap; range: [string, string] } {
   if (d.kind !== kind) r.reject('$.kind', 'kind mismatch');
   const sha = r.str(d.sha256, '$.sha256');
   const expected = certificateHash(d);

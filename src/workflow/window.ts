@@ -5,13 +5,14 @@
  */
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
-import { buildEdgeCertificate, buildWindowCertificate } from '../certificate/build-window.js';
+import { buildAbsenceCertificate, buildEdgeCertificate, buildWindowCertificate } from '../certificate/build-window.js';
 import { checkDirectoryUsable, mapSlug, writeFileAtomic } from '../certificate/write.js';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
 import type { DecimalPair } from '../prove/types.js';
 import { coverWindow, type WindowCover } from '../windows/cover.js';
 import { findEdges, type EdgeKind, type ProvenEdge } from '../windows/edges.js';
+import { proveAbsenceOverRange } from '../windows/absence.js';
 import { UserError } from '../errors.js';
 
 export const WINDOW_REPORT_KIND = 'window-report';
@@ -221,4 +222,44 @@ export function runEdges(req: EdgesRequest): EdgesReport {
     status: rejected ? 'rejected' : edges.length === 0 ? 'none-found' : 'proven',
     elapsedMs: Math.round(performance.now() - t0),
   };
+}
+
+export interface AbsenceRequest {
+  def: MapDefinition;
+  /** Exact parameters besides `parameter`. */
+  overrides: Record<string, ParamValue>;
+  parameter: string;
+  /** A point (lo = hi) or a range of the parameter. */
+  range: DecimalPair;
+  period: number;
+  outDir?: string;
+  file?: string;
+  force?: boolean;
+  check?: boolean;
+}
+
+export interface AbsenceReport {
+  kind: 'absence-report';
+  formatVersion: 1;
+  period: number;
+  parameter: string;
+  range: DecimalPair;
+  status: 'proven' | 'undecided' | 'rejected';
+  leaves?: number;
+  reason?: string;
+  certificate?: CertificateOutcome;
+}
+
+/** Prove that no orbit of minimal period P lies in the map's region for θ in the range. */
+export function runAbsence(req: AbsenceRequest): AbsenceReport {
+  if (req.def.state.length !== 1) throw new UserError('absence-dimension', 'absence proofs handle one-dimensional maps', 'use a map with one state variable');
+  const v = proveAbsenceOverRange(req.def, req.overrides, req.parameter, req.range, req.period);
+  const base = { kind: 'absence-report' as const, formatVersion: 1 as const, period: req.period, parameter: req.parameter, range: req.range };
+  if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `at ${v.parameter} in [${v.at[0]}, ${v.at[1]}]: ${v.reason}` };
+  const cert = buildAbsenceCertificate({ period: req.period, parameter: req.parameter, range: req.range, region: v.region, pieces: v.pieces }, req.def, req.overrides);
+  const file = req.file ?? `${mapSlug(req.def.title)}-absence-p${req.period}.json`;
+  const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
+  const leaves = v.pieces.reduce((n, p) => n + p.leaves.length, 0);
+  const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
+  return { ...base, status: rejected ? 'rejected' : 'proven', leaves, certificate };
 }
