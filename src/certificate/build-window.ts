@@ -105,6 +105,7 @@ export interface AbsenceData {
   parameter: string;
   range: DecimalInterval;
   region: DecimalInterval;
+  condition?: 'fold' | 'flip';
   pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
 }
 
@@ -121,6 +122,7 @@ export function buildAbsenceCertificate(a: AbsenceData, def: MapDefinition, over
     parameter: a.parameter,
     range: [a.range[0], a.range[1]],
     region: [a.region[0], a.region[1]],
+    ...(a.condition ? { condition: a.condition } : {}),
     pieces: a.pieces.map((p) => ({ param: [p.param[0], p.param[1]], leaves: p.leaves.map((l) => JSON.parse(JSON.stringify(l)) as AbsenceLeafV1) })),
   };
   return { ...unsigned, sha256: certificateHash(unsigned) };

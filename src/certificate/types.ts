@@ -150,6 +150,7 @@ export const CERTIFICATE_KIND_ABSENCE = 'periodic-absence';
 
 export type AbsenceLeafV1 =
   | { kind: 'empty'; x: DecimalInterval }
+  | { kind: 'multiplier'; x: DecimalInterval }
   | {
       kind: 'lower';
       x: DecimalInterval;
@@ -174,6 +175,8 @@ export interface AbsenceCertificateV1 {
   parameter: string;
   range: DecimalInterval;
   region: DecimalInterval;
+  /** Absent: no orbit of minimal period p. fold / flip: no zero of the period-p system with Λ = +1 / −1. */
+  condition?: 'fold' | 'flip';
   pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
   sha256: string;
 }

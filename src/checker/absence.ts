@@ -22,6 +22,8 @@ export function checkAbsence(d: Record<string, unknown>, digits: number, limits:
   const declared = r.ivl(d.range, '$.range');
   if (declared[0] !== range[0] || declared[1] !== range[1]) reject('$.range', `range differs from map.params.${parameter}`);
   const region = r.ivl(d.region, '$.region');
+  const condition = d.condition === undefined ? 'none' : r.str(d.condition, '$.condition');
+  if (!['none', 'fold', 'flip'].includes(condition)) reject('$.condition', 'condition must be "none", "fold" or "flip"');
   const step = parseSteps(r, m, m.state, new Set(m.params.keys()));
   const c = ivCtx(digits);
   const Dex = { lo: new Exact(region[0]), hi: new Exact(region[1]) };
@@ -68,7 +70,26 @@ export function checkAbsence(d: Record<string, unknown>, digits: number, limits:
         if (J !== null) reject(`${lp}`, `leaf [${I[0]}, ${I[1]}] is not excluded by the chain f(J) ∩ D`);
         return;
       }
-      if (leaf.kind !== 'lower') reject(`${lp}.kind`, 'leaf kind must be "empty" or "lower"');
+      if (leaf.kind === 'multiplier') {
+        if (condition === 'none') reject(`${lp}.kind`, 'a multiplier leaf needs condition "fold" or "flip"');
+        // Λ = Π f'(J_i) along the chain J_0 = I, J_{i+1} = f(J_i) ∩ D must miss ±1
+        let J: Iv = Ic;
+        let lam = c.one;
+        for (let i = 0; i < p; i++) {
+          const im = image(sys(1), [J], true);
+          lam = c.mul(lam, im.jac![0]!);
+          if (i < p - 1) {
+            const nx = meet(im.f[0]!, Dc);
+            if (nx === null) return;
+            J = nx;
+          }
+        }
+        const t = condition === 'fold' ? new Exact(1) : new Exact(-1);
+        if (!(lam.hi.lt(t) || lam.lo.gt(t))) reject(`${lp}`, `leaf [${I[0]}, ${I[1]}]: the multiplier enclosure contains ${t.toString()}`);
+        return;
+      }
+      if (leaf.kind !== 'lower') reject(`${lp}.kind`, 'leaf kind must be "empty", "multiplier" or "lower"');
+      if (condition !== 'none') reject(`${lp}.kind`, 'lower-period leaves do not exclude fold/flip zeros');
       const dv = r.int(leaf.divisor, `${lp}.divisor`, 1, p - 1);
       if (p % dv !== 0) reject(`${lp}.divisor`, `${dv} does not divide ${p}`);
       const X = r.arr(leaf.boxes, `${lp}.boxes`, p).map((b, i) => r.ivl(b, `${lp}.boxes[${i}]`));

@@ -23,6 +23,7 @@ import { floatInverseOfColumns, sparseKrawczyk, type SparseColumn } from './spar
 
 export type AbsenceLeaf =
   | { kind: 'empty'; x: DecimalPair }
+  | { kind: 'multiplier'; x: DecimalPair }
   | { kind: 'lower'; x: DecimalPair; divisor: number; boxes: DecimalPair[]; centre: string[]; lowerBoxes: DecimalPair[]; lowerCentre: string[] };
 
 export type AbsenceVerdict =
@@ -34,6 +35,12 @@ export interface AbsenceOptions {
   minWidth?: number;
   /** Most leaves (default 200 000). */
   maxLeaves?: number;
+  /**
+   * Instead of "no orbit of minimal period p": "no zero of the period-p shooting system with
+   * multiplier Λ = +1 (fold) / −1 (flip)". Leaves are then `empty` or `multiplier` (the chain's
+   * Λ = Π f'(J_i) enclosure misses ±1).
+   */
+  condition?: 'fold' | 'flip';
 }
 
 const Dd = Decimal.clone({ precision: 40 });
@@ -102,8 +109,12 @@ export function proveAbsence(def: MapDefinition, overrides: Record<string, Param
       leaves.push({ kind: 'empty', x: [loS, hiS] });
       continue;
     }
+    if (opts.condition && multiplierMisses(I, opts.condition === 'fold' ? 1 : -1)) {
+      leaves.push({ kind: 'multiplier', x: [loS, hiS] });
+      continue;
+    }
     const w = A.widUp(I);
-    if (w <= A.widUp(D) / 16) {
+    if (!opts.condition && w <= A.widUp(D) / 16) {
       const lower = tryLower(I);
       if (lower) {
         leaves.push({ ...lower, x: [loS, hiS] });
@@ -120,6 +131,25 @@ export function proveAbsence(def: MapDefinition, overrides: Record<string, Param
     stack.push([mid, hiS], [loS, mid]);
   }
   return { status: 'proven', leaves, region: [region[0], region[1]] };
+
+  /** Λ = Π f'(J_i) over the chain J_0 = I, J_{i+1} = f(J_i) ∩ D misses `target`. */
+  function multiplierMisses(I: Interval, target: number): boolean {
+    const jac = [A.fromNumber(0)];
+    let J: Interval | null = I;
+    let lam = A.fromNumber(1);
+    resetStatus(A);
+    for (let i = 0; i < period; i++) {
+      ev.imageAndJacobian([J!], out, jac);
+      lam = A.mul(lam, jac[0]!);
+      if (i < period - 1) {
+        J = A.intersect(out[0]!, D);
+        if (J === null) return true;
+      }
+    }
+    if (!A.status.continuous) return false;
+    const t = A.fromNumber(target);
+    return A.certainlyLt(lam, t) || A.certainlyLt(t, lam);
+  }
 
   function tryLower(I: Interval): Omit<Extract<AbsenceLeaf, { kind: 'lower' }>, 'x'> | null {
     const X: Interval[] = [A.inflate(I, 0.5 * A.widUp(I) + 1e-300)];
@@ -175,6 +205,7 @@ export function proveAbsenceOverRange(
   period: number,
   opts: AbsenceOptions & { maxDepth?: number; maxTotalLeaves?: number } = {},
 ): RangeAbsenceVerdict {
+  // condition set: an edge-free range (no zero of the period-p system with Λ = ±1)
   const maxDepth = opts.maxDepth ?? 12;
   const maxTotal = opts.maxTotalLeaves ?? 400_000;
   const pieces: AbsencePiece[] = [];

@@ -232,6 +232,8 @@ export interface AbsenceRequest {
   /** A point (lo = hi) or a range of the parameter. */
   range: DecimalPair;
   period: number;
+  /** Edge-free instead of orbit-free (see AbsenceOptions.condition). */
+  condition?: 'fold' | 'flip';
   outDir?: string;
   file?: string;
   force?: boolean;
@@ -253,11 +255,11 @@ export interface AbsenceReport {
 /** Prove that no orbit of minimal period P lies in the map's region for θ in the range. */
 export function runAbsence(req: AbsenceRequest): AbsenceReport {
   if (req.def.state.length !== 1) throw new UserError('absence-dimension', 'absence proofs handle one-dimensional maps', 'use a map with one state variable');
-  const v = proveAbsenceOverRange(req.def, req.overrides, req.parameter, req.range, req.period);
+  const v = proveAbsenceOverRange(req.def, req.overrides, req.parameter, req.range, req.period, req.condition ? { condition: req.condition } : {});
   const base = { kind: 'absence-report' as const, formatVersion: 1 as const, period: req.period, parameter: req.parameter, range: req.range };
   if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `at ${v.parameter} in [${v.at[0]}, ${v.at[1]}]: ${v.reason}` };
-  const cert = buildAbsenceCertificate({ period: req.period, parameter: req.parameter, range: req.range, region: v.region, pieces: v.pieces }, req.def, req.overrides);
-  const file = req.file ?? `${mapSlug(req.def.title)}-absence-p${req.period}.json`;
+  const cert = buildAbsenceCertificate({ period: req.period, parameter: req.parameter, range: req.range, region: v.region, pieces: v.pieces, ...(req.condition ? { condition: req.condition } : {}) }, req.def, req.overrides);
+  const file = req.file ?? `${mapSlug(req.def.title)}-${req.condition ? `no-${req.condition}` : 'absence'}-p${req.period}.json`;
   const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
   const leaves = v.pieces.reduce((n, p) => n + p.leaves.length, 0);
   const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
