@@ -5,6 +5,7 @@ import { collect } from '../options.js';
 import { edgesCommand, type EdgesCommandOptions } from './edges.js';
 import { windowCommand, type WindowCommandOptions } from './window.js';
 import { DEFAULT_OUT_DIR } from './prove.js';
+import { auditCommand, DEFAULT_AUDIT_DIR, type AuditCommandOptions } from './audit.js';
 
 export interface RegisterContext {
   cwd: string;
@@ -48,5 +49,17 @@ export function registerWindowCommands(program: Command, ctx: RegisterContext): 
     .action((map: string, o: EdgesCommandOptions) => {
       ctx.json(!!o.json);
       return ctx.run(() => edgesCommand(map, o, ctx.cwd, ctx.progress));
+    });
+
+  program
+    .command('audit')
+    .description('check every claim of a claims file (docs/windows.md): CONFIRMED / REFUTED / UNDECIDED, with certificates; exit 0 only if all are confirmed')
+    .argument('<claims-file>', 'YAML or JSON claims file')
+    .option('--out <dir>', 'folder for certificates (one sub-folder per claim)', DEFAULT_AUDIT_DIR)
+    .option('--force', 'replace existing certificate files')
+    .option('--json', 'print one JSON document')
+    .action((file: string, o: AuditCommandOptions) => {
+      ctx.json(!!o.json);
+      return ctx.run(() => auditCommand(file, o, ctx.cwd, ctx.progress));
     });
 }
