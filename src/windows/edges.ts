@@ -246,6 +246,7 @@ export function findEdges(
     const at = new Dx(range[0]).plus(new Dx(range[1]).minus(range[0]).times(s + 0.5).div(S)).toSignificantDigits(12).toString();
     for (const orbit of sampleOrbits(def, overrides, name, at, period)) starts.push({ orbit, param: Number(at) });
   }
+  if (kinds.includes('superstable')) starts.push(...superstableSeeds(def, ext, range, period));
   const found: ProvenEdge[] = [];
   const seen: number[][] = [];
   for (const kind of kinds) {
@@ -287,6 +288,100 @@ export function findEdges(
     }
   }
   return found.sort((u, v) => u.approx - v.approx);
+}
+
+/**
+ * @heuristic seeds for superstable parameters: on a grid of θ, the critical points c of f(·, θ)
+ * (sign changes of f_x over the region) and sign changes of f^p(c) − c between grid points.
+ */
+function superstableSeeds(def: MapDefinition, ext: FormulaMap, range: DecimalPair, p: number): { orbit: number[]; param: number }[] {
+  const lo = Number(range[0]);
+  const hi = Number(range[1]);
+  const region = def.region[def.state[0]!]!;
+  const xlo = Number(region[0]);
+  const xhi = Number(region[1]);
+  const grid = Math.min(1 << 18, Math.max(2000, 1 << (p + 7)));
+  const xs = new Float64Array(2);
+  const ys = new Float64Array(2);
+  const jac = new Float64Array(4);
+  const f = (x: number, th: number): number => {
+    xs[0] = x;
+    xs[1] = th;
+    ext.evalFloat(xs, ys);
+    return ys[0]!;
+  };
+  const fx = (x: number, th: number): number => {
+    xs[0] = x;
+    xs[1] = th;
+    ext.jacobianFloat(xs, jac);
+    return jac[0]!;
+  };
+  const criticals = (th: number): number[] => {
+    const out: number[] = [];
+    const K = 64;
+    let prev = fx(xlo, th);
+    for (let k = 1; k <= K; k++) {
+      const x = xlo + ((xhi - xlo) * k) / K;
+      const cur = fx(x, th);
+      if (prev === 0 || prev * cur < 0) {
+        let a = x - (xhi - xlo) / K;
+        let b = x;
+        let fa = fx(a, th);
+        for (let it = 0; it < 60; it++) {
+          const m = (a + b) / 2;
+          const fm = fx(m, th);
+          if (fa * fm <= 0) b = m;
+          else {
+            a = m;
+            fa = fm;
+          }
+        }
+        out.push((a + b) / 2);
+      }
+      prev = cur;
+    }
+    return out;
+  };
+  // critical points move slowly with θ: a full scan every 512 grid points, secant updates between
+  let cache: number[] = [];
+  const criticalsAt = (th: number, k: number): number[] => {
+    if (k % 512 === 0 || cache.length === 0) return (cache = criticals(th));
+    cache = cache.map((c) => {
+      const h = 1e-7 * (1 + Math.abs(c));
+      let x = c;
+      for (let it = 0; it < 2; it++) {
+        const d = (fx(x + h, th) - fx(x - h, th)) / (2 * h);
+        if (d === 0 || !Number.isFinite(d)) break;
+        x -= fx(x, th) / d;
+      }
+      return x;
+    });
+    return cache;
+  };
+  const gap = (th: number, c: number): number => {
+    let x = c;
+    for (let k = 0; k < p; k++) x = f(x, th);
+    return x - c;
+  };
+  const seeds: { orbit: number[]; param: number }[] = [];
+  let prevTh = lo;
+  let prevG = criticalsAt(lo, 0).map((c) => gap(lo, c));
+  for (let k = 1; k <= grid; k++) {
+    const th = lo + ((hi - lo) * k) / grid;
+    const cs = criticalsAt(th, k);
+    const gs = cs.map((c) => gap(th, c));
+    for (let j = 0; j < Math.min(gs.length, prevG.length); j++) {
+      if (Number.isFinite(gs[j]!) && Number.isFinite(prevG[j]!) && gs[j]! * prevG[j]! <= 0) {
+        const t = (prevTh + th) / 2;
+        const orbit: number[] = [cs[j]!];
+        for (let i = 1; i < p; i++) orbit.push(f(orbit[i - 1]!, t));
+        seeds.push({ orbit, param: t });
+      }
+    }
+    prevTh = th;
+    prevG = gs;
+  }
+  return seeds;
 }
 
 function sameCycle(a: readonly number[], b: readonly number[]): boolean {
