@@ -84,7 +84,7 @@ export function checkAbsence(d: Record<string, unknown>, digits: number, limits:
             J = nx;
           }
         }
-        const t = condition === 'fold' ? new Exact(1) : new Exact(-1);
+        const t = condition === 'fold' ? new Exact('1') : new Exact('-1');
         if (!(lam.hi.lt(t) || lam.lo.gt(t))) reject(`${lp}`, `leaf [${I[0]}, ${I[1]}]: the multiplier enclosure contains ${t.toString()}`);
         return;
       }

@@ -191,15 +191,17 @@ export function minimalFromBoxes(boxes: readonly [number, number][], p: number):
 export interface EdgeSearchOptions {
   /** Sample parameters in the range (default 24). */
   samples?: number;
+  /** Seed also from the float search at each sample (default: period ≤ 10); else the float attractor only. */
+  search?: boolean;
   /** Float orbits to start from, in addition to the sampled ones (each p points). */
   seeds?: { orbit: number[]; param: number }[];
 }
 
 /** @heuristic float orbits of period p at θ: search (p ≤ 10) and the float attractor. */
-function sampleOrbits(def: MapDefinition, overrides: Record<string, ParamValue>, name: string, at: string, p: number): number[][] {
+function sampleOrbits(def: MapDefinition, overrides: Record<string, ParamValue>, name: string, at: string, p: number, search: boolean): number[][] {
   const map = compileMap(def, { ...overrides, [name]: { kind: 'exact', value: at } });
   const out: number[][] = [];
-  if (p <= 10) for (const c of findCandidates(map, { period: p })) out.push(c.points.map((pt) => pt[0]!));
+  if (search) for (const c of findCandidates(map, { period: p })) out.push(c.points.map((pt) => pt[0]!));
   const region = def.region[def.state[0]!]!;
   let x = (Number(region[0]) + Number(region[1])) / 2 + 1e-3;
   const buf = new Float64Array(1);
@@ -244,7 +246,7 @@ export function findEdges(
   const Dx = Decimal.clone({ precision: 30 });
   for (let s = 0; s < S; s++) {
     const at = new Dx(range[0]).plus(new Dx(range[1]).minus(range[0]).times(s + 0.5).div(S)).toSignificantDigits(12).toString();
-    for (const orbit of sampleOrbits(def, overrides, name, at, period)) starts.push({ orbit, param: Number(at) });
+    for (const orbit of sampleOrbits(def, overrides, name, at, period, opts.search ?? period <= 10)) starts.push({ orbit, param: Number(at) });
   }
   if (kinds.includes('superstable')) starts.push(...superstableSeeds(def, ext, range, period));
   const found: ProvenEdge[] = [];
