@@ -189,7 +189,7 @@ export function minimalFromBoxes(boxes: readonly [number, number][], p: number):
 }
 
 export interface EdgeSearchOptions {
-  /** Sample parameters in the range (default 24). */
+  /** Sample parameters in the range (default 12). */
   samples?: number;
   /** Seed also from the float search at each sample (default: period ≤ 10); else the float attractor only. */
   search?: boolean;
@@ -241,7 +241,7 @@ export function findEdges(
   const soFloat = ext.secondOrder(createFloatArithmetic());
   const lo = Number(range[0]);
   const hi = Number(range[1]);
-  const S = opts.samples ?? 24;
+  const S = opts.samples ?? 12;
   const starts: { orbit: number[]; param: number }[] = [...(opts.seeds ?? [])];
   const Dx = Decimal.clone({ precision: 30 });
   for (let s = 0; s < S; s++) {

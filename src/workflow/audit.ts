@@ -85,7 +85,10 @@ function auditEdge(claim: WindowClaim, e: WindowClaim['edges'][number], k: numbe
   const reach = Decimal.max(t.times(100), v.abs().times('1e-3'));
   const search: DecimalPair = [v.minus(reach).toString(), v.plus(reach).toString()];
   const sub = dir ? join(dir, `edge-${k + 1}`) : undefined;
-  const found = runEdges({ def, overrides: { ...exact, [claim.parameter]: { kind: 'interval', lo: search[0], hi: search[1] } }, period: claim.period, kinds: [e.kind], ...(sub ? { outDir: sub } : {}), force });
+  const edgeReq = { def, overrides: { ...exact, [claim.parameter]: { kind: 'interval' as const, lo: search[0], hi: search[1] } }, period: claim.period, kinds: [e.kind], ...(sub ? { outDir: sub } : {}), force };
+  // the float attractor first (cheap), the float search only when that finds nothing
+  let found = runEdges({ ...edgeReq, samples: 12, search: false });
+  if (found.edges.length === 0) found = runEdges({ ...edgeReq, force: true });
   const inside = found.edges.find((x) => new Decimal(x.param[0]).gte(tol[0]) && new Decimal(x.param[1]).lte(tol[1]) && verified(x.certificate));
   if (inside) return { what, verdict: 'CONFIRMED', detail: `${e.kind} enclosed in [${inside.param[0].slice(0, 24)}, ${inside.param[1].slice(0, 24)}]`, certificates: [inside.certificate] };
   const nearest = found.edges.filter((x) => verified(x.certificate)).sort((a, b) => new Decimal(a.param[0]).minus(v).abs().cmp(new Decimal(b.param[0]).minus(v).abs()))[0];

@@ -166,6 +166,8 @@ export interface EdgesRequest {
   period: number;
   kinds: EdgeKind[];
   samples?: number;
+  /** Seed from the float search too (default: period ≤ 10). */
+  search?: boolean;
   outDir?: string;
   force?: boolean;
   check?: boolean;
@@ -195,7 +197,7 @@ export function runEdges(req: EdgesRequest): EdgesReport {
   }
   if (req.outDir !== undefined) checkDirectoryUsable(req.outDir);
   req.progress?.(0, 1, 'searching');
-  const found: ProvenEdge[] = findEdges(req.def, exact, name, range, req.period, req.kinds, req.samples ? { samples: req.samples } : {});
+  const found: ProvenEdge[] = findEdges(req.def, exact, name, range, req.period, req.kinds, { ...(req.samples ? { samples: req.samples } : {}), ...(req.search !== undefined ? { search: req.search } : {}) });
   const edges = found.map((e, k) => {
     const cert = buildEdgeCertificate(e, req.def, range, exact);
     const file = `${mapSlug(req.def.title)}-${e.kind}-p${req.period}-${k + 1}.json`;

@@ -41,7 +41,7 @@ export function registerWindowCommands(program: Command, ctx: RegisterContext): 
     .requiredOption('--period <P>', 'period of the orbits')
     .option('--param <name=value>', PARAM_HELP, collect)
     .option('--kind <list>', 'fold, flip, superstable (comma-separated; default fold,flip)')
-    .option('--samples <N>', 'parameter samples for the float seeds (default 24)')
+    .option('--samples <N>', 'parameter samples for the float seeds (default 12)')
     .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
     .option('--force', 'replace existing certificate files')
     .option('--no-check', 'do not run the independent checker')
