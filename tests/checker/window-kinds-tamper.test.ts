@@ -89,3 +89,21 @@ describe('periodic-absence mutants', () => {
     });
   }
 });
+
+describe('schema/windows-v1.schema.json', () => {
+  it('accepts a window, an edge and an absence certificate, and refuses a misspelt field', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { validate } = await import('../certificate/mini-schema.js');
+    const schema = JSON.parse(readFileSync(join(__dirname, '../../schema/windows-v1.schema.json'), 'utf8'));
+    const c = coverWindow(logistic, {}, 'r', ['3.835', '3.8414'], 3);
+    const w = buildWindowCertificate({ ...c, pieces: c.pieces.map((p) => ({ param: p.param, centre: p.orbit.centre, boxes: p.orbit.boxes, minimalPeriod: p.orbit.minimalPeriod, stability: p.orbit.stability, joinedToNext: p.joinedToNext })) }, logistic);
+    const [flip] = findEdges(logistic, {}, 'r', ['3.84', '3.845'], 3, ['flip'], { samples: 4, search: false });
+    const e = buildEdgeCertificate(flip!, logistic, ['3.84', '3.845']);
+    const a0 = proveAbsenceOverRange(logistic, {}, 'r', ['3.5', '3.5'], 3);
+    if (a0.status !== 'proven') throw new Error('fixture');
+    const a = buildAbsenceCertificate({ period: 3, parameter: 'r', range: a0.range, region: a0.region, pieces: a0.pieces }, logistic);
+    for (const doc of [w, e, a]) expect(validate(schema, doc)).toEqual([]);
+    expect(validate(schema, { ...e, edges: 'fold' }).length).toBeGreaterThan(0);
+  });
+});
