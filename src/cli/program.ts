@@ -1,17 +1,28 @@
 /**
  * The command line as a pure function: `runCli(argv)` → {stdout, stderr, exitCode}. No process
  * I/O here (main.ts does that), so tests run every command in-process.
+ *
+ * Startup: each command's module (and with it the prover, the checker, decimal.js) is imported
+ * only when that command runs, so `orbitseal --version` and `--help` load commander and little
+ * else. Keep the static imports below light (no command modules, nothing that loads decimal.js).
  */
 import { Command, CommanderError } from 'commander';
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
-import { collect } from './options.js';
-import { checkCommand, type CheckCommandOptions } from './commands/check.js';
-import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
-import { findCommand, type FindCommandOptions } from './commands/find.js';
-import { DEFAULT_OUT_DIR, proveCommand, type ProveCommandOptions } from './commands/prove.js';
-import { showCommand, type ShowCommandOptions } from './commands/show.js';
-import { registerWindowCommands } from './commands/register-windows.js';
+import { DEFAULT_AUDIT_DIR, DEFAULT_OUT_DIR } from './options.js';
+import type { CheckCommandOptions } from './commands/check.js';
+import type { DemoCommandOptions } from './commands/demo.js';
+import type { FindCommandOptions } from './commands/find.js';
+import type { ProveCommandOptions } from './commands/prove.js';
+import type { ShowCommandOptions } from './commands/show.js';
+import type { WindowCommandOptions } from './commands/window.js';
+import type { EdgesCommandOptions } from './commands/edges.js';
+import type { AuditCommandOptions } from './commands/audit.js';
+
+/** Commander collector for repeatable options. */
+export function collect(value: string, previous: string[] | undefined): string[] {
+  return [...(previous ?? []), value];
+}
 
 export interface RunContext {
   /** Working folder for relative paths (default process.cwd()). */
@@ -55,7 +66,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ShowCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => showCommand(map, o, cwd))();
+      return run(async () => (await import('./commands/show.js')).showCommand(map, o, cwd))();
     });
 
   program
@@ -68,7 +79,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => findCommand(map, o, cwd))();
+      return run(async () => (await import('./commands/find.js')).findCommand(map, o, cwd))();
     });
 
   program
@@ -89,15 +100,55 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => proveCommand(map, o, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/prove.js')).proveCommand(map, o, cwd, ctx.progress))();
     });
 
-  registerWindowCommands(program, {
-    cwd,
-    ...(ctx.progress ? { progress: ctx.progress } : {}),
-    json: (v) => (wantsJson = v),
-    run: (f) => run(f)(),
-  });
+  const RANGE_HELP = 'parameter: name=decimal or name=[lo,hi] (exactly one as a range; repeatable)';
+  program
+    .command('window')
+    .description('prove that for every parameter in a range one orbit of minimal period P exists, continues and has one stability; one certificate')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'minimal period')
+    .option('--param <name=value>', RANGE_HELP, collect)
+    .option('--near <x,...>', 'follow the orbit through (near) this point')
+    .option('--min-width <w>', 'do not split parameter pieces narrower than this')
+    .option('--out <dir>', 'folder for the certificate', DEFAULT_OUT_DIR)
+    .option('--force', 'replace an existing certificate file')
+    .option('--no-check', 'do not run the independent checker')
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: WindowCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/window.js')).windowCommand(map, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('edges')
+    .description('enclose fold (multiplier +1), flip (−1) and superstable parameters of period-P orbits in a range (one-dimensional maps)')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'period of the orbits')
+    .option('--param <name=value>', RANGE_HELP, collect)
+    .option('--kind <list>', 'fold, flip, superstable (comma-separated; default fold,flip)')
+    .option('--samples <N>', 'parameter samples for the float seeds (default 12)')
+    .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
+    .option('--force', 'replace existing certificate files')
+    .option('--no-check', 'do not run the independent checker')
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: EdgesCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/edges.js')).edgesCommand(map, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('audit')
+    .description('check every claim of a claims file (docs/windows.md): CONFIRMED / REFUTED / UNDECIDED, with certificates; exit 0 only if all are confirmed')
+    .argument('<claims-file>', 'YAML or JSON claims file')
+    .option('--out <dir>', 'folder for certificates (one sub-folder per claim)', DEFAULT_AUDIT_DIR)
+    .option('--force', 'replace existing certificate files')
+    .option('--json', 'print one JSON document')
+    .action((file: string, o: AuditCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/audit.js')).auditCommand(file, o, cwd, ctx.progress))();
+    });
 
   program
     .command('check')
@@ -107,7 +158,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => checkCommand(paths, o, cwd))();
+      return run(async () => (await import('./commands/check.js')).checkCommand(paths, o, cwd))();
     });
 
   program
@@ -117,7 +168,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((o: DemoCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => demoCommand(o, cwd))();
+      return run(async () => (await import('./commands/demo.js')).demoCommand(o, cwd))();
     });
 
   try {

@@ -134,7 +134,6 @@ export interface EdgeProofOptions {
 export function proveEdgeAt(ext: FormulaMap, kind: EdgeKind, z: readonly number[], opts: EdgeProofOptions = {}): { Z: Interval[]; m: Interval[] } | null {
   const A: IntervalArithmetic<Interval> = intervalArithmetic();
   const so = ext.secondOrder(A);
-  const N = z.length;
   const m = z.map((v) => A.fromNumber(v));
   resetStatus(A);
   const Gm = augmentedSystem(A, so, kind, m, false).G;

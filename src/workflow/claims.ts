@@ -22,6 +22,7 @@ import { dirname, isAbsolute, resolve } from 'node:path';
 import { Decimal } from 'decimal.js';
 import { isMap, isScalar, isSeq, parseDocument, type Node } from 'yaml';
 import { UserError } from '../errors.js';
+import { isDecimalLiteral } from '../interval/decimal-literal.js';
 
 export const CLAIMS_FORMAT = 'orbitseal-claims';
 export const MAX_CLAIMS = 1000;
@@ -53,7 +54,6 @@ export class ClaimsError extends UserError {
   }
 }
 
-const DECIMAL = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 const ID = /^[A-Za-z0-9_-]{1,64}$/;
 
 export function readClaimsFile(path: string): WindowClaim[] {
@@ -98,7 +98,7 @@ export function parseClaims(text: string, file: string): WindowClaim[] {
   };
   const decimal = (n: Node | undefined, what: string, parent: Node): string => {
     const s = scalarText(n, what, parent);
-    if (!DECIMAL.test(s)) fail('claims-bad-number', `${what} must be a decimal number, got ${JSON.stringify(s.slice(0, 40))}`, n, 'write e.g. 3.8285 or 1e-6');
+    if (!isDecimalLiteral(s)) fail('claims-bad-number', `${what} must be a decimal number, got ${JSON.stringify(s.slice(0, 40))}`, n, 'write e.g. 3.8285 or 1e-6');
     return s;
   };
   if (scalarText(get(root, 'format'), 'format', root) !== CLAIMS_FORMAT) fail('claims-format', `format must be ${CLAIMS_FORMAT}`, get(root, 'format'), `write format: ${CLAIMS_FORMAT}`);

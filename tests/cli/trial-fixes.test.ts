@@ -10,7 +10,7 @@ import { DEFAULT_LIMITS } from '../../src/checker/index.js';
 import { table } from '../../src/cli/format.js';
 import { runCli } from '../../src/cli/program.js';
 import { MAX_CANDIDATES_SHOWN, renderFind } from '../../src/cli/commands/find.js';
-import type { CandidateLike } from '../../src/cli/library.js';
+import type { Candidate } from '../../src/search/index.js';
 
 describe('big outputs do not overflow the call stack (trial: find logistic r=4 --period 100 crashed)', () => {
   it('table with 210 000 lines: widths are the longest cell, no RangeError', () => {
@@ -28,7 +28,7 @@ describe('big outputs do not overflow the call stack (trial: find logistic r=4 -
 
   it(`renderFind lists at most ${MAX_CANDIDATES_SHOWN} candidates and says how many more (40 000 × 100 points)`, () => {
     const period = 100;
-    const cands: CandidateLike[] = [];
+    const cands: Candidate[] = [];
     const points: number[][] = [];
     for (let k = 0; k < period; k++) points.push([k / 128]);
     for (let i = 0; i < 40_000; i++) {
@@ -54,7 +54,7 @@ describe('prove --out into an unusable folder', () => {
     expect(performance.now() - t0).toBeLessThan(3000);
     expect(r.exitCode).toBe(2);
     expect(r.stdout).toBe('');
-    expect(r.stderr).toMatch(/^\/proc\/nope: error \[CERT_WRITE_FAILED\]: cannot create folder \/proc\/nope: E[A-Z]+ \(.*\)\n {2}hint: /);
+    expect(r.stderr).toMatch(/^\/proc\/nope: error \[cert-write-failed\]: cannot create folder \/proc\/nope: E[A-Z]+ \(.*\)\n {2}hint: /);
     expect(r.stderr).not.toMatch(/(E[A-Z]+): \1/);
   }, 20_000);
 });
@@ -141,13 +141,13 @@ describe('wording', () => {
     expect(r.stdout).not.toMatch(/maps inside/);
   });
 
-  it('prove with an interval parameter, not proven → hint to narrow or split the interval; exit 1', async () => {
+  it('prove with an interval parameter, not proven → hint to run `window`, which splits the interval; exit 1', async () => {
     // r in [3.83, 3.86] is too wide for a single Krawczyk box (observed, not a published value)
     const r = await runCli(['prove', 'logistic', '--param', 'r=[3.83,3.86]', '--period', '3', '--out', fresh()]);
     expect(r.exitCode).toBe(1);
-    expect(r.stdout).toMatch(/hint: r is an interval; .*narrow the parameter interval or split it/);
+    expect(r.stdout.replace(/\s+/g, ' ')).toMatch(/hint: r is an interval; .*run orbitseal window MAP --period 3 --param "r=\[lo,hi\]", which splits the range/);
     const ok = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--out', fresh()]);
-    expect(ok.stdout).not.toMatch(/narrow the parameter interval/);
+    expect(ok.stdout).not.toMatch(/orbitseal window/);
   });
 });
 

@@ -3,6 +3,7 @@ import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
 import { runAudit, type AuditReport } from '../../workflow/audit.js';
+import { DEFAULT_AUDIT_DIR } from '../options.js';
 
 export interface AuditCommandOptions {
   out?: string;
@@ -10,7 +11,6 @@ export interface AuditCommandOptions {
   json?: boolean;
 }
 
-export const DEFAULT_AUDIT_DIR = 'orbitseal-audit';
 
 export async function auditCommand(file: string, o: AuditCommandOptions, cwd = process.cwd(), progressSink?: (t: string) => void): Promise<CommandResult> {
   let shown = false;

@@ -6,7 +6,7 @@ import { parsePeriod } from '../options.js';
 import { runEdges, type EdgesReport } from '../../workflow/window.js';
 import type { EdgeKind } from '../../windows/edges.js';
 import { loadMap } from './common.js';
-import { DEFAULT_OUT_DIR } from './prove.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { certificateLine } from './window.js';
 
 export interface EdgesCommandOptions {

@@ -1,12 +1,14 @@
 /** `orbitseal window MAP --period P --param r=[a,b]`: one workflow call plus rendering. */
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
-import { formatInterval, table } from '../format.js';
+import { table } from '../format.js';
 import { parseNear, parsePeriod } from '../options.js';
 import { runWindow, type CertificateOutcome, type WindowReport } from '../../workflow/window.js';
 import { loadMap } from './common.js';
-import { DEFAULT_OUT_DIR } from './prove.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { UsageError } from '../errors.js';
+import { Decimal } from 'decimal.js';
+import { isDecimalLiteral } from '../../interval/decimal-literal.js';
 
 export interface WindowCommandOptions {
   period: string;
@@ -19,11 +21,10 @@ export interface WindowCommandOptions {
   json?: boolean;
 }
 
-const DECIMAL = /^(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
 export async function windowCommand(mapArg: string, o: WindowCommandOptions, cwd = process.cwd(), progressSink?: (t: string) => void): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  if (o.minWidth !== undefined && (!DECIMAL.test(o.minWidth.trim()) || Number(o.minWidth) <= 0)) {
+  if (o.minWidth !== undefined && (!isDecimalLiteral(o.minWidth.trim()) || !new Decimal(o.minWidth.trim()).gt(0))) {
     throw new UsageError('bad-option', '--min-width', o.minWidth, 'expected a positive decimal', 'write e.g. --min-width 1e-9');
   }
   const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
