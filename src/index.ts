@@ -70,6 +70,9 @@ export { checkCertificate, checkPaths, type CheckReport, type CheckOptions } fro
 export { certifyOrbits, type CertifyOptions, type CertifyReport, type OrbitOutcome, type OrbitStatus } from './workflow/certify.js';
 export { runDemo, type DemoReport, type DemoRun } from './workflow/demo.js';
 export { iterateFromStart, startDigits } from './workflow/start.js';
+export { runWindow, runEdges, runAbsence, type WindowReport, type EdgesReport, type AbsenceReport } from './workflow/window.js';
+export { runAudit, type AuditReport, type AuditVerdict } from './workflow/audit.js';
+export { parseClaims, readClaimsFile, type WindowClaim } from './workflow/claims.js';
 export { runCli } from './cli/program.js';
 
 // layer namespaces
