@@ -100,6 +100,10 @@ function auditEdge(claim: WindowClaim, e: WindowClaim['edges'][number], k: numbe
   return { what, verdict: 'UNDECIDED', detail: nearest ? `nearest ${e.kind} enclosed at [${nearest.param[0].slice(0, 24)}, ${nearest.param[1].slice(0, 24)}], but its absence from the tolerance interval was not shown` : `no ${e.kind} found near ${e.value}, and none excluded`, certificates: nearest ? [nearest.certificate] : [] };
 }
 
+/**
+ * Audit a claims file (docs/windows.md): CONFIRMED / REFUTED / UNDECIDED per claim, with the
+ * certificates (written under `outDir/<claim id>/`, each re-verified) that decide it.
+ */
 export function runAudit(req: AuditRequest): AuditReport {
   const t0 = performance.now();
   const claims = readClaimsFile(req.claimsFile);

@@ -56,6 +56,7 @@ export class ClaimsError extends UserError {
 
 const ID = /^[A-Za-z0-9_-]{1,64}$/;
 
+/** Read and parse a claims file (at most 1 MiB). Throws ClaimsError. */
 export function readClaimsFile(path: string): WindowClaim[] {
   let text: string;
   try {
@@ -68,6 +69,7 @@ export function readClaimsFile(path: string): WindowClaim[] {
   return parseClaims(text, path);
 }
 
+/** Parse claims-file text (YAML or JSON); `file` names the source in error places. Throws ClaimsError. */
 export function parseClaims(text: string, file: string): WindowClaim[] {
   const at = (node: Node | null | undefined): string => {
     const off = node?.range?.[0] ?? 0;

@@ -102,6 +102,11 @@ function branchesOf(c: WindowCover): WindowReport['branches'] {
   return out;
 }
 
+/**
+ * Prove a window: cover the one interval parameter by proven pieces (continuation, adaptive
+ * bisection), write one `periodic-window` certificate, re-verify it with the independent checker
+ * unless `check: false`, and summarise pieces, gaps and branches. User mistakes throw UserError.
+ */
 export function runWindow(req: WindowRequest): WindowReport {
   const t0 = performance.now();
   const { name, range, exact } = splitParameters(req.def, req.overrides);
@@ -189,6 +194,11 @@ export interface EdgesReport {
   elapsedMs: number;
 }
 
+/**
+ * Enclose folds, flips and superstable parameters of period-P orbits of a one-dimensional map in
+ * the interval parameter's range; one `bifurcation-edge` certificate per edge, each re-verified.
+ * Edges the float seeds miss are not listed (no claim that none exist).
+ */
 export function runEdges(req: EdgesRequest): EdgesReport {
   const t0 = performance.now();
   const { name, range, exact } = splitParameters(req.def, req.overrides);
