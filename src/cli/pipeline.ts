@@ -6,6 +6,7 @@
 import { join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
 import type { ProvenOrbit } from '../prove/types.js';
+import { OrbitIdentifier } from '../prove/identify.js';
 import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
@@ -75,6 +76,12 @@ export interface CertifyReport {
   limit: number | null;
   limitFrom: 'option' | 'default' | 'near' | null;
   outcomes: OrbitOutcome[];
+  /**
+   * Proven candidates that turned out to be an orbit already in `outcomes` (rigorous
+   * identification, src/prove/identify.ts): not written, not counted. `attempt` is the 1-based
+   * proof attempt, `sameAs` the `index` of the outcome it duplicates.
+   */
+  merged: { attempt: number; sameAs: number }[];
   outDir: string;
   checked: boolean;
   exitCode: ExitCode;
@@ -191,10 +198,16 @@ export async function certifyOrbits(
   const chosen: CandidateLike[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
   const outcomes: OrbitOutcome[] = [];
+  const merged: CertifyReport['merged'] = [];
+  const identifier = new OrbitIdentifier(opts.period, compiled.dim);
+  const keptIndex: number[] = [];
+  let identityUndecided = false;
   let k = 0;
+  let attemptNo = 0;
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
-    opts.progress?.(index, chosen.length);
+    attemptNo++;
+    opts.progress?.(attemptNo, chosen.length);
     const points = startPoints ?? candidate.points;
     const verdict = prover.proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
@@ -203,6 +216,15 @@ export async function certifyOrbits(
       continue;
     }
     const orbit = verdict.orbit;
+    // one orbit is one orbit: a proven zero inside another's uniqueness region is that orbit
+    const identity = identifier.add(orbit);
+    if (identity.kind === 'same') {
+      merged.push({ attempt: attemptNo, sameAs: keptIndex[identity.sameAs]! });
+      continue;
+    }
+    keptIndex.push(index);
+    const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
+    if (sameness !== '') identityUndecided = true;
     const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k)), cert, {
@@ -223,6 +245,7 @@ export async function certifyOrbits(
       const notes: string[] = [];
       if (orbit.minimalPeriod !== opts.period) notes.push(minimalPeriodNotShown(opts.period));
       const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;
+      if (sameness !== '') notes.push(sameness);
       if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
@@ -233,6 +256,7 @@ export async function certifyOrbits(
   // point, a shorter cycle run several times) is proven as stated, but not what was asked for.
   const allGood =
     outcomes.length > 0 &&
+    !identityUndecided &&
     outcomes.every(
       (o) => (o.status === 'verified' || (!checkOn && o.status === 'prover-only')) && o.orbit?.minimalPeriod === opts.period,
     );
@@ -246,6 +270,7 @@ export async function certifyOrbits(
     limit,
     limitFrom: limit === null ? null : opts.limit !== undefined ? 'option' : opts.near ? 'near' : 'default',
     outcomes,
+    merged,
     outDir: opts.outDir,
     checked: checkOn,
     exitCode: allGood ? EXIT_OK : EXIT_NOT_PROVEN,

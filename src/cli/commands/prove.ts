@@ -84,6 +84,9 @@ export function proveJson(r: CertifyReport): Record<string, unknown> {
     candidatesFound: r.candidatesFound,
     limit: r.limit,
     unattempted: r.unattempted,
+    searchScope: SEARCH_SCOPE,
+    duplicatesMerged: r.merged.length,
+    merged: r.merged,
     checked: r.checked,
     outDir: r.outDir,
     orbits: r.outcomes.map((o) => ({
@@ -198,7 +201,10 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
       out.push(`#${o.index}: note: the fast engine's enclosures rest on the accuracy of built-in elementary functions`);
     }
   }
+  const mergedText = mergedLine(r);
+  if (mergedText) out.push(mergedText);
   out.push(summaryLine(r));
+  if (r.source === 'search' && r.limit === null) out.push(wrap(`note: ${SEARCH_SCOPE}`, 78, 10));
   const hint = intervalHint(r);
   if (hint) out.push(hint);
   const more = unattemptedLine(r);
@@ -249,6 +255,24 @@ export function wrap(text: string, width: number, maxLines = 6): string {
   return lines.join('\n');
 }
 
+/** What --all (and any count of search candidates) means; in the table notes, the JSON and the README. */
+export const SEARCH_SCOPE =
+  '--all means every candidate this float search found, not every orbit: a search is not a proof of completeness (raise --effort to search harder); a complete count is a separate job (a count command).';
+
+/** "k duplicates merged: …" listing which proof attempt duplicated which row; '' when none. */
+export function mergedLine(r: CertifyReport): string {
+  if (r.merged.length === 0) return '';
+  const bySame = new Map<number, number[]>();
+  for (const m of r.merged) bySame.set(m.sameAs, [...(bySame.get(m.sameAs) ?? []), m.attempt]);
+  const parts = [...bySame].map(([same, attempts]) => `attempt${attempts.length === 1 ? '' : 's'} ${attempts.join(', ')} = #${same}`);
+  const n = r.merged.length;
+  return wrap(
+    `${n} duplicate${n === 1 ? '' : 's'} merged: proven again and identified rigorously as the same orbit (its boxes, under a cyclic shift, lie in the uniqueness region of the kept one); no certificate written for ${n === 1 ? 'it' : 'them'} (${parts.join('; ')})`,
+    78,
+    20,
+  );
+}
+
 export function summaryLine(r: CertifyReport): string {
   const count = (s: OrbitOutcome['status']) => r.outcomes.filter((o) => o.status === s).length;
   const parts = [`${count('verified')} proven and re-verified by the independent checker`];
@@ -257,6 +281,7 @@ export function summaryLine(r: CertifyReport): string {
   if (count('not-proven') > 0) parts.push(`${count('not-proven')} not proven`);
   const notMinimal = r.outcomes.filter((o) => o.orbit !== undefined && o.orbit.minimalPeriod !== r.period).length;
   if (notMinimal > 0) parts.push(`${notMinimal} without a proof of minimal period ${r.period}`);
+  if (r.merged.length > 0) parts.push(`${r.merged.length} duplicate${r.merged.length === 1 ? '' : 's'} merged`);
   return `summary: ${parts.join('; ')}.` + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
 }
 
