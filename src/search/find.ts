@@ -196,26 +196,68 @@ function fillIterated(
   return true;
 }
 
-/** Default effort by state dimension (see findCandidates). */
-function defaultEffort(n: number, p: number): { grid: number; random: number; attractor: number } {
+/**
+ * @heuristic The largest Lyapunov exponent of a float orbit (natural log per step, ≥ 0), a cheap
+ * stand-in for the map's expansion: a map with topological entropy h has about e^{hp}/p orbits of
+ * period p, and h ≥ the exponent of a typical orbit (Hénon 1.4, 0.3: exponent ≈ 0.42, h ≈ 0.465;
+ * logistic r = 4: both ln 2). 0 when the orbit escapes or settles on an attracting cycle.
+ */
+export function estimateExpansion(map: CompiledMap, seedLo: Float64Array, seedHi: Float64Array, rng: Rng, escapeBound: number): number {
+  const n = map.dim;
+  const steps = 2000;
+  const orbit = longFloatOrbit(map, { seedLo, seedHi, rng, length: steps, escapeBound });
+  if (orbit === null) return 0;
+  const jac = new Float64Array(n * n);
+  let v = new Float64Array(n).fill(1 / Math.sqrt(n));
+  let w = new Float64Array(n);
+  let sum = 0;
+  for (let k = 0; k < steps; k++) {
+    map.jacobianFloat(orbit.subarray(k * n, (k + 1) * n), jac);
+    let norm = 0;
+    for (let r = 0; r < n; r++) {
+      let acc = 0;
+      for (let c = 0; c < n; c++) acc += jac[r * n + c]! * v[c]!;
+      w[r] = acc;
+      norm += acc * acc;
+    }
+    norm = Math.sqrt(norm);
+    if (!(norm > 0 && Number.isFinite(norm))) return 0;
+    sum += Math.log(norm);
+    for (let r = 0; r < n; r++) w[r] = w[r]! / norm;
+    [v, w] = [w, v];
+  }
+  const lambda = sum / steps;
+  return Number.isFinite(lambda) ? Math.min(Math.max(0, lambda), 5) : 0;
+}
+
+/**
+ * Default effort by state dimension and period (see findCandidates), times `effort`. `expansion`
+ * is estimateExpansion's exponent λ; e^{λp}/p estimates the number of orbits of period p.
+ */
+function defaultEffort(n: number, p: number, expansion: number, effort: number): { grid: number; random: number; attractor: number } {
+  const orbitsExpected = Math.exp(Math.min(expansion * p, 40)) / p;
   // 1-D: a chaotic map has up to ~2^p/p orbits of period p; about 4 grid points per periodic
-  // point of f^p find them all for the logistic map at r = 4 (bench/search-bench.ts), capped.
+  // point of f^p find them all for the logistic map at r = 4 (bench/search-bench.ts); beyond
+  // 40000 seeds, 10 per expected orbit (p = 16: 40000 seeds find all 4080, A001037).
+  // 2-D: about 200 grid seeds per expected orbit (Hénon 1.4, 0.3: 120² find all 233 orbits of
+  // period 18, 200² all 535 of period 20, 300² all 1225 of period 22; Galias 2001, from memory).
+  const lambda1 = Math.max(expansion, Math.LN2); // never below the former 2^(p+2) rule
+  const seeds1 = Math.min(4 * Math.exp(Math.min(lambda1 * p, 40)), Math.max(40000, (10 * Math.exp(Math.min(lambda1 * p, 40))) / p));
   const e =
     n === 1
-      ? { grid: Math.min(40000, Math.max(1000, 2 ** Math.min(p + 2, 30))), random: 400, attractor: 200 }
+      ? { grid: Math.max(1000, Math.min(seeds1, 2 ** 30)) * effort, random: 400 * effort, attractor: 200 * effort }
       : n === 2
-        ? { grid: 40, random: 600, attractor: 400 }
-        : { grid: Math.max(2, Math.round(Math.pow(600, 1 / n))), random: 600, attractor: 400 };
-  // Long shooting vectors: every grid or random seed is a Newton solve in p·n unknowns, and long
-  // orbits are found by the attractor seeds anyway; cap the grid and random seeds by a work
-  // budget of ~2·10^5 seed-unknowns each (a period-1000 search then takes seconds, not minutes).
+        ? { grid: Math.sqrt(Math.max(1600, 200 * orbitsExpected) * effort), random: 600 * effort, attractor: 400 * effort }
+        : { grid: Math.max(2, Math.pow(600 * effort, 1 / n)), random: 600 * effort, attractor: 400 * effort };
+  // Every grid or random seed is a Newton solve in p·n unknowns: cap the grid and random seeds
+  // by a work budget of seed-unknowns — 2·10^6 for short vectors (p·n ≤ 50, where orbits are
+  // many), 2·10^5 for long ones (found by the attractor seeds anyway; a period-1000 search then
+  // takes seconds, not minutes). Both times `effort`.
   const unknowns = p * n;
-  if (unknowns > 50) {
-    const cap = Math.max(20, Math.ceil(2e5 / unknowns));
-    e.grid = n === 1 ? Math.min(e.grid, cap) : Math.min(e.grid, Math.max(2, Math.floor(Math.sqrt(cap))));
-    e.random = Math.min(e.random, cap);
-  }
-  return e;
+  const cap = Math.max(20, Math.ceil(((unknowns <= 50 ? 2e6 : 2e5) * effort) / unknowns));
+  e.grid = n === 1 ? Math.min(e.grid, cap) : Math.min(e.grid, Math.max(2, Math.pow(cap, 1 / n)));
+  if (unknowns > 50) e.random = Math.min(e.random, cap);
+  return { grid: Math.max(1, Math.round(e.grid)), random: Math.round(e.random), attractor: Math.round(e.attractor) };
 }
 
 /**
@@ -231,9 +273,13 @@ function defaultEffort(n: number, p: number): { grid: number; random: number; at
  * converged (max|F| ≤ 1e-10·(1 + max|x|)), stays inside the region enlarged by 1e-6 of its width,
  * and has minimal period exactly p (tolerance 1e-7·(1 + region scale)). Cyclic shifts and
  * repeats are merged. Seeds that escape or produce NaN are dropped silently.
- * Default effort: n = 1: min(40000, max(1000, 2^(p+2))) grid + 400 random + 200 attractor
- * seeds; n = 2: 40×40 grid + 600 random + 400 attractor seeds; when p·n > 50 the grid and random
- * seeds are capped at max(20, 2·10^5/(p·n)) each (per axis: its square root for n ≥ 2). Result sorted lexicographically by first point.
+ * Default effort grows with the period p and the expansion λ (estimateExpansion; about e^{λp}/p
+ * orbits are expected): n = 1: max(1000, min(4·e^{Λp}, max(40000, 10·e^{Λp}/p))) grid seeds with
+ * Λ = max(λ, ln 2), + 400 random + 200 attractor seeds; n = 2: max(40², 200·e^{λp}/p) grid seeds
+ * + 600 random + 400 attractor seeds; grid and random seeds capped by a budget of 2·10^6
+ * seed-unknowns when p·n ≤ 50, else 2·10^5 (grid only when p·n ≤ 50); everything times
+ * `opts.effort`. With `opts.enough` the search stops once that many candidates exist.
+ * Result sorted lexicographically by first point.
  * Throws SearchOptionError for bad options, and the compiler's MapLanguageError for bad `params`.
  */
 export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Candidate[] {
@@ -241,7 +287,16 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const map = opts.params === undefined ? givenMap : compileMap(givenMap.definition, opts.params);
   const n = map.dim;
   const region = searchRegion(map);
-  const effort = defaultEffort(n, p);
+  const effortFactor = opts.effort ?? 1;
+  if (!(Number.isFinite(effortFactor) && effortFactor > 0)) {
+    throw new SearchOptionError('SEARCH_BAD_EFFORT', 'effort', String(opts.effort), 'expected a positive number');
+  }
+  const enough = opts.enough === undefined ? Infinity : checkCount(opts.enough, 'enough', 0) || Infinity;
+  const needDefault = opts.gridPerAxis === undefined || opts.randomSeeds === undefined || opts.attractorSeeds === undefined;
+  const escapeBound = 1e6 * (1 + region.scale);
+  // own PRNG stream, so the seeds below are what they were before the estimate existed
+  const expansion = needDefault ? estimateExpansion(map, region.lo, region.hi, createRng((opts.seed ?? 1) ^ 0x5bd1e995), escapeBound) : 0;
+  const effort = defaultEffort(n, p, expansion, effortFactor);
   const grid = checkCount(opts.gridPerAxis, 'gridPerAxis', effort.grid);
   const randomSeeds = checkCount(opts.randomSeeds, 'randomSeeds', effort.random);
   const attractorSeeds = checkCount(opts.attractorSeeds, 'attractorSeeds', effort.attractor);
@@ -267,7 +322,6 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
     }
   }
 
-  const escapeBound = 1e6 * (1 + region.scale);
   const newton = new ShootingNewton(map, p, escapeBound);
   const collector = new CandidateCollector(map, p, region.scale, region);
   const buf = new Float64Array(p * n);
@@ -278,11 +332,36 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
     const result = newton.refine(buf, maxIterations);
     if (result !== null) collector.offer(result);
   };
+  const done = (): boolean => collector.candidates.length >= enough;
+
+  // The orbit through `near` itself first: Newton from near, f(near), …, f^{p−1}(near).
+  if (opts.near !== undefined) {
+    if (fillIterated(map, opts.near, p, buf, escapeBound, point, image)) attempt();
+    if (done()) return collector.sorted();
+  }
+
+  // Attractor seeds: near-returns of a long float orbit (first when stopping early on a long
+  // shooting vector, where they are what finds orbits; last otherwise, as always).
+  const attractorPhase = (): void => {
+    if (attractorSeeds <= 0) return;
+    const orbit = longFloatOrbit(map, { seedLo, seedHi, rng, length: Math.max(20 * attractorSeeds, 50 * p, 4000) + p, escapeBound });
+    if (orbit === null) return;
+    for (const k of nearReturnStarts(orbit, n, p, attractorSeeds, collector.tolerance())) {
+      buf.set(orbit.subarray(k * n, (k + p) * n));
+      attempt();
+      if (done()) return;
+    }
+  };
+  const attractorFirst = enough !== Infinity && p * n > 50;
+  if (attractorFirst) {
+    attractorPhase();
+    if (done()) return collector.sorted();
+  }
 
   // Grid seeds.
   if (grid > 0) {
     const total = Math.pow(grid, n);
-    for (let idx = 0; idx < total; idx++) {
+    for (let idx = 0; idx < total && !done(); idx++) {
       let rest = idx;
       for (let c = 0; c < n; c++) {
         const k = rest % grid;
@@ -297,7 +376,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const uniformInto = (target: Float64Array, offset: number, lo: Float64Array, hi: Float64Array, r: Rng): void => {
     for (let c = 0; c < n; c++) target[offset + c] = lo[c]! + r() * (hi[c]! - lo[c]!);
   };
-  for (let s = 0; s < randomSeeds; s++) {
+  for (let s = 0; s < randomSeeds && !done(); s++) {
     if (s % 2 === 0) {
       uniformInto(buf, 0, seedLo, seedHi, rng);
       for (let i = 1; i < p; i++) uniformInto(buf, i * n, region.lo, region.hi, rng);
@@ -308,16 +387,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
     }
   }
 
-  // Attractor seeds: near-returns of a long float orbit.
-  if (attractorSeeds > 0) {
-    const orbit = longFloatOrbit(map, { seedLo, seedHi, rng, length: Math.max(20 * attractorSeeds, 50 * p, 4000) + p, escapeBound });
-    if (orbit !== null) {
-      for (const k of nearReturnStarts(orbit, n, p, attractorSeeds, collector.tolerance())) {
-        buf.set(orbit.subarray(k * n, (k + p) * n));
-        attempt();
-      }
-    }
-  }
+  if (!attractorFirst && !done()) attractorPhase();
   return collector.sorted();
 }
 
