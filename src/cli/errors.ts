@@ -3,6 +3,8 @@
  * hint), internal errors (exit 3, reported as bugs). Mathematical outcomes are data, never errors.
  */
 
+import { UserError } from '../errors.js';
+
 /** 0 all proven / verified; 1 something not proven / rejected; 2 bad input or usage; 3 internal error. */
 export type ExitCode = 0 | 1 | 2 | 3;
 
@@ -70,6 +72,8 @@ interface UserErrorLike {
 }
 
 const USER_ERROR_NAMES = new Set([
+  'UserError',
+  'PointsFileError',
   'MapLanguageError',
   'UsageError',
   'CertificateWriteError',
@@ -78,6 +82,7 @@ const USER_ERROR_NAMES = new Set([
 ]);
 
 function isUserError(e: unknown): e is Error & UserErrorLike {
+  if (e instanceof UserError) return true;
   return e instanceof Error && USER_ERROR_NAMES.has(e.name) && typeof (e as unknown as UserErrorLike).code === 'string';
 }
 

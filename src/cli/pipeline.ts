@@ -12,6 +12,7 @@ import type { CandidateCoordinate } from '../prove/orbit.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
 import * as lib from './library.js';
+import { iterateFromStart } from './start.js';
 import type { CandidateLike, CheckReportLike } from './library.js';
 
 export interface CertifyOptions {
@@ -30,6 +31,15 @@ export interface CertifyOptions {
    * taken exactly as the starting point of the prover's refinement).
    */
   start?: CandidateCoordinate[][];
+  /**
+   * The seed points came from a `--points` file (p points), not from `--start`: only the report's
+   * `source` differs.
+   */
+  startFrom?: 'start' | 'points';
+  /** `near` as the user wrote it (exact decimals): lets the orbit through it be iterated in multiprecision. */
+  nearExact?: string[];
+  /** Multiplies the float search's default effort (findCandidates `effort`, default 1). */
+  effort?: number;
   /** Called before each proof attempt (1-based `attempt` of `total`); for a progress display. */
   progress?: (attempt: number, total: number) => void;
   /** Folder for certificates; created when missing. */
@@ -68,8 +78,16 @@ export interface CertifyReport {
   candidatesFound: number;
   /** Parameters given as intervals (a proof must then hold for every value in them). */
   intervalParams: string[];
-  /** Where the candidates came from: the float search, or the user's --start point. */
-  source: 'search' | 'start';
+  /**
+   * Where the candidates came from: the float search, the user's --start point, the user's
+   * --points file, or (with --near) the multiprecision iterates of the --near point.
+   */
+  source: 'search' | 'start' | 'points' | 'near-iterates';
+  /**
+   * True when the search stopped early because enough candidates existed (--limit N, or --near
+   * with the orbit through the point found): more orbits may exist than `candidatesFound`.
+   */
+  searchStopped: boolean;
   /** Candidates found but not attempted because of the limit. */
   unattempted: number;
   /** The limit in force (null: none) and where it came from. */
@@ -137,6 +155,31 @@ function startCandidate(period: number, start: readonly (readonly CandidateCoord
   };
 }
 
+/** @heuristic the smallest max-norm distance (floats) from `near` to a point of a candidate. */
+function nearestDistance(cands: readonly CandidateLike[], near: readonly number[]): number {
+  let best = Infinity;
+  for (const c of cands) for (const pt of c.points) best = Math.min(best, Math.max(...pt.map((v, j) => Math.abs(v - near[j]!))));
+  return best;
+}
+
+/**
+ * @heuristic The p multiprecision iterates of the exact point `start` when they close up
+ * (max-norm |f^p(x) − x| ≤ 1e-6·(1 + |x|)): a starting guess for the orbit through the point;
+ * null otherwise (or when an iterate leaves the domain).
+ */
+function closedIterates(compiled: CompiledMap, start: string[], period: number): string[][] | null {
+  let pts: string[][];
+  try {
+    pts = iterateFromStart(compiled, start, period + 1);
+  } catch {
+    return null;
+  }
+  const back = pts[period]!;
+  const scale = 1 + Math.max(...start.map((v) => Math.abs(Number(v))));
+  const gap = Math.max(...back.map((v, j) => Math.abs(Number(v) - Number(start[j]))));
+  return Number.isFinite(gap) && gap <= 1e-6 * scale ? pts.slice(0, period) : null;
+}
+
 /** @heuristic the candidate with an orbit point closest (Euclidean, floats) to `near`. */
 export function nearestCandidateIndex(cands: readonly CandidateLike[], near: readonly number[]): number {
   let best = -1;
@@ -187,13 +230,39 @@ export async function certifyOrbits(
 
   let found: CandidateLike[];
   let startPoints: CandidateCoordinate[][] | undefined;
+  const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
+  let searchStopped = false;
+  let source: CertifyReport['source'] = 'search';
+  const effort = opts.effort !== undefined ? { effort: opts.effort } : {};
   if (opts.start) {
     startPoints = opts.start;
+    source = opts.startFrom ?? 'start';
     found = [startCandidate(opts.period, opts.start)];
+  } else if (opts.near) {
+    const near = opts.near;
+    const through = (cands: CandidateLike[]): boolean => cands.length > 0 && nearestDistance(cands, near) <= 1e-10 * (1 + Math.max(...near.map(Math.abs)));
+    // 1. the orbit through the point itself: Newton from its float iterates
+    found = limit === 1 ? search.findCandidates(compiled, { period: opts.period, near, enough: 1, gridPerAxis: 0, randomSeeds: 0, attractorSeeds: 0 }) : [];
+    if (limit === 1 && through(found)) {
+      searchStopped = true;
+    } else {
+      // 2. its multiprecision iterates, when they close up (a point of a long chaotic orbit,
+      //    whose float iterates drift off within a few dozen steps)
+      const mp = limit === 1 && opts.nearExact ? closedIterates(compiled, opts.nearExact, opts.period) : null;
+      if (mp !== null) {
+        startPoints = mp;
+        source = 'near-iterates';
+        found = [startCandidate(opts.period, mp)];
+        searchStopped = true;
+      } else {
+        // 3. the general search, every candidate sorted by distance (exact nearest-first order)
+        found = search.findCandidates(compiled, { period: opts.period, near, ...effort });
+      }
+    }
   } else {
-    found = search.findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
+    found = search.findCandidates(compiled, { period: opts.period, ...effort, ...(limit !== null ? { enough: limit } : {}) });
+    searchStopped = limit !== null && found.length >= limit;
   }
-  const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
   const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);
   const chosen: CandidateLike[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
@@ -264,7 +333,8 @@ export async function certifyOrbits(
     map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
     period: opts.period,
     candidatesFound: found.length,
-    source: opts.start ? 'start' : 'search',
+    source,
+    searchStopped,
     intervalParams: intervalParamNames(def, opts.overrides ?? {}),
     unattempted: found.length - chosen.length,
     limit,

@@ -1,7 +1,8 @@
 import { relative, resolve } from 'node:path';
 import { UsageError, type CommandResult } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { nearDecimals, parseBoundedInt, parseDigits, parseEffort, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { readPointsFile } from '../points.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
 import { iterateFromStart } from '../start.js';
 import { loadMap, paramsLine } from './common.js';
@@ -19,6 +20,8 @@ export interface ProveCommandOptions {
   digits?: string;
   limit?: string;
   start?: string;
+  points?: string;
+  effort?: string;
 }
 
 /** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
@@ -45,9 +48,19 @@ export async function proveCommand(
   if (o.start !== undefined && (o.near !== undefined || o.all || limit !== undefined)) {
     throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
   }
+  if (o.points !== undefined && (o.start !== undefined || o.near !== undefined || o.all || limit !== undefined)) {
+    throw new UsageError('bad-option', '--points', o.points, '--points proves exactly the orbit given by the file; --start, --near, --limit and --all do not apply', 'leave out --start, --near, --limit and --all');
+  }
+  const effort = o.effort !== undefined ? parseEffort(o.effort) : undefined;
   const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
-  const start = o.start !== undefined ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period) : undefined;
+  const nearExact = o.near !== undefined ? nearDecimals(o.near) : null;
+  const start =
+    o.points !== undefined
+      ? readPointsFile(resolve(cwd, o.points), o.points, period, compiled.dim)
+      : o.start !== undefined
+        ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period)
+        : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
   let shown = false;
   const progress = progressSink
@@ -60,7 +73,9 @@ export async function proveCommand(
     period,
     outDir,
     ...(near ? { near } : {}),
-    ...(start ? { start } : {}),
+    ...(start ? { start, startFrom: o.points !== undefined ? ('points' as const) : ('start' as const) } : {}),
+    ...(nearExact ? { nearExact } : {}),
+    ...(effort !== undefined ? { effort } : {}),
     ...(limit !== undefined ? { limit } : {}),
     ...(progress ? { progress } : {}),
     all: o.all ?? false,
@@ -82,6 +97,8 @@ export function proveJson(r: CertifyReport): Record<string, unknown> {
     map: r.map,
     period: r.period,
     candidatesFound: r.candidatesFound,
+    source: r.source,
+    searchStopped: r.searchStopped,
     limit: r.limit,
     unattempted: r.unattempted,
     searchScope: SEARCH_SCOPE,
@@ -174,7 +191,11 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
   out.push(
     r.source === 'start'
       ? `candidate (not a proof): the ${r.period} points from --start, iterated in multiprecision arithmetic`
-      : `candidates (float search, not proofs): ${r.candidatesFound} of minimal period ${r.period}`,
+      : r.source === 'points'
+        ? `candidate (not a proof): the ${r.period} points from the --points file`
+        : r.source === 'near-iterates'
+          ? `candidate (not a proof): the ${r.period} multiprecision iterates of the --near point (they close up)`
+          : `candidates (float search, not proofs): ${r.candidatesFound} of minimal period ${r.period}${r.searchStopped ? ' (search stopped early, see below)' : ''}`,
   );
   if (r.outcomes.length === 0) {
     out.push('nothing proven: the float search found no candidate orbit of this minimal period in the region.');
@@ -223,6 +244,11 @@ export function intervalHint(r: CertifyReport): string {
 
 /** "N candidates not attempted …" with how to get them; '' when every candidate was attempted. */
 export function unattemptedLine(r: CertifyReport): string {
+  if (r.searchStopped && r.source === 'search') {
+    return r.limitFrom === 'near'
+      ? 'the search stopped early: the float orbit through the --near point was found'
+      : `the search stopped once ${r.candidatesFound} candidate${r.candidatesFound === 1 ? '' : 's'} existed (${r.limitFrom === 'default' ? `the default limit is ${DEFAULT_PROVE_LIMIT}` : `--limit ${r.limit}`}); more orbits may exist: use --all to search on`;
+  }
   if (r.unattempted <= 0) return '';
   const n = r.unattempted;
   const total = r.outcomes.length + n;
