@@ -101,8 +101,8 @@ describe('--points FILE', () => {
     expect(boxesHoldOrbit(doc.orbits[0].boxes, orbit)).toBe(true);
   }, 30_000);
   it('JSON with exact decimal strings, n = 2 (Hénon period-2 orbit, closed form derived by hand)', async () => {
-    // period-2 points x = (0.7 ± √(0.49·... ))/1.4 ≈ −0.4758, 0.9758 with y = 0.3·(the other x):
-    // closed form 1.4x² − 0.7x − 0.65 = 0 (derived by hand), here rounded to 4 digits
+    // period-2 points x = (0.7 ± √(0.49 + 4·1.4·0.65))/2.8 ≈ −0.4758, 0.9758 with y = 0.3·(the
+    // other x): 1.4x² − 0.7x − 0.65 = 0 (derived by hand), here rounded to 4 digits
     const dir = fresh();
     const file = join(dir, 'p.json');
     writeFileSync(file, JSON.stringify({ points: [['-0.4758', '0.2927'], [0.9758, -0.1427]] }));
