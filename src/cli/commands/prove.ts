@@ -213,8 +213,9 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
     o.certificatePath ? displayPath(o.certificatePath, cwd) : '',
   ]);
   out.push('');
-  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within', 'bits', 'certificate'], rows));
+  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within*', 'bits', 'certificate'], rows));
   out.push('');
+  if (r.outcomes.some((o) => o.orbit?.uniquenessRadius != null)) out.push(UNIQUE_WITHIN_NOTE);
   for (const o of r.outcomes) {
     if (o.check && o.status === 'verified') {
       out.push(`#${o.index}: the independent checker re-verified: ${o.check.claimsVerified.join(', ')}`);
@@ -280,6 +281,10 @@ export function wrap(text: string, width: number, maxLines = 6): string {
   if (lines.length > maxLines) return [...lines.slice(0, maxLines - 1), `${lines[maxLines - 1]!.slice(0, width - 1)}…`].join('\n');
   return lines.join('\n');
 }
+
+/** How to read the "unique within" column (the radius is on the whole shooting vector). */
+export const UNIQUE_WITHIN_NOTE =
+  '* unique within r: no other period-p solution has ALL its p points within r of\n  these (max-norm over the whole shooting vector), not a per-point distance.';
 
 /** What --all (and any count of search candidates) means; in the table notes, the JSON and the README. */
 export const SEARCH_SCOPE =
