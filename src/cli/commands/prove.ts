@@ -1,10 +1,9 @@
 import { relative, resolve } from 'node:path';
-import { UsageError, type CommandResult } from '../errors.js';
+import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
 import { nearDecimals, parseBoundedInt, parseDigits, parseEffort, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
 import { readPointsFile } from '../points.js';
-import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
-import { iterateFromStart } from '../start.js';
+import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { loadMap, paramsLine } from './common.js';
 
 export interface ProveCommandOptions {
@@ -52,15 +51,11 @@ export async function proveCommand(
     throw new UsageError('bad-option', '--points', o.points, '--points proves exactly the orbit given by the file; --start, --near, --limit and --all do not apply', 'leave out --start, --near, --limit and --all');
   }
   const effort = o.effort !== undefined ? parseEffort(o.effort) : undefined;
-  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const nearExact = o.near !== undefined ? nearDecimals(o.near) : null;
-  const start =
-    o.points !== undefined
-      ? readPointsFile(resolve(cwd, o.points), o.points, period, compiled.dim)
-      : o.start !== undefined
-        ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period)
-        : undefined;
+  const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
+  const pointsFromFile = o.points !== undefined ? readPointsFile(resolve(cwd, o.points), o.points, period, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
   let shown = false;
   const progress = progressSink
@@ -73,7 +68,8 @@ export async function proveCommand(
     period,
     outDir,
     ...(near ? { near } : {}),
-    ...(start ? { start, startFrom: o.points !== undefined ? ('points' as const) : ('start' as const) } : {}),
+    ...(startPoint ? { startPoint } : {}),
+    ...(pointsFromFile ? { start: pointsFromFile, startFrom: 'points' as const } : {}),
     ...(nearExact ? { nearExact } : {}),
     ...(effort !== undefined ? { effort } : {}),
     ...(limit !== undefined ? { limit } : {}),
@@ -86,9 +82,15 @@ export async function proveCommand(
     overrides,
   });
   if (shown) progressSink?.('\r\x1b[K');
-  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode: report.exitCode };
+  const exitCode = proveExitCode(report);
+  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode: report.exitCode };
+  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode };
+}
+
+/** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
+export function proveExitCode(r: CertifyReport): ExitCode {
+  return r.allProven ? EXIT_OK : EXIT_NOT_PROVEN;
 }
 
 /** The `--json` document of a prove run. */
@@ -126,7 +128,7 @@ export function proveJson(r: CertifyReport): Record<string, unknown> {
         ? { check: { verdict: o.check.verdict, reason: o.check.reason, claimsVerified: o.check.claimsVerified } }
         : {}),
     })),
-    exitCode: r.exitCode,
+    exitCode: proveExitCode(r),
   };
 }
 

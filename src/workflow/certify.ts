@@ -1,19 +1,19 @@
 /**
  * The `prove` workflow as a library call (no process I/O): search candidates, prove each, write
  * one certificate per proven orbit, and re-verify each written file with the independent checker.
- * The CLI's `prove` and `demo` commands are this function plus rendering.
+ * The CLI's `prove` and `demo` commands are this function plus rendering and an exit code.
  */
 import { join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
-import type { ProvenOrbit } from '../prove/types.js';
 import { OrbitIdentifier } from '../prove/identify.js';
 import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
-import type { CandidateCoordinate } from '../prove/orbit.js';
+import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
-import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
-import * as lib from './library.js';
+import type { CandidateCoordinate } from '../prove/orbit.js';
+import { proveOrbit } from '../prove/index.js';
+import type { ProvenOrbit } from '../prove/types.js';
+import { findCandidates, type Candidate } from '../search/index.js';
 import { iterateFromStart } from './start.js';
-import type { CandidateLike, CheckReportLike } from './library.js';
 
 export interface CertifyOptions {
   period: number;
@@ -31,6 +31,11 @@ export interface CertifyOptions {
    * taken exactly as the starting point of the prover's refinement).
    */
   start?: CandidateCoordinate[][];
+  /**
+   * Skip the search and prove the orbit through this ONE point (n exact decimal strings): the
+   * other p − 1 points come from `iterateFromStart` (multiprecision). Ignored when `start` is given.
+   */
+  startPoint?: readonly string[];
   /**
    * The seed points came from a `--points` file (p points), not from `--start`: only the report's
    * `source` differs.
@@ -63,13 +68,13 @@ export type OrbitStatus = 'verified' | 'prover-only' | 'rejected-by-checker' | '
 export interface OrbitOutcome {
   /** 1-based, in candidate order. */
   index: number;
-  candidate: CandidateLike;
+  candidate: Candidate;
   status: OrbitStatus;
   /** Why not proven / why the checker rejected. */
   reason?: string;
   orbit?: ProvenOrbit;
   certificatePath?: string;
-  check?: CheckReportLike;
+  check?: CheckReport;
 }
 
 export interface CertifyReport {
@@ -102,7 +107,11 @@ export interface CertifyReport {
   merged: { attempt: number; sameAs: number }[];
   outDir: string;
   checked: boolean;
-  exitCode: ExitCode;
+  /**
+   * At least one orbit attempted, and every attempted one proven (and re-verified, when the
+   * checker ran) with minimal period `period`. The CLI maps false to exit code 1.
+   */
+  allProven: boolean;
 }
 
 /** The human label for a status; "proven" appears only for orbits the prover proved. */
@@ -145,7 +154,7 @@ function distance2(a: readonly number[], b: readonly number[]): number {
  * A user-given starting orbit as a candidate for display: float copies of the points. Not a search
  * result, so there is no residual or multiplier estimate (NaN / empty).
  */
-function startCandidate(period: number, start: readonly (readonly CandidateCoordinate[])[]): CandidateLike {
+function startCandidate(period: number, start: readonly (readonly CandidateCoordinate[])[]): Candidate {
   return {
     period,
     points: start.map((pt) => pt.map((v) => (typeof v === 'number' ? v : Number(v)))),
@@ -156,7 +165,7 @@ function startCandidate(period: number, start: readonly (readonly CandidateCoord
 }
 
 /** @heuristic the smallest max-norm distance (floats) from `near` to a point of a candidate. */
-function nearestDistance(cands: readonly CandidateLike[], near: readonly number[]): number {
+function nearestDistance(cands: readonly Candidate[], near: readonly number[]): number {
   let best = Infinity;
   for (const c of cands) for (const pt of c.points) best = Math.min(best, Math.max(...pt.map((v, j) => Math.abs(v - near[j]!))));
   return best;
@@ -180,22 +189,6 @@ function closedIterates(compiled: CompiledMap, start: string[], period: number):
   return Number.isFinite(gap) && gap <= 1e-6 * scale ? pts.slice(0, period) : null;
 }
 
-/** @heuristic the candidate with an orbit point closest (Euclidean, floats) to `near`. */
-export function nearestCandidateIndex(cands: readonly CandidateLike[], near: readonly number[]): number {
-  let best = -1;
-  let bestD = Infinity;
-  cands.forEach((c, i) => {
-    for (const pt of c.points) {
-      const d = distance2(pt, near);
-      if (d < bestD) {
-        bestD = d;
-        best = i;
-      }
-    }
-  });
-  return best;
-}
-
 function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamValue>): string[] {
   const all: Record<string, ParamValue> = { ...def.params, ...overrides };
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
@@ -205,7 +198,7 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
 export const DEFAULT_PROVE_LIMIT = 20;
 
 /** @heuristic candidate indices sorted by float distance of their nearest point to `near` (stable). */
-export function candidatesByDistance(cands: readonly CandidateLike[], near: readonly number[]): number[] {
+export function candidatesByDistance(cands: readonly Candidate[], near: readonly number[]): number[] {
   const d = cands.map((c) => {
     let best = Infinity;
     for (const pt of c.points) best = Math.min(best, distance2(pt, near));
@@ -214,35 +207,32 @@ export function candidatesByDistance(cands: readonly CandidateLike[], near: read
   return cands.map((_, i) => i).sort((a, b) => d[a]! - d[b]! || a - b);
 }
 
-/** Search, prove, write and re-check. Throws only user errors (e.g. CERT_EXISTS) and bugs. */
+/** Search, prove, write and re-check. Throws only user errors (e.g. cert-exists) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
   compiled: CompiledMap,
   opts: CertifyOptions,
 ): Promise<CertifyReport> {
-  const search = await lib.search();
-  const prover = await lib.prove();
   const checkOn = opts.check !== false;
-  const checker = checkOn ? await lib.checker() : undefined;
 
   // fail before long work when certificates could not be written
   checkDirectoryUsable(opts.outDir);
 
-  let found: CandidateLike[];
+  let found: Candidate[];
   let startPoints: CandidateCoordinate[][] | undefined;
   const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
   let searchStopped = false;
   let source: CertifyReport['source'] = 'search';
   const effort = opts.effort !== undefined ? { effort: opts.effort } : {};
-  if (opts.start) {
-    startPoints = opts.start;
-    source = opts.startFrom ?? 'start';
-    found = [startCandidate(opts.period, opts.start)];
+  if (opts.start || opts.startPoint) {
+    startPoints = opts.start ?? iterateFromStart(compiled, opts.startPoint!, opts.period);
+    source = opts.start ? (opts.startFrom ?? 'start') : 'start';
+    found = [startCandidate(opts.period, startPoints)];
   } else if (opts.near) {
     const near = opts.near;
-    const through = (cands: CandidateLike[]): boolean => cands.length > 0 && nearestDistance(cands, near) <= 1e-10 * (1 + Math.max(...near.map(Math.abs)));
+    const through = (cands: Candidate[]): boolean => cands.length > 0 && nearestDistance(cands, near) <= 1e-10 * (1 + Math.max(...near.map(Math.abs)));
     // 1. the orbit through the point itself: Newton from its float iterates
-    found = limit === 1 ? search.findCandidates(compiled, { period: opts.period, near, enough: 1, gridPerAxis: 0, randomSeeds: 0, attractorSeeds: 0 }) : [];
+    found = limit === 1 ? findCandidates(compiled, { period: opts.period, near, enough: 1, gridPerAxis: 0, randomSeeds: 0, attractorSeeds: 0 }) : [];
     if (limit === 1 && through(found)) {
       searchStopped = true;
     } else {
@@ -256,15 +246,15 @@ export async function certifyOrbits(
         searchStopped = true;
       } else {
         // 3. the general search, every candidate sorted by distance (exact nearest-first order)
-        found = search.findCandidates(compiled, { period: opts.period, near, ...effort });
+        found = findCandidates(compiled, { period: opts.period, near, ...effort });
       }
     }
   } else {
-    found = search.findCandidates(compiled, { period: opts.period, ...effort, ...(limit !== null ? { enough: limit } : {}) });
+    found = findCandidates(compiled, { period: opts.period, ...effort, ...(limit !== null ? { enough: limit } : {}) });
     searchStopped = limit !== null && found.length >= limit;
   }
   const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);
-  const chosen: CandidateLike[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
+  const chosen: Candidate[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
   const outcomes: OrbitOutcome[] = [];
   const merged: CertifyReport['merged'] = [];
@@ -278,7 +268,7 @@ export async function certifyOrbits(
     attemptNo++;
     opts.progress?.(attemptNo, chosen.length);
     const points = startPoints ?? candidate.points;
-    const verdict = prover.proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
+    const verdict = proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
       outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
@@ -300,8 +290,8 @@ export async function certifyOrbits(
       force: opts.force ?? false,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
-    if (checker) {
-      const [report] = await checker.checkPaths([path], opts.digits ? { digits: opts.digits } : {});
+    if (checkOn) {
+      const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;
       if (report.verdict === 'VERIFIED') outcome.status = 'verified';
@@ -343,6 +333,6 @@ export async function certifyOrbits(
     merged,
     outDir: opts.outDir,
     checked: checkOn,
-    exitCode: allGood ? EXIT_OK : EXIT_NOT_PROVEN,
+    allProven: allGood,
   };
 }
