@@ -36,7 +36,7 @@ import { Decimal } from 'decimal.js';
 import type { CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
-import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
+import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
 
@@ -114,6 +114,11 @@ const reject = (path: string, msg: string): never => {
 // ---- schema reading with JSON paths ----
 
 type Obj = Record<string, unknown>;
+/** Rejects any key of `o` not in `allowed` (the schema's additionalProperties: false). */
+function onlyKeys(o: Obj, allowed: readonly string[], path: string): void {
+  for (const k of Object.keys(o)) if (!allowed.includes(k)) reject(`${path}.${k}`, `unknown key ${JSON.stringify(k.slice(0, 40))} at ${path} (certificate v1 allows only ${allowed.join(', ')})`);
+}
+
 function obj(v: unknown, path: string): Obj {
   if (typeof v !== 'object' || v === null || Array.isArray(v)) reject(path, `expected an object at ${path}`);
   return v as Obj;
@@ -153,6 +158,9 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   };
 
   const d = obj(doc, '$');
+  // the schema forbids other keys (additionalProperties: false): a key the checker does not read
+  // could still be read by a person ("note": "all orbits for r in …") and is refused
+  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
   if (d.format !== 'orbitseal-certificate') reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "orbitseal-certificate")`);
   if (d.formatVersion !== 1) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version 1)`);
   if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit")`);
@@ -162,21 +170,23 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
   const p = int(d.period, '$.period', 1, limits.maxPeriod);
   const map = obj(d.map, '$.map');
+  onlyKeys(map, ['params', 'state', 'step', 'title'], '$.map');
+  if (d.producer !== undefined) onlyKeys(obj(d.producer, '$.producer'), ['name', 'version'], '$.producer');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
-  const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
+  const ident = { test: isValidName };
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
   const names = new Set<string>();
   for (const [i, s] of state.entries()) {
-    if (!ident.test(s) || names.has(s)) reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)}`);
+    if (!ident.test(s) || names.has(s)) reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)} (names are ASCII letters, digits, _; not a function name, pi or e)`);
     names.add(s);
   }
   const paramText = new Map<string, [string, string]>();
   for (const k of Object.keys(paramsRaw)) {
     const path = `$.map.params.${k}`;
-    if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (or it repeats a state name)`);
+    if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (names are ASCII letters, digits, _; not a function name, pi or e; nor a state name)`);
     const v = paramsRaw[k];
     if (typeof v !== 'string' && !Array.isArray(v)) reject(path, `expected a decimal string or a [lo, hi] pair of decimal strings at ${path}`);
     paramText.set(k, typeof v === 'string' ? [dec(v, path), dec(v, path)] : ivl(v, path));
@@ -195,6 +205,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     }
   });
   const orbit = obj(d.orbit, '$.orbit');
+  onlyKeys(orbit, ['boxes', 'centre'], '$.orbit');
   const centreTxt = arr(orbit.centre, '$.orbit.centre', p).map((pt, i) =>
     arr(pt, `$.orbit.centre[${i}]`, n).map((x, a) => dec(x, `$.orbit.centre[${i}][${a}]`)),
   );
@@ -209,6 +220,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   let radius: string | null = null;
   if (claims.uniqueness !== undefined && claims.uniqueness !== null) {
     const u = obj(claims.uniqueness, '$.claims.uniqueness');
+    onlyKeys(u, ['radius'], '$.claims.uniqueness');
     radius = dec(u.radius, '$.claims.uniqueness.radius');
     if (!new Exact(radius).gt(0)) reject('$.claims.uniqueness.radius', 'uniqueness radius must be positive');
   }
@@ -227,6 +239,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
     const h = obj(d.hints, '$.hints');
+    onlyKeys(h, ['bits', 'digits'], '$.hints');
     if (h.digits !== undefined) digits = Math.max(digits, int(h.digits, '$.hints.digits', 1, limits.maxDigits) + 5);
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
