@@ -30,7 +30,7 @@
  *
  * Limits (CheckLimits, configurable through `opts.limits`) keep hostile input fast and bounded.
  */
-import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { readFileSync, readdirSync, statSync, type Dirent } from 'node:fs';
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
 import type { CertificateV1 } from '../certificate/types.js';
@@ -418,10 +418,32 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
   }
 }
 
+/** An entry of a folder that `check DIR` did not read, and why. */
+export interface SkippedEntry {
+  file: string;
+  reason: string;
+}
+
 /** Check files and directories (every *.json inside, recursively, symlinked directories not followed). */
 export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckReport[] {
+  return checkPathsReporting(paths, opts).reports;
+}
+
+/** What kind of file system entry this is, for a skip reason. */
+function entryKind(ent: Dirent): string {
+  return ent.isFIFO() ? 'a FIFO (named pipe)' : ent.isSocket() ? 'a socket' : ent.isBlockDevice() || ent.isCharacterDevice() ? 'a device' : 'not a regular file';
+}
+
+/**
+ * checkPaths, also listing what was skipped inside folders and why: symlinked folders (not
+ * followed, so a folder cannot loop or leave the tree), FIFOs, sockets and devices (reading could
+ * block), `*.JSON`-style names that are not exactly `.json`, and broken symlinks. Other files
+ * (README.md, …) are not certificates and are not listed.
+ */
+export function checkPathsReporting(paths: string[], opts: CheckOptions = {}): { reports: CheckReport[]; skipped: SkippedEntry[] } {
   const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
   const out: CheckReport[] = [];
+  const skipped: SkippedEntry[] = [];
   const unreadable = (file: string, reason: string): CheckReport => ({
     verdict: 'UNREADABLE', file, reason, claimsVerified: [], digits: opts.digits ?? DEFAULT_DIGITS, elapsedMs: 0,
   });
@@ -436,8 +458,27 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
     if (st.isDirectory()) {
       const entries = readdirSync(p, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
       for (const ent of entries) {
-        if (ent.isDirectory()) visit(join(p, ent.name), false);
-        else if ((ent.isFile() || ent.isSymbolicLink()) && ent.name.endsWith('.json')) visit(join(p, ent.name), false);
+        const full = join(p, ent.name);
+        const json = ent.name.endsWith('.json');
+        const jsonLike = !json && ent.name.toLowerCase().endsWith('.json');
+        if (ent.isDirectory()) visit(full, false);
+        else if (ent.isSymbolicLink()) {
+          let target;
+          try {
+            target = statSync(full);
+          } catch {
+            if (json || jsonLike) skipped.push({ file: full, reason: 'broken symbolic link' });
+            continue;
+          }
+          if (target.isDirectory()) skipped.push({ file: full, reason: 'symbolic link to a folder: not followed' });
+          else if (!target.isFile()) {
+            if (json || jsonLike) skipped.push({ file: full, reason: 'symbolic link to something that is not a regular file' });
+          } else if (json) visit(full, false);
+          else if (jsonLike) skipped.push({ file: full, reason: 'name ends in a differently cased ".json": only *.json is read' });
+        } else if (ent.isFile()) {
+          if (json) visit(full, false);
+          else if (jsonLike) skipped.push({ file: full, reason: 'name ends in a differently cased ".json": only *.json is read' });
+        } else skipped.push({ file: full, reason: `${entryKind(ent)}: not read` });
       }
       return;
     }
@@ -459,7 +500,7 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
     out.push({ ...checkCertificate(text, opts), file: p });
   };
   for (const p of paths) visit(p, true);
-  return out;
+  return { reports: out, skipped };
 }
 
 export { canonicalJson, certificateHash } from './json.js';

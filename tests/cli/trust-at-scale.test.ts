@@ -137,3 +137,39 @@ describe('--limit stops the search (issue 8, item 5)', () => {
     expect(r.stdout).toMatch(/--all means every candidate this float search found, not every orbit/);
   });
 });
+
+import { copyFileSync, mkdirSync, symlinkSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+
+describe('smaller holes (issue 7, item 7)', () => {
+  it('show with a parameter beyond the largest double: a clear error, exit 2 (was an internal error)', async () => {
+    // largest double ≈ 1.7976931348623157e308 (IEEE 754 binary64)
+    const r = await runCli(['show', 'logistic', '--param', 'r=3.83e400']);
+    expect(r.exitCode).toBe(2);
+    expect(r.stderr).toMatch(/out-of-range.*beyond the largest double/);
+    expect((await runCli(['show', 'logistic', '--param', 'r=1.7976931348623157e308'])).exitCode).toBe(0);
+  });
+  it('check DIR lists a symlinked folder, a FIFO and a *.JSON file it skipped', async () => {
+    const dir = fresh();
+    const made = await runCli(['prove', 'logistic', '--param', 'r=3.2', '--period', '1', '--limit', '1', '--out', join(dir, 'a'), '--no-check']);
+    expect(made.exitCode).toBe(0);
+    const cert = readdirSync(join(dir, 'a'))[0]!;
+    mkdirSync(join(dir, 'b'));
+    copyFileSync(join(dir, 'a', cert), join(dir, 'b', 'UPPER.JSON'));
+    symlinkSync(join(dir, 'a'), join(dir, 'link'));
+    execFileSync('mkfifo', [join(dir, 'pipe.json')]);
+    const r = await runCli(['check', dir]);
+    expect(r.exitCode).toBe(0);
+    expect(r.stdout).toMatch(/3 entries skipped \(not checked\):/);
+    expect(r.stdout).toMatch(/UPPER\.JSON: name ends in a differently cased "\.json"/);
+    expect(r.stdout).toMatch(/link: symbolic link to a folder: not followed/);
+    expect(r.stdout).toMatch(/pipe\.json: a FIFO \(named pipe\): not read/);
+    const j = JSON.parse((await runCli(['check', dir, '--json'])).stdout);
+    expect(j.skipped).toHaveLength(3);
+  });
+  it('the table header says "unique within*" and explains it is on the whole shooting vector', async () => {
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.2', '--period', '2', '--out', fresh(), '--no-check']);
+    expect(r.stdout).toMatch(/unique within\*/);
+    expect(r.stdout).toMatch(/\* unique within r: no other period-p solution has ALL its p points within r of\n  these \(max-norm over the whole shooting vector\), not a per-point distance\./);
+  });
+});
