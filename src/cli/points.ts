@@ -14,13 +14,13 @@
  */
 import { readFileSync } from 'node:fs';
 import { UserError } from '../errors.js';
+import { DECIMAL_LITERAL } from '../interval/decimal-literal.js';
 
 /** A mistake in a --points file: place is `file:line:column` (CSV) or `file: points[i]` (JSON). */
 export class PointsFileError extends UserError {
   override name = 'PointsFileError';
 }
 
-const DECIMAL_RE = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 const NAME_RE = /^[A-Za-z_][A-Za-z0-9_]*$/;
 const HINT = 'write one point per line, e.g. "0.25" (1-D) or "0.6,0.2" (2-D), or a JSON array of points';
 
@@ -79,7 +79,7 @@ function parseCsvPoints(text: string, file: string, dim: number): Parsed {
     let column = raw.indexOf(fields[0]!) + 1;
     for (const f of fields) {
       column = raw.indexOf(f, column - 1) + 1;
-      if (!DECIMAL_RE.test(f)) {
+      if (!DECIMAL_LITERAL.test(f)) {
         throw new PointsFileError('points-number', `${JSON.stringify(f.slice(0, 40))} is not a decimal number`, 'write numbers such as 0.25, -1.5e-3 (no units, no thousands separators)', `${file}:${lineNo}:${column}`, f.slice(0, 80));
       }
       column += f.length;
@@ -111,7 +111,7 @@ function parseJsonPoints(text: string, file: string, dim: number): Parsed {
     list.push(
       coords.map((v, c) => {
         const s = typeof v === 'number' && Number.isFinite(v) ? String(v) : typeof v === 'string' ? v.trim() : '';
-        if (!DECIMAL_RE.test(s)) {
+        if (!DECIMAL_LITERAL.test(s)) {
           throw new PointsFileError('points-number', `${JSON.stringify(v)?.slice(0, 40)} is not a decimal number`, 'write numbers, or decimal strings such as "0.25" to keep every digit', Array.isArray(pt) ? `${place}[${c}]` : place);
         }
         return s;

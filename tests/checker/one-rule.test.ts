@@ -21,19 +21,22 @@ const base = () =>
     uniquenessRadius: '0.01',
   });
 
+/** A certificate as nested records (only for mutating test copies). */
+type Doc = Record<string, Record<string, Record<string, unknown>>> & Record<string, unknown>;
+
 describe('the checker refuses keys the schema forbids', () => {
   it('control: the plain certificate is VERIFIED', () => {
     expect(checkCertificate(base()).verdict).toBe('VERIFIED');
   });
   it.each([
-    [(d: Record<string, any>) => (d.note = 'all period-3 orbits for r in [3.8, 3.9]'), 'note'],
-    [(d: Record<string, any>) => (d.map.note = 'x'), 'note'],
-    [(d: Record<string, any>) => (d.orbit.allOrbits = true), 'allOrbits'],
-    [(d: Record<string, any>) => (d.claims.uniqueness.global = true), 'global'],
-    [(d: Record<string, any>) => (d.producer.signedBy = 'x'), 'signedBy'],
-    [(d: Record<string, any>) => (d.hints = { digits: 30, trust: 1 }), 'trust'],
+    [(d: Doc) => ((d as Record<string, unknown>).note = 'all period-3 orbits for r in [3.8, 3.9]'), 'note'],
+    [(d: Doc) => (d.map!.note = 'x'), 'note'],
+    [(d: Doc) => (d.orbit!.allOrbits = true), 'allOrbits'],
+    [(d: Doc) => ((d.claims!.uniqueness as Record<string, unknown>).global = true), 'global'],
+    [(d: Doc) => (d.producer!.signedBy = 'x'), 'signedBy'],
+    [(d: Doc) => ((d as Record<string, unknown>).hints = { digits: 30, trust: 1 }), 'trust'],
   ])('an extra key is REJECTED even with a recomputed hash (%#)', (mutate, key) => {
-    const d = base() as Record<string, any>;
+    const d = base() as Doc;
     mutate(d);
     const r = checkCertificate(seal(d));
     expect(r.verdict).toBe('REJECTED');

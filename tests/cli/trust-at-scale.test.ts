@@ -170,6 +170,6 @@ describe('smaller holes (issue 7, item 7)', () => {
   it('the table header says "unique within*" and explains it is on the whole shooting vector', async () => {
     const r = await runCli(['prove', 'logistic', '--param', 'r=3.2', '--period', '2', '--out', fresh(), '--no-check']);
     expect(r.stdout).toMatch(/unique within\*/);
-    expect(r.stdout).toMatch(/\* unique within r: no other period-p solution has ALL its p points within r of\n  these \(max-norm over the whole shooting vector\), not a per-point distance\./);
+    expect(r.stdout).toMatch(/\* unique within r: no other period-p solution has ALL its p points within r of\n {2}these \(max-norm over the whole shooting vector\), not a per-point distance\./);
   });
 });

@@ -1,9 +1,10 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { nearDecimals, parseBoundedInt, parseDigits, parseEffort, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { nearDecimals, parseDigits, parseEffort, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { readPointsFile } from '../points.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
 
 export interface ProveCommandOptions {
@@ -26,7 +27,7 @@ export interface ProveCommandOptions {
 /** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
 export type ProgressSink = (text: string) => void;
 
-export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
+export { DEFAULT_OUT_DIR } from '../options.js';
 
 /** Show at most this many orbit points in the table; the certificate has them all. */
 const MAX_POINTS_SHOWN = 6;
@@ -38,7 +39,7 @@ export async function proveCommand(
   progressSink?: ProgressSink,
 ): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
+  const maxBits = o.maxBits !== undefined ? parseMaxBits(o.maxBits) : undefined;
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
   if (limit !== undefined && o.all) {
@@ -217,7 +218,7 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
   out.push('');
   out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within*', 'bits', 'certificate'], rows));
   out.push('');
-  if (r.outcomes.some((o) => o.orbit?.uniquenessRadius != null)) out.push(UNIQUE_WITHIN_NOTE);
+  if (r.outcomes.some((o) => (o.orbit?.uniquenessRadius ?? null) !== null)) out.push(UNIQUE_WITHIN_NOTE);
   for (const o of r.outcomes) {
     if (o.check && o.status === 'verified') {
       out.push(`#${o.index}: the independent checker re-verified: ${o.check.claimsVerified.join(', ')}`);
