@@ -93,10 +93,11 @@ export class OrbitIdentifier {
   }
 
   /**
-   * Classifies `orbit` against the kept orbits; keeps it unless it is 'same'. Kept orbits are
-   * numbered 0, 1, … in the order they were kept.
+   * Classifies `orbit` against the kept orbits; keeps it unless it is 'same' (or `keep` is false:
+   * classify only, e.g. before an independent check confirmed the orbit — call again with
+   * `keep` true afterwards). Kept orbits are numbered 0, 1, … in the order they were kept.
    */
-  add(orbit: IdentifiableOrbit): Identification {
+  add(orbit: IdentifiableOrbit, keep = true): Identification {
     const p = this.period;
     const n = this.dim;
     if (orbit.boxes.length !== p || orbit.centre.length !== p) throw new Error(`identify: expected ${p} boxes`);
@@ -113,7 +114,7 @@ export class OrbitIdentifier {
         if (verdict === 'undecided' && undecided < 0) undecided = k;
       }
     }
-    this.keep(cand, orbit);
+    if (keep) this.keep(cand, orbit);
     return undecided >= 0 ? { kind: 'undecided', overlapsWith: undecided } : { kind: 'distinct' };
   }
 

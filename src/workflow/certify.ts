@@ -260,12 +260,12 @@ export async function certifyOrbits(
     }
     const orbit = verdict.orbit;
     // one orbit is one orbit: a proven zero inside another's uniqueness region is that orbit
-    const identity = identifier.add(orbit);
+    // (compared only with orbits the checker confirmed, or the prover's own with the checker off)
+    const identity = identifier.add(orbit, false);
     if (identity.kind === 'same') {
       merged.push({ attempt: attemptNo, sameAs: keptIndex[identity.sameAs]! });
       continue;
     }
-    keptIndex.push(index);
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
     const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
@@ -285,6 +285,8 @@ export async function certifyOrbits(
       }
     }
     if (outcome.status !== 'rejected-by-checker') {
+      identifier.add(orbit);
+      keptIndex.push(index);
       const notes: string[] = [];
       if (orbit.minimalPeriod !== opts.period) notes.push(minimalPeriodNotShown(opts.period));
       const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;

@@ -68,6 +68,12 @@ describe('OrbitIdentifier: the rule (common practice, no source: uniqueness of a
     expect(id.add(orbitAround(shift(z, 2), 1e-12, '0.001'))).toEqual({ kind: 'same', sameAs: 0, shift: 1 });
     expect(id.size).toBe(1);
   });
+  it('add(orbit, false) classifies without keeping (orbits not yet confirmed by the checker)', () => {
+    const id = new OrbitIdentifier(3, 1);
+    expect(id.add(orbitAround(z, 1e-12, '0.001'), false)).toEqual({ kind: 'distinct' });
+    expect(id.size).toBe(0);
+    expect(id.add(orbitAround(shift(z, 1), 1e-12, '0.001')).kind).toBe('distinct');
+  });
   it('boxes far apart under every shift are distinct orbits', () => {
     const id = new OrbitIdentifier(3, 1);
     id.add(orbitAround(z, 1e-12, '0.001'));
