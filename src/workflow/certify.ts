@@ -4,6 +4,7 @@
  * The CLI's `prove` and `demo` commands are this function plus rendering and an exit code.
  */
 import { join } from 'node:path';
+import { Decimal } from 'decimal.js';
 import { buildCertificate } from '../certificate/build.js';
 import { OrbitIdentifier } from '../prove/identify.js';
 import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
@@ -158,6 +159,12 @@ function startCandidate(period: number, start: readonly (readonly CandidateCoord
   };
 }
 
+/** Does some box (exact decimal ends) contain the exact point? Rigorous (decimal.js comparisons). */
+function pointInBoxes(point: readonly string[], boxes: readonly (readonly [string, string][])[]): boolean {
+  const x = point.map((v) => new Decimal(v));
+  return boxes.some((box) => box.every(([lo, hi], j) => x[j]!.gte(lo) && x[j]!.lte(hi)));
+}
+
 /** @heuristic the smallest max-norm distance (floats) from `near` to a point of a candidate. */
 function nearestDistance(cands: readonly Candidate[], near: readonly number[]): number {
   let best = Infinity;
@@ -214,7 +221,8 @@ export async function certifyOrbits(
     found = [startCandidate(opts.period, startPoints)];
   } else if (opts.near) {
     const near = opts.near;
-    const through = (cands: Candidate[]): boolean => cands.length > 0 && nearestDistance(cands, near) <= 1e-10 * (1 + Math.max(...near.map(Math.abs)));
+    // orbits of period p of a chaotic map lie ~e^{-λp} apart: a float tolerance well below that
+    const through = (cands: Candidate[]): boolean => cands.length > 0 && nearestDistance(cands, near) <= 1e-14 * (1 + Math.max(...near.map(Math.abs)));
     // 1. the orbit through the point itself: Newton from its float iterates
     found = limit === 1 ? findCandidates(compiled, { period: opts.period, near, enough: 1, gridPerAxis: 0, randomSeeds: 0, attractorSeeds: 0 }) : [];
     if (limit === 1 && through(found)) {
@@ -291,6 +299,9 @@ export async function certifyOrbits(
       if (orbit.minimalPeriod !== opts.period) notes.push(minimalPeriodNotShown(opts.period));
       const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;
       if (sameness !== '') notes.push(sameness);
+      if (opts.nearExact && limit === 1 && !pointInBoxes(opts.nearExact, orbit.boxes)) {
+        notes.push('note: no proven box contains the --near point: this is the orbit nearest to it that was found, not an orbit through it');
+      }
       if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }

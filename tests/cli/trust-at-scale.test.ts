@@ -66,6 +66,7 @@ describe('--near proves the orbit through the point (regression: r = 4, period 3
     expect(doc.orbits).toHaveLength(1);
     expect(boxesHoldOrbit(doc.orbits[0].boxes, orbit)).toBe(true);
     expect(someBoxHolds(doc.orbits[0].boxes, orbit[5]!)).toBe(true);
+    expect(doc.orbits[0].reason ?? '').not.toMatch(/no proven box contains/);
   });
   it('period 7, a float point: the orbit through it from its float iterates; the search stops there', async () => {
     const p = 7;
@@ -83,6 +84,7 @@ describe('--near proves the orbit through the point (regression: r = 4, period 3
     expect(r.exitCode).toBe(0);
     const doc = JSON.parse(r.stdout);
     expect(doc.searchStopped).toBe(false);
+    expect(doc.orbits[0].reason).toMatch(/no proven box contains the --near point: this is the orbit nearest to it/);
     expect(someBoxHolds(doc.orbits[0].boxes, new Decimal(5).sub(new Decimal(5).sqrt()).div(8))).toBe(true);
   });
 });
