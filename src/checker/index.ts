@@ -36,6 +36,7 @@
  */
 import { readFileSync, readdirSync, statSync, type Dirent } from 'node:fs';
 import { join } from 'node:path';
+import { MAX_DIGITS } from '../certificate/limits.js';
 import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
@@ -88,7 +89,7 @@ export const DEFAULT_LIMITS: CheckLimits = {
   maxUnknowns: 2500,
   maxNumberLength: 2000,
   maxExponent: 100_000,
-  maxDigits: 2000,
+  maxDigits: MAX_DIGITS,
   maxFormulaLength: 10_000,
   maxDecimalPrecondUnknowns: 600,
 };

@@ -23,7 +23,9 @@ async function transcript(argv: string[]): Promise<string> {
       .join('<DIR>')
       .replace(/"elapsedMs": \d+(\.\d+)?/g, '"elapsedMs": "<ms>"')
       .replace(/\b\d+ ms\b/g, '<ms> ms')
-      .replace(/\(\d+\.\d s\)/g, '(<s> s)');
+      .replace(/\(\d+\.\d s\)/g, '(<s> s)')
+      // a last column of timings is as wide as its widest value: mask the width of its rule too
+      .replace(/^(verdict .* time)\n([- ]*?)-+$/m, '$1\n$2<rule>');
   return [`$ orbitseal ${argv.map((a) => a.split(scratch).join('<DIR>')).join(' ')}`, `exit ${r.exitCode}`, '--- stdout', mask(r.stdout), '--- stderr', mask(r.stderr)].join('\n');
 }
 
