@@ -115,3 +115,18 @@ export function parseStart(text: string, dim: number): string[] {
   }
   return parts;
 }
+
+/** `--effort E`: a positive decimal factor, at most 1000 (multiplies the float search effort). */
+export function parseEffort(text: string): number {
+  const v = DECIMAL_LITERAL.test(text.trim()) ? Number(text.trim()) : Number.NaN;
+  if (!(Number.isFinite(v) && v > 0 && v <= 1000)) {
+    throw new UsageError('bad-option', '--effort', text, 'expected a positive number up to 1000', 'write e.g. --effort 4 to search four times harder');
+  }
+  return v;
+}
+
+/** `--near` as exact decimal text (for multiprecision iteration of the point); null if not decimals. */
+export function nearDecimals(text: string): string[] | null {
+  const parts = text.split(',').map((s) => s.trim());
+  return parts.every((s) => DECIMAL_LITERAL.test(s)) ? parts : null;
+}
