@@ -3,7 +3,7 @@
  * order, as the checker's sequential `checkPaths` (the folder walk is the checker's own
  * `listCheckTargets`; each file is checked by `checkFile` in some worker).
  */
-import { listCheckTargets, type CheckReport } from '../checker/index.js';
+import { listCheckTargets, type CheckReport, type SkippedEntry } from '../checker/index.js';
 import type { CheckTask } from './check-task.js';
 import { runPool } from './pool.js';
 
@@ -18,7 +18,12 @@ export interface CheckManyOptions {
 const CHECK_TASK = { module: new URL('./check-task.js', import.meta.url).href, exportName: 'checkTask' };
 
 export async function checkMany(paths: string[], opts: CheckManyOptions = {}): Promise<CheckReport[]> {
-  const targets = listCheckTargets(paths, opts.digits !== undefined ? { digits: opts.digits } : {});
+  return (await checkManyReporting(paths, opts)).reports;
+}
+
+/** `checkMany` plus what the folder walk skipped (as the checker's `checkPathsReporting`). */
+export async function checkManyReporting(paths: string[], opts: CheckManyOptions = {}): Promise<{ reports: CheckReport[]; skipped: SkippedEntry[] }> {
+  const { targets, skipped } = listCheckTargets(paths, opts.digits !== undefined ? { digits: opts.digits } : {});
   const tasks: CheckTask[] = [];
   for (const t of targets) if (typeof t === 'string') tasks.push(opts.digits !== undefined ? { file: t, digits: opts.digits } : { file: t });
   const checked = await runPool<CheckTask, CheckReport>(CHECK_TASK, tasks, {
@@ -26,5 +31,5 @@ export async function checkMany(paths: string[], opts: CheckManyOptions = {}): P
     ...(opts.progress !== undefined ? { progress: opts.progress } : {}),
   });
   let k = 0;
-  return targets.map((t) => (typeof t === 'string' ? checked[k++]! : t));
+  return { reports: targets.map((t) => (typeof t === 'string' ? checked[k++]! : t)), skipped };
 }

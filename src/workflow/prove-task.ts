@@ -1,11 +1,9 @@
 /**
- * The pool task of the parallel `prove` workflow (src/workflow/certify.ts): prove one candidate
- * and build its certificate, in a worker thread. The map is compiled once per worker from the
+ * The pool task of the parallel `prove` workflow (src/workflow/certify.ts): prove one candidate in
+ * a worker thread (the certificate is built, written and checked on the calling thread). The map is compiled once per worker from the
  * definition the caller compiled (overrides already applied), so the worker proves exactly the
  * map the calling thread would.
  */
-import { buildCertificate } from '../certificate/build.js';
-import type { CertificateV1 } from '../certificate/types.js';
 import { compileMap, type FormulaMap } from '../model/compile.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
 import { proveOrbit } from '../prove/index.js';
@@ -24,7 +22,6 @@ export interface ProveTask {
 
 export interface ProveTaskResult {
   verdict: OrbitVerdict;
-  certificate?: CertificateV1;
 }
 
 let cached: { key: string; map: FormulaMap } | undefined;
@@ -33,6 +30,5 @@ export function proveTask(t: ProveTask): ProveTaskResult {
   const key = JSON.stringify(t.map);
   if (cached?.key !== key) cached = { key, map: compileMap(t.map) };
   const verdict = proveOrbit(cached.map, t.points, t.maxBits ? { maxBits: t.maxBits } : {});
-  if (verdict.status !== 'proven') return { verdict };
-  return { verdict, certificate: buildCertificate(verdict.orbit, t.def, t.overrides ? { overrides: t.overrides } : {}) };
+  return { verdict };
 }
