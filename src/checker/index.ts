@@ -39,9 +39,10 @@ import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
+import { checkCount, CountRejection } from './count.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'count';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -155,7 +156,14 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const d = obj(doc, '$');
   if (d.format !== 'orbitseal-certificate') reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "orbitseal-certificate")`);
   if (d.formatVersion !== 1) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version 1)`);
-  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit")`);
+  if (d.kind === 'periodic-orbit-count') {
+    // count certificates: checker/count.ts
+    const digits = opts.digits ?? DEFAULT_DIGITS;
+    if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+    checkCount(d, digits, limits);
+    return { claims: ['count'], digits };
+  }
+  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit" or "periodic-orbit-count")`);
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
@@ -381,6 +389,7 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
     digits = r.digits;
     return done({ verdict: 'VERIFIED', claimsVerified: r.claims });
   } catch (e) {
+    if (e instanceof CountRejection) return done({ verdict: 'REJECTED', reason: e.message, path: e.path, claimsVerified: [] });
     if (e instanceof Refusal) return done({ verdict: e.verdict, reason: e.message, ...(e.path ? { path: e.path } : {}), claimsVerified: [] });
     if (e instanceof DomainViolation) return done({ verdict: 'REJECTED', reason: e.message, claimsVerified: [] });
     if (e instanceof RangeError) return done({ verdict: 'REJECTED', reason: `resource limit while checking: ${e.message}`, claimsVerified: [] });
