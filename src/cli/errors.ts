@@ -70,6 +70,7 @@ interface UserErrorLike {
 }
 
 const USER_ERROR_NAMES = new Set([
+  'UserError',
   'MapLanguageError',
   'UsageError',
   'CertificateWriteError',
