@@ -32,8 +32,7 @@
  */
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { Decimal } from 'decimal.js';
-import type { CertificateV1 } from '../certificate/types.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
@@ -154,16 +153,16 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   };
 
   const d = obj(doc, '$');
-  if (d.format !== 'orbitseal-certificate') reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "orbitseal-certificate")`);
-  if (d.formatVersion !== 1) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version 1)`);
-  if (d.kind === 'periodic-orbit-count') {
+  if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
+  if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
+  if (d.kind === CERTIFICATE_KIND_COUNT) {
     // count certificates: checker/count.ts
     const digits = opts.digits ?? DEFAULT_DIGITS;
     if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
     checkCount(d, digits, limits);
     return { claims: ['count'], digits };
   }
-  if (d.kind !== 'periodic-orbit') reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "periodic-orbit" or "periodic-orbit-count")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}" or "${CERTIFICATE_KIND_COUNT}")`);
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
@@ -361,7 +360,23 @@ function depthOk(v: unknown, max: number): boolean {
   return true;
 }
 
-/** Re-verify one certificate, given as JSON text or as an already parsed document. Never throws. */
+/**
+ * A bug in the checker (an exception that is neither a verdict nor a resource limit). Thrown, not
+ * turned into REJECTED: a certificate is not at fault for the checker's bugs, and the CLI reports
+ * any non-user error as an internal error (exit 3). The checker's own class: it may not import
+ * src/errors.ts (tests/checker/independence.test.ts).
+ */
+export class CheckerInternalError extends Error {
+  override name = 'CheckerInternalError';
+  constructor(cause: unknown) {
+    super(`internal checker error (please report): ${cause instanceof Error ? `${cause.name}: ${cause.message}` : String(cause)}`, { cause });
+  }
+}
+
+/**
+ * Re-verify one certificate, given as JSON text or as an already parsed document. Every property
+ * of the input ends in a verdict; only a bug of the checker throws (CheckerInternalError).
+ */
 export function checkCertificate(input: string | unknown, opts: CheckOptions = {}): CheckReport {
   const t0 = performance.now();
   const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
@@ -393,7 +408,8 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
     if (e instanceof Refusal) return done({ verdict: e.verdict, reason: e.message, ...(e.path ? { path: e.path } : {}), claimsVerified: [] });
     if (e instanceof DomainViolation) return done({ verdict: 'REJECTED', reason: e.message, claimsVerified: [] });
     if (e instanceof RangeError) return done({ verdict: 'REJECTED', reason: `resource limit while checking: ${e.message}`, claimsVerified: [] });
-    return done({ verdict: 'REJECTED', reason: `internal checker error (please report): ${(e as Error).message}`, claimsVerified: [] });
+    // anything else is a bug of the checker itself, not a property of the certificate
+    throw new CheckerInternalError(e);
   }
 }
 
