@@ -76,7 +76,7 @@ export function classifyZeros(sets: readonly Float64Array[], p: number, n: numbe
         const rlo = region[2 * (k % n)]!;
         const rhi = region[2 * (k % n) + 1]!;
         // a zero on the region's boundary is tried at the boundary value itself
-        let v = lo <= rlo && rlo <= hi ? rlo : lo <= rhi && rhi <= hi ? rhi : 0.5 * lo + 0.5 * hi;
+        const v = lo <= rlo && rlo <= hi ? rlo : lo <= rhi && rhi <= hi ? rhi : 0.5 * lo + 0.5 * hi;
         const [xlo, xhi] = Xin(z, k);
         if (v < xlo || v > xhi) ok = false;
         m[k] = v;
