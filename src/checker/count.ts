@@ -39,7 +39,7 @@ const Hi = Decimal.clone({ precision: 1000, rounding: Decimal.ROUND_HALF_EVEN, m
 
 const SWEEPS = 6;
 const KRAWCZYK_STEPS = 6;
-const TIGHTEN_STEPS = 3;
+const TIGHTEN_STEPS = 5;
 const MAX_PIECE_DEPTH = 16;
 const MAX_COUNT_UNKNOWNS = COUNT_ALPHABET.length;
 

@@ -17,4 +17,4 @@ export const MEAN_VALUE_WIDTH = 1 / 8;
 /** Point 0 is split first, until its relative width is below this; then the widest component. */
 export const SPLIT_FIRST_POINT_WIDTH = 2 ** -30;
 /** Krawczyk steps K ← K(K) ∩ K after a uniqueness proof (tight enclosures identify zeros). */
-export const TIGHTEN_ITERATIONS = 2;
+export const TIGHTEN_ITERATIONS = 4;
