@@ -93,6 +93,11 @@ export class ShootingCounter {
     this.D = new Float64Array(2 * n * n * period);
   }
 
+  /** After decide(B) returned 1 (one zero): copies of K (the zero's enclosure) and X̃ (its uniqueness box). */
+  lastZero(): { K: Float64Array; Xt: Float64Array } {
+    return { K: this.K.slice(), Xt: this.Xt.slice() };
+  }
+
   get pieceCount(): number {
     return 2 ** this.pieceDepth;
   }
