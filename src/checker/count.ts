@@ -384,8 +384,9 @@ function classify(s: Shooting, all: Zero[], region: { lo: Decimal; hi: Decimal }
       const b = all[order[y]!]!;
       if (b.K[0]!.lo.gt(a.K[0]!.hi)) break;
       if (disjoint(a.K, b.K, 0)) continue;
-      if (sub(a.K, b.X) || sub(b.K, a.X)) parent[find(order[x]!)] = find(order[y]!);
-      else undecidedZeros++;
+      // same zero; or undecided — merged too, so that the counts stay lower bounds
+      if (!(sub(a.K, b.X) || sub(b.K, a.X))) undecidedZeros++;
+      parent[find(order[x]!)] = find(order[y]!);
     }
   }
   const divisors: number[] = [];

@@ -45,8 +45,9 @@ export function classifyZeros(sets: readonly Float64Array[], p: number, n: numbe
       let overlap = true;
       for (let k = 0; k < N && overlap; k++) if (b[2 * k]! > a[2 * k + 1]! || a[2 * k]! > b[2 * k + 1]!) overlap = false;
       if (!overlap) continue;
-      if (inside(a, b, N, 0) || inside(b, a, N, 0)) parent[find(order[x]!)] = find(order[y]!);
-      else ambiguous++;
+      // same zero; or undecided — merged too, so that `zeros` stays a lower bound
+      if (!(inside(a, b, N, 0) || inside(b, a, N, 0))) ambiguous++;
+      parent[find(order[x]!)] = find(order[y]!);
     }
   }
   const reps: Float64Array[] = [];
