@@ -12,7 +12,8 @@
 import { Decimal } from 'decimal.js';
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import type { CompiledMap } from '../model/types.js';
-import { floatPreconditioner, pointPreconditioner } from './krawczyk.js';
+import { cyclicPreconditioner, floatPreconditioner, pointPreconditioner, type Preconditioner } from './krawczyk.js';
+import { MAX_DECIMAL_DENSE_UNKNOWNS, MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS, STRUCTURED_FROM_UNKNOWNS } from '../certificate/limits.js';
 import { decimalContext } from './mp-point.js';
 import { attempt, type AttemptClaims } from './orbit-core.js';
 import { floatShootingInverse, refineFloat, refineMp, type MpRefinement } from './refine.js';
@@ -39,8 +40,10 @@ export interface ProveOrbitOptions {
   /** Epsilon-inflation steps per precision (default 12). */
   maxInflations?: number;
   /**
-   * Largest p·n for the dense preconditioner (default 4096; memory grows like (p·n)²). Larger
-   * problems are reported 'undecided' (a structured preconditioner is not implemented).
+   * Largest p·n for the dense preconditioner (default MAX_DENSE_UNKNOWNS of certificate/limits.ts,
+   * shared with the checker; memory grows like (p·n)²). Dimension 1 uses the structured cyclic
+   * bound (cyclic.ts) from STRUCTURED_FROM_UNKNOWNS unknowns on, up to MAX_UNKNOWNS; dimension ≥ 2
+   * beyond the dense limit is reported 'undecided'.
    */
   maxUnknowns?: number;
 }
@@ -109,8 +112,12 @@ export function proveOrbitWith(
   const p = points.length;
   const n = map.dim;
   const N = p * n;
-  if (N > (opts.maxUnknowns ?? 4096)) {
-    const detail = `p·n = ${N} unknowns exceed the dense preconditioner limit (maxUnknowns = ${opts.maxUnknowns ?? 4096})`;
+  const denseLimit = opts.maxUnknowns ?? MAX_DENSE_UNKNOWNS;
+  const structured = n === 1 && N > STRUCTURED_FROM_UNKNOWNS;
+  if (N > MAX_UNKNOWNS || (!structured && N > denseLimit)) {
+    const detail = N > MAX_UNKNOWNS
+      ? `p·n = ${N} unknowns exceed the limit of ${MAX_UNKNOWNS} (MAX_UNKNOWNS)`
+      : `p·n = ${N} unknowns exceed the dense preconditioner limit of ${denseLimit} (the structured bound exists for dimension 1 only)`;
     return { status: 'not-proven', reason: 'undecided', detail, attempts };
   }
   const maxBits = opts.maxBits ?? 512;
@@ -147,12 +154,19 @@ export function proveOrbitWith(
       lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there` };
       attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
     } else {
-      const Cf = floatShootingInverse(blocks, p, n);
-      if (Cf === null) {
+      const a = ariths.float();
+      let C: Preconditioner<unknown> | null = null;
+      if (structured) {
+        const at = Float64Array.from(blocks);
+        C = at.every(Number.isFinite) ? cyclicPreconditioner(at) : null;
+      } else {
+        const Cf = floatShootingInverse(blocks, p, n);
+        C = Cf === null ? null : floatPreconditioner(a, Cf, N);
+      }
+      if (C === null) {
         lastFailure = { reason: 'singular', detail: 'the shooting Jacobian at the candidate is singular to float precision' };
         attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
       } else {
-        const a = ariths.float();
         const centre = Array.from(x, (v) => a.fromNumber(v));
         const res = attempt({
           arith: a,
@@ -160,7 +174,7 @@ export function proveOrbitWith(
           period: p,
           dim: n,
           centre,
-          C: floatPreconditioner(a, Cf, N),
+          C,
           digits: 20,
           uniqueness,
           maxInflations,
@@ -180,7 +194,13 @@ export function proveOrbitWith(
   const wantMore = (): boolean =>
     best === null || (escalateIncomplete && !best.claims.complete) || (!acceptAssumed && best.claims.assumed);
   const hardStop = lastFailure.reason === 'newton-failed' && best === null && opts.refine !== false;
-  if (ariths.mp && wantMore() && !hardStop) {
+  // Multiprecision escalation forms a dense decimal inverse: refused beyond its own limit (it would
+  // run for minutes and exhaust memory), with the reason in the attempts.
+  const mpAllowed = N <= MAX_DECIMAL_DENSE_UNKNOWNS;
+  if (ariths.mp && wantMore() && !hardStop && !mpAllowed) {
+    attempts.push({ bits: 106, outcome: 'failed', detail: `multiprecision escalation not attempted: p·n = ${N} exceeds ${MAX_DECIMAL_DENSE_UNKNOWNS} unknowns (dense multiprecision solve)` });
+  }
+  if (ariths.mp && wantMore() && !hardStop && mpAllowed) {
     for (const bits of precisionLadder(maxBits)) {
       if (!wantMore()) break;
       const a = ariths.mp(bits);

@@ -1,0 +1,128 @@
+/**
+ * Long orbits (issue 7 item 4): time and peak memory of the prover and of the independent checker
+ * for the logistic map at r = 4, periods 1,000 and 10,000, on orbits whose binary word avoids runs
+ * longer than 2. Check values: x_j = sin²(π·2^j·k/(2^p − 1)) and multiplier ±2^p, from the
+ * conjugacy with the doubling map (derived by hand). Each case runs in a child process so its
+ * peak memory (maxRSS) is its own.
+ *   node dist/bench/long-bench.js            (all cases)
+ *   node dist/bench/long-bench.js one 10000  (one case, prints JSON)
+ */
+import { execFileSync } from 'node:child_process';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Decimal } from 'decimal.js';
+import { getCatalogueMap } from '../src/model/catalogue.js';
+import { compileMap } from '../src/model/compile.js';
+import { proveOrbit } from '../src/prove/orbit.js';
+import { buildCertificate } from '../src/certificate/build.js';
+import { checkCertificate } from '../src/checker/index.js';
+
+/** A primitive binary word of length p without three equal bits in a row (cyclically); deterministic. */
+export function balancedWord(p: number, seed = 7): number[] {
+  for (let s = seed; ; s++) {
+    let state = (s * 2654435761) >>> 0;
+    const w: number[] = [];
+    while (w.length < p) {
+      state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
+      let bit = state >>> 31;
+      const n = w.length;
+      if (n >= 2 && w[n - 1] === w[n - 2]) bit = 1 - w[n - 1]!;
+      w.push(bit);
+    }
+    let good = true;
+    for (let i = 0; i < p && good; i++) good = !(w[i] === w[(i + 1) % p] && w[(i + 1) % p] === w[(i + 2) % p]);
+    for (let d = 1; d < p && good; d++) {
+      if (p % d !== 0) continue;
+      let same = true;
+      for (let i = 0; i < p && same; i++) same = w[i] === w[(i + d) % p];
+      if (same) good = false;
+    }
+    if (good) return w;
+  }
+}
+
+/**
+ * The orbit of 4x(1 − x) through θ = k/(2^p − 1), k the word read in binary: x_j = sin²(πθ_j),
+ * θ_j = the word rotated by j, read as 0.(w_j … w_{j−1}) in binary. θ_j to 80 bits from the word
+ * itself (the tail beyond 80 bits changes x_j by < 2^-78), sin² at `digits` digits.
+ */
+export function logistic4Points(w: readonly number[], digits = 25): Decimal[] {
+  const p = w.length;
+  const D = Decimal.clone({ precision: digits + 10 });
+  const pi = D.acos(-1);
+  const out: Decimal[] = [];
+  const bits = Math.min(80, p * 4);
+  for (let j = 0; j < p; j++) {
+    let num = 0n;
+    for (let b = 0; b < bits; b++) num = (num << 1n) | BigInt(w[(j + b) % p]!);
+    const theta = new D(num.toString()).div(new D((1n << BigInt(bits)).toString()));
+    out.push(pi.mul(theta).sin().pow(2).toSignificantDigits(digits));
+  }
+  return out;
+}
+
+interface Figures {
+  period: number;
+  proveMs: number;
+  checkMs: number;
+  status: string;
+  verdict: string;
+  contained: boolean;
+  log2Multiplier: [number, number] | null;
+  maxRssMB: number;
+  detail?: string;
+}
+
+export function runOne(p: number): Figures {
+  const map = getCatalogueMap('logistic')!;
+  const compiled = compileMap(map, { r: { kind: 'exact', value: '4' } });
+  const w = balancedWord(p);
+  const xs = logistic4Points(w);
+  const t0 = performance.now();
+  const v = proveOrbit(compiled, xs.map((x) => [Number(x.toString())]));
+  const proveMs = performance.now() - t0;
+  if (v.status !== 'proven') {
+    return { period: p, proveMs, checkMs: 0, status: v.status, verdict: '-', contained: false, log2Multiplier: null, maxRssMB: process.resourceUsage().maxRSS / 1024, detail: `${v.reason}: ${v.detail}` };
+  }
+  const o = v.orbit;
+  let contained = true;
+  for (let i = 0; i < p && contained; i++) {
+    const [lo, hi] = o.boxes[i]![0]!;
+    // the closed form to 25 digits is within 1e-24 of x_i; boxes are wider than that here
+    contained = xs[i]!.gte(lo) && xs[i]!.lte(hi);
+  }
+  let log2: [number, number] | null = null;
+  if (o.stability.multiplier) {
+    const L = Decimal.clone({ precision: 30 });
+    const [lo, hi] = o.stability.multiplier;
+    const l2 = (s: string): number => new L(s).abs().log(2).toNumber();
+    log2 = [l2(lo), l2(hi)].sort((a, b) => a - b) as [number, number];
+  }
+  const cert = buildCertificate(o, map, { overrides: { r: { kind: 'exact', value: '4' } } });
+  const t1 = performance.now();
+  const rep = checkCertificate(JSON.parse(JSON.stringify(cert)));
+  const checkMs = performance.now() - t1;
+  return {
+    period: p, proveMs, checkMs, status: v.status, verdict: rep.verdict, contained, log2Multiplier: log2,
+    maxRssMB: process.resourceUsage().maxRSS / 1024, ...(rep.reason ? { detail: rep.reason } : {}),
+  };
+}
+
+export async function runLongBench(): Promise<string[]> {
+  const lines: string[] = ['case              prove s   check s  chk/prv  maxRSS MB  verdict'];
+  const self = fileURLToPath(import.meta.url);
+  for (const p of [1000, 10000]) {
+    const out = execFileSync(process.execPath, [self, 'one', String(p)], { encoding: 'utf8', maxBuffer: 1 << 24 });
+    const f = JSON.parse(out.trim().split('\n').pop()!) as Figures;
+    const name = `logistic4 p=${p}`.padEnd(17);
+    lines.push(
+      `${name} ${(f.proveMs / 1000).toFixed(2).padStart(7)} ${(f.checkMs / 1000).toFixed(2).padStart(9)} ${(f.checkMs / f.proveMs).toFixed(2).padStart(8)} ${f.maxRssMB.toFixed(0).padStart(10)}  ${f.verdict}`,
+    );
+    lines.push(`  boxes contain sin²: ${f.contained}; log2|Λ| in ${f.log2Multiplier ? f.log2Multiplier.map((x) => x.toFixed(4)).join('..') : '-'}${f.detail ? `; ${f.detail.slice(0, 60)}` : ''}`);
+  }
+  return lines;
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
+  if (process.argv[2] === 'one') console.log(JSON.stringify(runOne(Number(process.argv[3]))));
+  else for (const l of await runLongBench()) console.log(l);
+}
