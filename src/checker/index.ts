@@ -38,7 +38,21 @@ import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
+import { krawczykCyclic } from './cyclic.js';
+import { estimateWork, formulaOps } from './budget.js';
+import {
+  CHECK_WORK_BUDGET,
+  MAX_DECIMAL_DENSE_UNKNOWNS,
+  MAX_DENSE_UNKNOWNS,
+  MAX_DIGITS,
+  MAX_DIMENSION,
+  MAX_FORMULA_LENGTH,
+  MAX_NUMBER_LENGTH,
+  MAX_PERIOD,
+  MAX_UNKNOWNS,
+  STRUCTURED_FROM_UNKNOWNS,
+} from '../certificate/limits.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
@@ -64,8 +78,10 @@ export interface CheckLimits {
   /** Largest period (100 000) and state dimension (16). */
   maxPeriod: number;
   maxDimension: number;
-  /** Largest number of unknowns p·n of the shooting system (2 500; C is dense). */
+  /** Largest number of unknowns p·n of the shooting system (MAX_UNKNOWNS, shared with the prover). */
   maxUnknowns: number;
+  /** Largest p·n with a dense preconditioner (MAX_DENSE_UNKNOWNS); dimension ≥ 2 beyond it is refused. */
+  maxDenseUnknowns: number;
   /** Longest decimal string (2 000 characters) and largest |decimal exponent| (100 000). */
   maxNumberLength: number;
   maxExponent: number;
@@ -75,19 +91,26 @@ export interface CheckLimits {
   maxFormulaLength: number;
   /** Above this many unknowns a decimal preconditioner is not attempted (600). */
   maxDecimalPrecondUnknowns: number;
+  /**
+   * Largest estimated work (budget.ts units, ≈ one 30-digit interval operation each) before any
+   * arithmetic starts; beyond it the certificate is REJECTED with the estimate as the reason.
+   */
+  maxWork: number;
 }
 
 export const DEFAULT_LIMITS: CheckLimits = {
   maxFileBytes: 64 * 1024 * 1024,
   maxJsonDepth: 64,
-  maxPeriod: 100_000,
-  maxDimension: 16,
-  maxUnknowns: 2500,
-  maxNumberLength: 2000,
+  maxPeriod: MAX_PERIOD,
+  maxDimension: MAX_DIMENSION,
+  maxUnknowns: MAX_UNKNOWNS,
+  maxDenseUnknowns: MAX_DENSE_UNKNOWNS,
+  maxNumberLength: MAX_NUMBER_LENGTH,
   maxExponent: 100_000,
-  maxDigits: 2000,
-  maxFormulaLength: 10_000,
-  maxDecimalPrecondUnknowns: 600,
+  maxDigits: MAX_DIGITS,
+  maxFormulaLength: MAX_FORMULA_LENGTH,
+  maxDecimalPrecondUnknowns: MAX_DECIMAL_DENSE_UNKNOWNS,
+  maxWork: CHECK_WORK_BUDGET,
 };
 
 export interface CheckOptions {
@@ -166,6 +189,8 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
+  const cyclicFirst = n === 1 && p > STRUCTURED_FROM_UNKNOWNS;
+  if (n > 1 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimension 1 only)`);
   const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
   const names = new Set<string>();
@@ -233,12 +258,27 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
 
 
+  const N = p * n;
+  const hintedHigh = digits > (opts.digits ?? DEFAULT_DIGITS) || digits > 40;
+  const decimalC = hintedHigh && N <= limits.maxDecimalPrecondUnknowns;
+  // ---- the work estimate, before any arithmetic ----
+  let stepOps = 0;
+  for (const node of step) stepOps += formulaOps(node, n, digits);
+  const form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
+  const work = estimateWork({ period: p, dim: n, digits, stepOps, form });
+  const workText = (w: number): string => w.toExponential(1).replace('e+', 'e');
+  if (!(work <= limits.maxWork)) {
+    reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${digits} digits, ${form} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
+  }
+  // The other form is a fallback only when it also fits the budget.
+  const fallbackOk = (f: 'cyclic' | 'dense-decimal' | 'dense-float'): boolean =>
+    estimateWork({ period: p, dim: n, digits, stepOps, form: f }) + work <= limits.maxWork;
+
   // ---- the mathematics ----
   const c = ivCtx(digits);
   const params = new Map<string, Iv>();
   for (const [k, [lo, hi]] of paramText) params.set(k, c.literal(lo, hi));
   const s: Shooting = { c, ev: new Evaluator(c, params), step, p, n };
-  const N = p * n;
   const M: Iv[] = [];
   const X: Iv[] = [];
   const Xexact: Iv[] = [];
@@ -253,23 +293,41 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
       M.push(c.literal(centreTxt[i]![a]!));
     }
   }
-  const hintedHigh = digits > (opts.digits ?? DEFAULT_DIGITS) || digits > 40;
-  const withDecimalC = (): ReturnType<typeof preconditioner> =>
-    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, X, true) : null;
-  let C = hintedHigh ? withDecimalC() : preconditioner(s, X, false);
-  if (!C && !hintedHigh) C = withDecimalC();
-  if (!C) reject('$.orbit.centre', 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner');
-  let kx = krawczyk(s, C!, M, X, Xexact, 'existence');
-  if (!kx.ok && !hintedHigh && N <= limits.maxDecimalPrecondUnknowns) {
-    const C2 = withDecimalC();
-    if (C2) {
-      const k2 = krawczyk(s, C2, M, X, Xexact, 'existence');
-      if (k2.ok) {
-        C = C2;
-        kx = k2;
-      }
-    }
+  // Krawczyk forms, tried in order; any that passes proves the claim (each is a valid Krawczyk
+  // operator). Preconditioners are built lazily and kept for the uniqueness test.
+  // Fix (issue 7 item 5): above 40 digits with more unknowns than a decimal preconditioner may
+  // have, the float preconditioner is used instead of none.
+  let floatC: Precond | null | undefined;
+  let decC: Precond | null | undefined;
+  const denseFloat = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
+    if (floatC === undefined) floatC = preconditioner(s, X, false);
+    return floatC ? krawczyk(s, floatC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
+  };
+  const denseDecimal = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
+    if (decC === undefined) decC = preconditioner(s, X, true);
+    return decC ? krawczyk(s, decC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
+  };
+  const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => krawczykCyclic(s, M, Y, inner, label);
+  type Form = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
+  const forms: Form[] = [];
+  if (cyclicFirst) {
+    forms.push(cyclic);
+    if (N <= limits.maxDenseUnknowns && fallbackOk('dense-float')) forms.push(denseFloat);
+  } else {
+    forms.push(decimalC ? denseDecimal : denseFloat);
+    if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
+    if (n === 1) forms.push(cyclic);
   }
+  const test = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
+    let first: KrawczykOutcome | null = null;
+    for (const f of forms) {
+      const out = f(Y, inner, label);
+      if (out.ok) return out;
+      first ??= out;
+    }
+    return first!;
+  };
+  const kx = test(X, Xexact, 'existence');
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
   const verified: ClaimName[] = ['existence'];
   const D = (kx as { jacobians: Iv[][] }).jacobians;
@@ -286,7 +344,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
       Yin.push(yin);
       if (!isSubset(Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
     }
-    const ky = krawczyk(s, C!, M, Yout, Yin, 'uniqueness');
+    const ky = test(Yout, Yin, 'uniqueness');
     if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
     verified.push('uniqueness');
   }
