@@ -2,7 +2,7 @@
 import { DEFAULT_LIMITS } from '../checker/index.js';
 import { UsageError } from './errors.js';
 
-const MAX_PERIOD = 100_000;
+import { MAX_PERIOD } from '../certificate/limits.js';
 
 /** `--period P`: an integer 1 ≤ P ≤ 100000. */
 export function parsePeriod(text: string): number {
@@ -112,4 +112,13 @@ export function parseStart(text: string, dim: number): string[] {
     );
   }
   return parts;
+}
+
+/** `--max-work W`: a positive number (plain or scientific, e.g. 2e9) of checker work units. */
+export function parseMaxWork(text: string): number {
+  const v = /^\s*\d+(\.\d*)?([eE]\+?\d+)?\s*$/.test(text) ? Number(text.trim()) : Number.NaN;
+  if (!(v >= 1) || !Number.isFinite(v)) {
+    throw new UsageError('bad-max-work', '--max-work', text, 'expected a positive number of work units', 'write e.g. --max-work 2e9 (the default is 2e8, about minutes of work)');
+  }
+  return v;
 }

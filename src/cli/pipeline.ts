@@ -6,6 +6,7 @@
 import { join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
 import type { ProvenOrbit } from '../prove/types.js';
+import { renameSync, unlinkSync } from 'node:fs';
 import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
@@ -164,6 +165,26 @@ export function candidatesByDistance(cands: readonly CandidateLike[], near: read
   return cands.map((_, i) => i).sort((a, b) => d[a]! - d[b]! || a - b);
 }
 
+/**
+ * Rename a certificate the checker rejected to `<name>.rejected.json` (atomic rename, replacing an
+ * older set-aside file of that name); if the rename fails, remove it. Returns the new path, or
+ * undefined when the file was removed.
+ */
+export function setAsideRejected(path: string): string | undefined {
+  const target = path.replace(/\.json$/, '') + '.rejected.json';
+  try {
+    renameSync(path, target);
+    return target;
+  } catch {
+    try {
+      unlinkSync(path);
+    } catch {
+      // already gone
+    }
+    return undefined;
+  }
+}
+
 /** Search, prove, write and re-check. Throws only user errors (e.g. CERT_EXISTS) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
@@ -217,6 +238,8 @@ export async function certifyOrbits(
       else {
         outcome.status = 'rejected-by-checker';
         outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
+        // never leave a rejected certificate where a verified one would be (issue 7 item 4)
+        outcome.certificatePath = setAsideRejected(path);
       }
     }
     if (outcome.status !== 'rejected-by-checker') {

@@ -7,8 +7,8 @@ import { Decimal } from 'decimal.js';
 
 /** Exact work on short decimals: 2000 significant digits, directed modes set per call. */
 const Exact = Decimal.clone({ precision: 2000, rounding: Decimal.ROUND_HALF_EVEN });
-const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
-const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
+export const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
+export const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
 function ctorOf(m: RoundMode): typeof Decimal {
   return m === 'floor' ? ExactFloor : m === 'ceil' ? ExactCeil : Exact;
 }

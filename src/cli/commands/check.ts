@@ -2,12 +2,13 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
-import { parseDigits } from '../options.js';
+import { parseDigits, parseMaxWork } from '../options.js';
 import * as lib from '../library.js';
 import type { CheckReportLike } from '../library.js';
 
 export interface CheckCommandOptions {
   digits?: string;
+  maxWork?: string;
   json?: boolean;
 }
 
@@ -16,6 +17,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
+  const maxWork = o.maxWork !== undefined ? parseMaxWork(o.maxWork) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
   absolute.forEach((p, i) => {
     if (!existsSync(p)) {
@@ -23,7 +25,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     }
   });
   const checker = await lib.checker();
-  const reports = (await checker.checkPaths(absolute, digits ? { digits } : {})).map(clarifyReport);
+  const reports = (await checker.checkPaths(absolute, { ...(digits ? { digits } : {}), ...(maxWork ? { limits: { maxWork } } : {}) })).map(clarifyReport);
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }

@@ -5,6 +5,27 @@ import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parse
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
 import { iterateFromStart } from '../start.js';
 import { loadMap, paramsLine } from './common.js';
+import { MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS } from '../../certificate/limits.js';
+
+/**
+ * Refuse, before any search, a period whose shooting system the prover and the checker would
+ * both refuse (the same limits, certificate/limits.ts): minutes of search for a sure "undecided".
+ */
+export function checkProblemSize(period: number, dim: number): void {
+  const N = period * dim;
+  if (N > MAX_UNKNOWNS) {
+    throw new UsageError('bad-period', '--period', String(period), `period ${period} × dimension ${dim} = ${N} unknowns exceeds the limit of ${MAX_UNKNOWNS}`, `use a period of at most ${Math.floor(MAX_UNKNOWNS / dim)}`);
+  }
+  if (dim > 1 && N > MAX_DENSE_UNKNOWNS) {
+    throw new UsageError(
+      'bad-period',
+      '--period',
+      String(period),
+      `period ${period} × dimension ${dim} = ${N} unknowns exceeds the dense limit of ${MAX_DENSE_UNKNOWNS} (the structured O(p) proof exists for dimension 1 only)`,
+      `use a period of at most ${Math.floor(MAX_DENSE_UNKNOWNS / dim)} for this map`,
+    );
+  }
+}
 
 export interface ProveCommandOptions {
   period: string;
@@ -46,6 +67,7 @@ export async function proveCommand(
     throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
   }
   const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
+  checkProblemSize(period, compiled.dim);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const start = o.start !== undefined ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
