@@ -25,7 +25,7 @@ import { Decimal } from 'decimal.js';
 import { DomainViolation, fmt, isInterior, type Iv } from './interval.js';
 import { image, type KrawczykOutcome, type Shooting } from './krawczyk.js';
 
-const Approx = Decimal.clone({ precision: 20, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
+const Approx: Decimal.Constructor = Decimal.clone({ precision: 20, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
 
 /** @heuristic log2 |x| of a decimal (any exponent), NaN for 0. */
 function log2Abs(x: Decimal): number {
@@ -66,12 +66,12 @@ export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], 
   // closure factor, rounded up
   const absUp: Decimal[] = new Array(p);
   const invUp: Decimal[] = new Array(p);
-  let closure = new c.Up(1);
+  let closure = new c.Up('1');
   for (let i = 0; i < p; i++) {
     absUp[i] = at[i]!.abs();
     if (back) {
       if (at[i]!.isZero()) return { ok: false, reason: `${label}: zero derivative estimate at point ${i}` };
-      invUp[i] = divU(new c.Up(1), absUp[i]!);
+      invUp[i] = divU(new c.Up('1'), absUp[i]!);
       closure = mulU(closure, invUp[i]!);
     } else closure = mulU(closure, absUp[i]!);
   }
@@ -87,27 +87,27 @@ export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], 
   }
   // @heuristic z̃ ≈ B^{-1}·mid W by the same recursion in round-to-nearest (any z̃ is valid)
   const zt: Decimal[] = new Array(p);
-  let z: Decimal = new Approx(0);
-  let prod: Decimal = new Approx(1);
+  let z: Decimal = new Approx('0');
+  let prod: Decimal = new Approx('1');
   if (back) {
     for (let i = p - 1; i >= 0; i--) {
       z = z.sub(mid[i]!).div(at[i]!);
       prod = prod.div(at[i]!);
     }
-    z = z.div(new Approx(1).sub(prod));
+    z = z.div(new Approx('1').sub(prod));
     for (let i = p - 1; i >= 0; i--) zt[i] = z = z.sub(mid[i]!).div(at[i]!);
   } else {
     for (let i = 0; i < p; i++) {
       z = at[i]!.mul(z).add(mid[i]!);
       prod = prod.mul(at[i]!);
     }
-    z = z.div(new Approx(1).sub(prod));
+    z = z.div(new Approx('1').sub(prod));
     for (let i = 0; i < p; i++) {
       zt[i] = z;
       z = at[i]!.mul(z).add(mid[i]!);
     }
   }
-  if (!zt.every((v) => v.isFinite())) zt.fill(new Approx(0));
+  if (!zt.every((v) => v.isFinite())) zt.fill(new Approx('0'));
   const g: Decimal[] = new Array(p);
   for (let i = 0; i < p; i++) {
     const bz = c.sub(c.point(zt[(i + 1) % p]!), c.scale(at[i]!, c.point(zt[i]!)));
@@ -116,7 +116,7 @@ export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], 
   const u: Decimal[] = new Array(p);
   const den = c.Down.sub(1, closure);
   if (!den.gt(0)) return { ok: false, reason: `${label}: the cyclic closure factor is too close to 1` };
-  let t = new c.Up(0);
+  let t = new c.Up('0');
   if (back) {
     for (let i = p - 1; i >= 0; i--) t = mulU(c.Up.add(t, g[i]!), invUp[i]!);
     t = divU(t, den);
