@@ -66,10 +66,11 @@ export {
 } from './certificate/index.js';
 export { checkCertificate, checkPaths, type CheckReport, type CheckOptions } from './checker/index.js';
 
-// the prove workflow and the CLI as functions
-export { certifyOrbits, type CertifyOptions, type CertifyReport, type OrbitOutcome, type OrbitStatus } from './cli/pipeline.js';
+// workflows (search → prove → write → check, as data) and the CLI as a function
+export { certifyOrbits, type CertifyOptions, type CertifyReport, type OrbitOutcome, type OrbitStatus } from './workflow/certify.js';
+export { runDemo, type DemoReport, type DemoRun } from './workflow/demo.js';
+export { iterateFromStart, startDigits } from './workflow/start.js';
 export { runCli } from './cli/program.js';
-export { runDemo } from './cli/commands/demo.js';
 
 // layer namespaces
 export * as interval from './interval/index.js';

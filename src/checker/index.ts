@@ -411,7 +411,23 @@ function depthOk(v: unknown, max: number): boolean {
   return true;
 }
 
-/** Re-verify one certificate, given as JSON text or as an already parsed document. Never throws. */
+/**
+ * A bug in the checker (an exception that is neither a verdict nor a resource limit). Thrown, not
+ * turned into REJECTED: a certificate is not at fault for the checker's bugs, and the CLI reports
+ * any non-user error as an internal error (exit 3). The checker's own class: it may not import
+ * src/errors.ts (tests/checker/independence.test.ts).
+ */
+export class CheckerInternalError extends Error {
+  override name = 'CheckerInternalError';
+  constructor(cause: unknown) {
+    super(`internal checker error (please report): ${cause instanceof Error ? `${cause.name}: ${cause.message}` : String(cause)}`, { cause });
+  }
+}
+
+/**
+ * Re-verify one certificate, given as JSON text or as an already parsed document. Every property
+ * of the input ends in a verdict; only a bug of the checker throws (CheckerInternalError).
+ */
 export function checkCertificate(input: string | unknown, opts: CheckOptions = {}): CheckReport {
   const t0 = performance.now();
   const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
@@ -442,7 +458,8 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
     if (e instanceof Refusal) return done({ verdict: e.verdict, reason: e.message, ...(e.path ? { path: e.path } : {}), claimsVerified: [] });
     if (e instanceof DomainViolation) return done({ verdict: 'REJECTED', reason: e.message, claimsVerified: [] });
     if (e instanceof RangeError) return done({ verdict: 'REJECTED', reason: `resource limit while checking: ${e.message}`, claimsVerified: [] });
-    return done({ verdict: 'REJECTED', reason: `internal checker error (please report): ${(e as Error).message}`, claimsVerified: [] });
+    // anything else is a bug of the checker itself, not a property of the certificate
+    throw new CheckerInternalError(e);
   }
 }
 

@@ -40,20 +40,22 @@ export function searchRegion(map: CompiledMap): SearchRegion {
     const bounds = def.region[name];
     if (bounds === undefined) {
       throw new SearchOptionError(
-        'SEARCH_REGION_MISSING',
+        'missing-region',
         `region.${name}`,
         '',
-        `the map has no region for state variable "${name}"; add region: { ${name}: [lo, hi] }`,
+        `the map has no region for state variable "${name}"`,
+        `add region: { ${name}: [lo, hi] }`,
       );
     }
     const a = Number(bounds[0]);
     const b = Number(bounds[1]);
     if (!(Number.isFinite(a) && Number.isFinite(b) && a <= b)) {
       throw new SearchOptionError(
-        'SEARCH_REGION_INVALID',
+        'bad-region',
         `region.${name}`,
         `[${bounds[0]}, ${bounds[1]}]`,
         'region bounds must be finite decimal numbers with lo <= hi',
+        `write e.g. region: { ${name}: [0, 1] }`,
       );
     }
     lo[c] = a;
@@ -155,14 +157,14 @@ class CandidateCollector {
 function checkCount(value: number | undefined, path: string, fallback: number): number {
   if (value === undefined) return fallback;
   if (!(Number.isInteger(value) && value >= 0)) {
-    throw new SearchOptionError('SEARCH_BAD_COUNT', path, String(value), 'expected a non-negative integer');
+    throw new SearchOptionError('bad-count', path, String(value), 'expected a non-negative integer', `give ${path} as 0, 1, 2, …`);
   }
   return value;
 }
 
 function checkPeriod(period: number): number {
   if (!(Number.isInteger(period) && period >= 1)) {
-    throw new SearchOptionError('SEARCH_BAD_PERIOD', 'period', String(period), 'the period must be a positive integer');
+    throw new SearchOptionError('bad-period', 'period', String(period), 'the period must be a positive integer', 'use a period of 1 or more');
   }
   return period;
 }
@@ -253,7 +255,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const seedHi = Float64Array.from(region.hi);
   if (opts.near !== undefined) {
     if (opts.near.length !== n || !opts.near.every((v) => Number.isFinite(v))) {
-      throw new SearchOptionError('SEARCH_BAD_NEAR', 'near', JSON.stringify(opts.near), `expected ${n} finite numbers`);
+      throw new SearchOptionError('bad-near', 'near', JSON.stringify(opts.near), `expected ${n} finite numbers`, 'give one finite number per state variable, in the order of the map');
     }
     const radius = opts.nearRadius ?? 0.05;
     for (let c = 0; c < n; c++) {
@@ -408,7 +410,7 @@ export function findOrbitFromSeed(
   for (let i = 0; i < p; i++) {
     const pt = seedPoints[i]!;
     if (pt.length !== n) {
-      throw new SearchOptionError('SEARCH_BAD_SEED', `seedPoints[${i}]`, String(pt.length), `each seed point needs ${n} coordinates`);
+      throw new SearchOptionError('bad-seed', `seedPoints[${i}]`, String(pt.length), `each seed point needs ${n} coordinates`, 'give one coordinate per state variable, in the order of the map');
     }
     for (let c = 0; c < n; c++) {
       buf[i * n + c] = pt[c]!;

@@ -10,7 +10,7 @@ import { DEFAULT_LIMITS } from '../../src/checker/index.js';
 import { table } from '../../src/cli/format.js';
 import { runCli } from '../../src/cli/program.js';
 import { MAX_CANDIDATES_SHOWN, renderFind } from '../../src/cli/commands/find.js';
-import type { CandidateLike } from '../../src/cli/library.js';
+import type { Candidate } from '../../src/search/index.js';
 
 describe('big outputs do not overflow the call stack (trial: find logistic r=4 --period 100 crashed)', () => {
   it('table with 210 000 lines: widths are the longest cell, no RangeError', () => {
@@ -28,7 +28,7 @@ describe('big outputs do not overflow the call stack (trial: find logistic r=4 -
 
   it(`renderFind lists at most ${MAX_CANDIDATES_SHOWN} candidates and says how many more (40 000 × 100 points)`, () => {
     const period = 100;
-    const cands: CandidateLike[] = [];
+    const cands: Candidate[] = [];
     const points: number[][] = [];
     for (let k = 0; k < period; k++) points.push([k / 128]);
     for (let i = 0; i < 40_000; i++) {
@@ -54,7 +54,7 @@ describe('prove --out into an unusable folder', () => {
     expect(performance.now() - t0).toBeLessThan(3000);
     expect(r.exitCode).toBe(2);
     expect(r.stdout).toBe('');
-    expect(r.stderr).toMatch(/^\/proc\/nope: error \[CERT_WRITE_FAILED\]: cannot create folder \/proc\/nope: E[A-Z]+ \(.*\)\n {2}hint: /);
+    expect(r.stderr).toMatch(/^\/proc\/nope: error \[cert-write-failed\]: cannot create folder \/proc\/nope: E[A-Z]+ \(.*\)\n {2}hint: /);
     expect(r.stderr).not.toMatch(/(E[A-Z]+): \1/);
   }, 20_000);
 });

@@ -1,9 +1,8 @@
 import { relative, resolve } from 'node:path';
-import { UsageError, type CommandResult } from '../errors.js';
+import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
 import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
-import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
-import { iterateFromStart } from '../start.js';
+import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { loadMap, paramsLine } from './common.js';
 import { MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS } from '../../certificate/limits.js';
 
@@ -66,10 +65,10 @@ export async function proveCommand(
   if (o.start !== undefined && (o.near !== undefined || o.all || limit !== undefined)) {
     throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
   }
-  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   checkProblemSize(period, compiled.dim);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
-  const start = o.start !== undefined ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period) : undefined;
+  const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
   let shown = false;
   const progress = progressSink
@@ -82,7 +81,7 @@ export async function proveCommand(
     period,
     outDir,
     ...(near ? { near } : {}),
-    ...(start ? { start } : {}),
+    ...(startPoint ? { startPoint } : {}),
     ...(limit !== undefined ? { limit } : {}),
     ...(progress ? { progress } : {}),
     all: o.all ?? false,
@@ -93,9 +92,15 @@ export async function proveCommand(
     overrides,
   });
   if (shown) progressSink?.('\r\x1b[K');
-  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode: report.exitCode };
+  const exitCode = proveExitCode(report);
+  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode: report.exitCode };
+  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode };
+}
+
+/** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
+export function proveExitCode(r: CertifyReport): ExitCode {
+  return r.allProven ? EXIT_OK : EXIT_NOT_PROVEN;
 }
 
 /** The `--json` document of a prove run. */
@@ -128,7 +133,7 @@ export function proveJson(r: CertifyReport): Record<string, unknown> {
         ? { check: { verdict: o.check.verdict, reason: o.check.reason, claimsVerified: o.check.claimsVerified } }
         : {}),
     })),
-    exitCode: r.exitCode,
+    exitCode: proveExitCode(r),
   };
 }
 

@@ -1,5 +1,5 @@
 /**
- * `prove --start x0,...`: the p points of a candidate orbit from ONE exact starting point, by
+ * Start-point iteration (`prove --start x0,...`, `CertifyOptions.startPoint`): the p points of a candidate orbit from ONE exact starting point, by
  * iterating the map in multiprecision arithmetic. @heuristic — a candidate only (midpoints are
  * kept, enclosures dropped); the prover decides. Needed where a float search cannot reach: orbits
  * passing near a critical point need about 2p bits (DESIGN.md §5, precision escalation).
