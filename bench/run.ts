@@ -5,6 +5,7 @@
 import { runCheckBench } from './check-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runIntervalBench } from './interval-bench.js';
+import { runLongBench } from './long-bench.js';
 import { runProveBench } from './prove-bench.js';
 import { runSearchBench } from './search-bench.js';
 
@@ -20,6 +21,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'candidate search', file: 'bench/search-bench.ts', run: runSearchBench },
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
+  { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
 ];
 
 async function main(): Promise<void> {
