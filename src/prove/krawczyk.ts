@@ -24,6 +24,7 @@ import { resetStatus } from '../interval/arithmetic.js';
 import type { MapEvaluator } from '../model/types.js';
 import { down, up } from '../interval/round.js';
 import { cyclicImage, prepareCyclic, type CyclicPlan } from './cyclic.js';
+import { cyclic2Image, prepareCyclic2, type Cyclic2Plan } from './cyclic2.js';
 
 /** A real N×N matrix given entry-wise as degenerate (point) elements of T. */
 export interface Preconditioner<T> {
@@ -265,6 +266,8 @@ export interface KrawczykPlan<T> {
   readonly assumed: boolean;
   /** Set for the structured test of dimension 1 (cyclic.ts); then y0/Tg/Sg are unused. */
   readonly cyclic?: CyclicPlan<T>;
+  /** Set for the structured test of dimension 2 (cyclic2.ts). */
+  readonly cyclic2?: Cyclic2Plan<T>;
 }
 
 /** A preconditioner that also exposes its dense float64 entries (enables the fast preparation). */
@@ -287,11 +290,17 @@ export function prepareKrawczyk<T>(
   if ('domain' in jb) return { domain: jb.domain, where: 'centre' };
   const cyc = (C as Partial<CyclicPreconditioner<T>>).cyclic;
   if (cyc !== undefined) {
-    if (n !== 1 || cyc.length !== p) throw new RangeError(`prepareKrawczyk: cyclic preconditioner needs n = 1 and p = ${p} entries`);
+    if (n > 2 || cyc.length !== p * nn) throw new RangeError(`prepareKrawczyk: cyclic preconditioner needs n <= 2 and p·n² = ${p * nn} entries`);
+    const empty = new Float64Array(0);
+    const base = { sys, m, y0: [], Am: jb.blocks, Tg: empty, Sg: empty, groupStart: new Int32Array(1), assumed: res.assumed || jb.assumed };
+    if (n === 2) {
+      const cyclic2 = prepareCyclic2(a, m, res.value, cyc);
+      if (cyclic2 === null) return { undecided: 'the structured Krawczyk bound found no hyperbolic splitting of the cycle (or a product of derivatives too close to 1)' };
+      return { ...base, cyclic2 };
+    }
     const cyclic = prepareCyclic(a, m, res.value, cyc);
     if (cyclic === null) return { undecided: 'the cyclic Krawczyk bound has no contracting direction (|product of derivatives| too close to 1)' };
-    const empty = new Float64Array(0);
-    return { sys, m, y0: [], Am: jb.blocks, Tg: empty, Sg: empty, groupStart: new Int32Array(1), assumed: res.assumed || jb.assumed, cyclic };
+    return { ...base, cyclic };
   }
   const G = Math.min(N, Math.max(1, opts.groups ?? 64));
   const groupStart = new Int32Array(G + 1);
@@ -397,10 +406,10 @@ export function krawczykPlanned<T>(plan: KrawczykPlan<T>, box: readonly T[], tar
   const jb = shootingJacobianBlocks(sys, box);
   if ('domain' in jb) return { kind: 'domain', where: 'box', point: jb.domain };
   const assumed = plan.assumed || jb.assumed;
-  if (plan.cyclic !== undefined) {
+  if (plan.cyclic !== undefined || plan.cyclic2 !== undefined) {
     const d: T[] = new Array<T>(N);
     for (let k = 0; k < N; k++) d[k] = a.sub(box[k]!, m[k]!);
-    const img = cyclicImage(a, plan.cyclic, jb.blocks, d);
+    const img = plan.cyclic !== undefined ? cyclicImage(a, plan.cyclic, jb.blocks, d) : cyclic2Image(a, plan.cyclic2!, jb.blocks, d);
     if (img === null) return { kind: 'undecided', image: box.slice(), reason: 'Krawczyk bound overflowed', assumed };
     return classifyImage(a, img, box, target, assumed);
   }

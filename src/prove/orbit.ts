@@ -113,11 +113,11 @@ export function proveOrbitWith(
   const n = map.dim;
   const N = p * n;
   const denseLimit = opts.maxUnknowns ?? MAX_DENSE_UNKNOWNS;
-  const structured = n === 1 && N > STRUCTURED_FROM_UNKNOWNS;
+  const structured = n <= 2 && N > STRUCTURED_FROM_UNKNOWNS;
   if (N > MAX_UNKNOWNS || (!structured && N > denseLimit)) {
     const detail = N > MAX_UNKNOWNS
       ? `p·n = ${N} unknowns exceed the limit of ${MAX_UNKNOWNS} (MAX_UNKNOWNS)`
-      : `p·n = ${N} unknowns exceed the dense preconditioner limit of ${denseLimit} (the structured bound exists for dimension 1 only)`;
+      : `p·n = ${N} unknowns exceed the dense preconditioner limit of ${denseLimit} (the structured bound exists for dimensions 1 and 2 only)`;
     return { status: 'not-proven', reason: 'undecided', detail, attempts };
   }
   const maxBits = opts.maxBits ?? 512;
