@@ -13,7 +13,7 @@
  *  - evaluations: 4 per point (centre, box, uniqueness box, preconditioner);
  *  - dense Krawczyk (N = p·n unknowns): 2·N²·(n + 3) interval operations (existence and
  *    uniqueness) and a float LU inverse of N³/50 units, or a decimal one of N³ units;
- *  - cyclic Krawczyk (n = 1): 60·p operations.
+ *  - structured Krawczyk (n ≤ 2): 60·p·n² operations.
  */
 import type { Node } from './formula.js';
 
@@ -65,7 +65,7 @@ export function estimateWork(w: WorkShape): number {
   const N = w.period * w.dim;
   const evals = 4 * w.period * w.stepOps;
   let linear: number;
-  if (w.form === 'cyclic') linear = 60 * w.period;
+  if (w.form === 'cyclic') linear = 60 * w.period * w.dim * w.dim;
   else linear = 2 * N * N * (w.dim + 3) + (w.form === 'dense-decimal' ? N ** 3 : N ** 3 / 50 / phi);
   return (evals + linear) * phi;
 }

@@ -40,6 +40,7 @@ import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
 import { krawczykCyclic } from './cyclic.js';
+import { krawczykCyclic2 } from './cyclic2.js';
 import { estimateWork, formulaOps } from './budget.js';
 import {
   CHECK_WORK_BUDGET,
@@ -189,8 +190,8 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
-  const cyclicFirst = n === 1 && p > STRUCTURED_FROM_UNKNOWNS;
-  if (n > 1 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimension 1 only)`);
+  const cyclicFirst = n <= 2 && p * n > STRUCTURED_FROM_UNKNOWNS;
+  if (n > 2 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimensions 1 and 2)`);
   const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
   const names = new Set<string>();
@@ -307,16 +308,18 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (decC === undefined) decC = preconditioner(s, X, true);
     return decC ? krawczyk(s, decC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
   };
-  const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => krawczykCyclic(s, M, Y, inner, label);
+  const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome =>
+    n === 1 ? krawczykCyclic(s, M, Y, inner, label) : krawczykCyclic2(s, M, Y, inner, label);
   type Form = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
   const forms: Form[] = [];
   if (cyclicFirst) {
     forms.push(cyclic);
+    if (decimalC && fallbackOk('dense-decimal')) forms.push(denseDecimal);
     if (N <= limits.maxDenseUnknowns && fallbackOk('dense-float')) forms.push(denseFloat);
   } else {
     forms.push(decimalC ? denseDecimal : denseFloat);
     if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
-    if (n === 1) forms.push(cyclic);
+    if (n <= 2) forms.push(cyclic);
   }
   const test = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
     let first: KrawczykOutcome | null = null;
