@@ -18,13 +18,13 @@ export const MAX_DIGITS = 2000;
 /** Longest decimal number string in a certificate. */
 export const MAX_NUMBER_LENGTH = 2000;
 /**
- * Largest number of unknowns p·n of a shooting system, prover and checker alike. Dimension 1 uses
- * the structured (cyclic) Krawczyk bound, O(p) time and memory, so this is MAX_PERIOD.
+ * Largest number of unknowns p·n of a shooting system, prover and checker alike. Dimensions 1 and 2
+ * use the structured (cyclic) Krawczyk bound, O(p) time and memory.
  */
 export const MAX_UNKNOWNS = 100_000;
 /**
  * Largest p·n for a dense preconditioner (memory (p·n)² doubles in the prover, (p·n)² decimals in
- * the checker). Dimension ≥ 2 beyond this is refused by both (no structured bound for n ≥ 2 yet).
+ * the checker). Dimension ≥ 3 beyond this is refused by both (no structured bound for n ≥ 3 yet).
  */
 export const MAX_DENSE_UNKNOWNS = 2500;
 /** Largest p·n for a dense preconditioner computed in decimals (checker) or multiprecision (prover escalation). */
@@ -37,8 +37,9 @@ export const MAX_DECIMAL_DENSE_UNKNOWNS = 600;
  */
 export const CHECK_WORK_BUDGET = 200_000_000;
 /**
- * From this many unknowns on, dimension 1 uses the structured cyclic Krawczyk bound (prover
- * src/prove/cyclic.ts, checker src/checker/cyclic.ts) instead of a dense preconditioner. Below it
+ * From this many unknowns on, dimensions 1 and 2 use the structured cyclic Krawczyk bound (prover
+ * src/prove/cyclic.ts and cyclic2.ts, checker src/checker/cyclic.ts and cyclic2.ts) instead of a
+ * dense preconditioner. Below it
  * the dense bound is used first (it is tighter near |multiplier| ≈ 1); the checker tries the
  * other form when the first fails.
  */

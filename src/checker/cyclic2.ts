@@ -28,11 +28,26 @@ function unit(x: number, y: number): [number, number] {
   return h > 0 && Number.isFinite(h) ? [x / h, y / h] : [1, 0];
 }
 
+export type BoxTest = (X: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
+
 /** K(X) ⊂ int(inner)? for n = 2 with the structured bound; M encloses the centre, X ⊇ inner. */
 export function krawczykCyclic2(s: Shooting, M: readonly Iv[], X: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome {
+  return prepareCyclic2(s, M)(X, inner, label);
+}
+
+/**
+ * The centre-only part (F(M), Ã, P, P^{-1}, the transformed cocycle, z̃) computed once; the returned
+ * test runs the box-dependent part. Same contract as krawczykCyclic2.
+ */
+export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
   const { c, p } = s;
   const Up = c.Up;
+  let label = '';
   const fail = (why: string): KrawczykOutcome => ({ ok: false, reason: `${label}: ${why} (structured bound, dimension 2)` });
+  const failing = (why: string): BoxTest => (_X, _inner, lb) => {
+    label = lb;
+    return fail(why);
+  };
   const mulU = (x: Decimal, y: Decimal): Decimal => {
     const r = Up.mul(x, y);
     if (!r.isFinite() || (r.isZero() && !x.isZero() && !y.isZero())) throw new DomainViolation('overflow or underflow in the structured bound');
@@ -82,8 +97,9 @@ export function krawczykCyclic2(s: Shooting, M: readonly Iv[], X: readonly Iv[],
     const q = [v[2 * i]!, w[2 * i]!, v[2 * i + 1]!, w[2 * i + 1]!].map((t) => new c.Down(String(t)));
     P[i] = q;
     const det = c.sub(c.scale(q[0]!, c.point(q[3]!)), c.scale(q[1]!, c.point(q[2]!)));
-    if (!(det.lo.gt(0) || det.hi.lt(0))) return fail(`singular change of coordinates at point ${i}`);
-    Pinv[i] = [c.div(c.point(q[3]!), det), c.neg(c.div(c.point(q[1]!), det)), c.neg(c.div(c.point(q[2]!), det)), c.div(c.point(q[0]!), det)];
+    if (!(det.lo.gt(0) || det.hi.lt(0))) return failing(`singular change of coordinates at point ${i}`);
+    const inv = c.div(c.one, det);
+    Pinv[i] = [c.scale(q[3]!, inv), c.neg(c.scale(q[1]!, inv)), c.neg(c.scale(q[2]!, inv)), c.scale(q[0]!, inv)];
   }
   const mat = (a: readonly Iv[], b: readonly Iv[]): Iv[] => [
     c.add(c.mul(a[0]!, b[0]!), c.mul(a[1]!, b[2]!)),
@@ -105,9 +121,9 @@ export function krawczykCyclic2(s: Shooting, M: readonly Iv[], X: readonly Iv[],
     for (let k = 0; k < 2; k++) {
       const e = E[3 * k]!;
       const mig = e.lo.gt(0) ? e.lo : e.hi.lt(0) ? c.negD(e.hi) : null;
-      if (mig === null) return fail(`a diagonal entry of the transformed cocycle contains 0 at point ${i}`);
+      if (mig === null) return failing(`a diagonal entry of the transformed cocycle contains 0 at point ${i}`);
       invMig[2 * i + k] = Up.div(1, mig);
-      if (!invMig[2 * i + k]!.isFinite()) return fail('overflow');
+      if (!invMig[2 * i + k]!.isFinite()) return failing('overflow');
       logs[k]! += Math.log2(Math.abs(Emid[4 * i + 3 * k]!));
     }
   }
@@ -159,6 +175,8 @@ export function krawczykCyclic2(s: Shooting, M: readonly Iv[], X: readonly Iv[],
     }
   }
   // over the box: R, G
+  return (X: readonly Iv[], inner: readonly Iv[], lb: string): KrawczykOutcome => {
+  label = lb;
   const G: Decimal[] = new Array(2 * p);
   let gTop = -Infinity;
   const D: Iv[][] = new Array(p);
@@ -246,4 +264,5 @@ export function krawczykCyclic2(s: Shooting, M: readonly Iv[], X: readonly Iv[],
     }
   }
   return { ok: true, jacobians: D };
+  };
 }

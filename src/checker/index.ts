@@ -40,7 +40,7 @@ import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
 import { krawczykCyclic } from './cyclic.js';
-import { krawczykCyclic2 } from './cyclic2.js';
+import { prepareCyclic2, type BoxTest } from './cyclic2.js';
 import { estimateWork, formulaOps } from './budget.js';
 import {
   CHECK_WORK_BUDGET,
@@ -308,8 +308,12 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (decC === undefined) decC = preconditioner(s, X, true);
     return decC ? krawczyk(s, decC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
   };
-  const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome =>
-    n === 1 ? krawczykCyclic(s, M, Y, inner, label) : krawczykCyclic2(s, M, Y, inner, label);
+  let cyclic2: BoxTest | undefined;
+  const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
+    if (n === 1) return krawczykCyclic(s, M, Y, inner, label);
+    cyclic2 ??= prepareCyclic2(s, M);
+    return cyclic2(Y, inner, label);
+  };
   type Form = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
   const forms: Form[] = [];
   if (cyclicFirst) {

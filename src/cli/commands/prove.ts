@@ -15,12 +15,12 @@ export function checkProblemSize(period: number, dim: number): void {
   if (N > MAX_UNKNOWNS) {
     throw new UsageError('bad-period', '--period', String(period), `period ${period} × dimension ${dim} = ${N} unknowns exceeds the limit of ${MAX_UNKNOWNS}`, `use a period of at most ${Math.floor(MAX_UNKNOWNS / dim)}`);
   }
-  if (dim > 1 && N > MAX_DENSE_UNKNOWNS) {
+  if (dim > 2 && N > MAX_DENSE_UNKNOWNS) {
     throw new UsageError(
       'bad-period',
       '--period',
       String(period),
-      `period ${period} × dimension ${dim} = ${N} unknowns exceeds the dense limit of ${MAX_DENSE_UNKNOWNS} (the structured O(p) proof exists for dimension 1 only)`,
+      `period ${period} × dimension ${dim} = ${N} unknowns exceeds the dense limit of ${MAX_DENSE_UNKNOWNS} (the structured O(p) proof exists for dimensions 1 and 2 only)`,
       `use a period of at most ${Math.floor(MAX_DENSE_UNKNOWNS / dim)} for this map`,
     );
   }
