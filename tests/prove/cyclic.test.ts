@@ -13,7 +13,7 @@ import { compileMap } from '../../src/model/compile.js';
 import { proveOrbit } from '../../src/prove/orbit.js';
 import { buildCertificate } from '../../src/certificate/build.js';
 import { checkCertificate } from '../../src/checker/index.js';
-import { balancedWord, logistic4Orbit, toDouble, wordToNumerator } from './fixtures.js';
+import { balancedWord, henonNearReturn, logistic4Orbit, toDouble, wordToNumerator } from './fixtures.js';
 
 const D80 = Decimal.clone({ precision: 80 });
 
@@ -102,4 +102,36 @@ describe('long orbits of 4x(1 − x) past the old dense limit (conjugacy with th
     expect(rep.verdict).toBe('VERIFIED');
     expect(rep.claimsVerified).toEqual(['existence', 'uniqueness', 'minimal-period', 'stability']);
   }, 30_000);
+});
+
+describe('Hénon (a = 1.4, b = 0.3; Hénon 1976, Commun. Math. Phys. 50) with the structured 2-D bound', () => {
+  const map = getCatalogueMap('henon')!;
+  const over = { a: { kind: 'exact' as const, value: '1.4' }, b: { kind: 'exact' as const, value: '0.3' } };
+  const compiled = compileMap(map, over);
+  it('period 150 (300 unknowns) from a close return: proven, a saddle, det = (−0.3)^150 enclosed, VERIFIED; a moved box REJECTED', async () => {
+    const p = 150;
+    const v = proveOrbit(compiled, henonNearReturn(p));
+    if (v.status !== 'proven') throw new Error(`${v.reason}: ${v.detail}`);
+    const o = v.orbit;
+    expect(o.minimalPeriod).toBe(p);
+    expect(o.stability.class).toBe('saddle');
+    // det Df = −b at every point, so det M = (−0.3)^p (derived by hand)
+    const det = new D80('-0.3').pow(p);
+    const [dl, dh] = o.stability.determinant!;
+    expect(det.gte(dl) && det.lte(dh)).toBe(true);
+    const cert = buildCertificate(o, map, { overrides: over });
+    const doc = JSON.parse(JSON.stringify(cert));
+    const rep = checkCertificate(doc);
+    expect(rep.reason).toBeUndefined();
+    expect(rep.verdict).toBe('VERIFIED');
+    // tamper: move box 70 by twice its width (the hash is recomputed, so only the mathematics can object)
+    const b = doc.orbit.boxes[70][0];
+    const w = new D80(b[1]).sub(b[0]).mul(2);
+    doc.orbit.boxes[70][0] = [new D80(b[0]).add(w).toString(), new D80(b[1]).add(w).toString()];
+    doc.orbit.centre[70][0] = new D80(doc.orbit.centre[70][0]).add(w).toString();
+    delete doc.sha256;
+    const { certificateHash } = await import('../../src/checker/json.js');
+    doc.sha256 = certificateHash(doc);
+    expect(checkCertificate(doc).verdict).toBe('REJECTED');
+  }, 60_000);
 });
