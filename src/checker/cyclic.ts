@@ -10,7 +10,7 @@
  * preconditioner (never formed). Since B − J(X) is diagonal with entries D_i − ã_i (D_i ⊇ f'(X_i);
  * the unit superdiagonals cancel), I − C·J(X) = C·(B − J(X)) and
  *   K(X) = M − C·F(M) + (I − C·J(X))(X − M) ⊆ M + C·W,  W_i = −F_i(M) + (D_i − ã_i)(X_i − M_i).
- * For any decimals z̃ (≈ C·mid W, heuristic): C·w = z̃ + C·(w − B z̃), so K(X) ⊆ M + z̃ + C·R with
+ * For any decimals z̃ (≈ −C·F(M), heuristic): C·w = z̃ + C·(w − B z̃), so K(X) ⊆ M + z̃ + C·R with
  * R_i = W_i − (z̃_{i+1} − ã_i z̃_i) (interval arithmetic). δ = C·r solves δ_{i+1} = ã_i δ_i + r_i;
  * with g_i ≥ |R_i| (rounded up):
  *  - expanding form: |δ_i| ≤ (|δ_{i+1}| + g_i)/|ã_i|; from i = p−1 down to 0 with |δ_p| = |δ_0|:
@@ -34,11 +34,19 @@ function log2Abs(x: Decimal): number {
   return Math.log2(m) + x.e * Math.log2(10);
 }
 
+/** A Krawczyk test of a box X ⊇ inner around the prepared centre. */
+export type BoxTest1 = (X: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
+
 /**
  * K(X) ⊂ int(inner)? for n = 1 with the cyclic preconditioner. `M` encloses the centre, X ⊇ inner.
  * Domain violations propagate as DomainViolation. Returns the Jacobians over X for stability.
  */
 export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome {
+  return prepareCyclic(s, M)(X, inner, label);
+}
+
+/** The centre part (F(M), ã, closure factor, z̃, e0 = −F(M) − B·z̃) once; the test per box. */
+export function prepareCyclic(s: Shooting, M: readonly Iv[]): BoxTest1 {
   const { c, p } = s;
   // upward products/quotients that refuse an underflow to 0 (it would round an upper bound down)
   const mulU = (x: Decimal, y: Decimal): Decimal => {
@@ -51,6 +59,7 @@ export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], 
     if (!r.isFinite() || (r.isZero() && !x.isZero())) throw new DomainViolation('overflow or underflow in the cyclic bound');
     return r;
   };
+  const failing = (why: string): BoxTest1 => (_X, _inner, label) => ({ ok: false, reason: `${label}: ${why}` });
   const Fm: Iv[] = new Array(p);
   const at: Decimal[] = new Array(p);
   let sumLog = 0;
@@ -61,31 +70,24 @@ export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], 
     at[i] = a;
     sumLog += log2Abs(a);
   }
-  if (!(Math.abs(sumLog) > 1e-9)) return { ok: false, reason: `${label}: the cyclic Krawczyk bound has no contracting direction (|product of derivatives| ≈ 1 or a zero derivative)` };
+  if (!(Math.abs(sumLog) > 1e-9)) return failing('the cyclic Krawczyk bound has no contracting direction (|product of derivatives| ≈ 1 or a zero derivative)');
   const back = sumLog > 0;
-  // closure factor, rounded up
   const absUp: Decimal[] = new Array(p);
   const invUp: Decimal[] = new Array(p);
   let closure = new c.Up('1');
   for (let i = 0; i < p; i++) {
     absUp[i] = at[i]!.abs();
     if (back) {
-      if (at[i]!.isZero()) return { ok: false, reason: `${label}: zero derivative estimate at point ${i}` };
+      if (at[i]!.isZero()) return failing(`zero derivative estimate at point ${i}`);
       invUp[i] = divU(new c.Up('1'), absUp[i]!);
       closure = mulU(closure, invUp[i]!);
     } else closure = mulU(closure, absUp[i]!);
   }
-  if (!closure.lt(1)) return { ok: false, reason: `${label}: the cyclic closure factor ${closure.toSD(6).toString()} is not < 1` };
-  const D: Iv[][] = new Array(p);
-  const W: Iv[] = new Array(p);
-  const mid: Decimal[] = new Array(p);
-  for (let i = 0; i < p; i++) {
-    D[i] = image(s, [X[i]!], true).jac!;
-    const z = c.sub(X[i]!, M[i]!);
-    W[i] = c.add(c.neg(Fm[i]!), c.mul(c.sub(D[i]![0]!, c.point(at[i]!)), z));
-    mid[i] = new Approx(c.midpoint(W[i]!));
-  }
-  // @heuristic z̃ ≈ B^{-1}·mid W by the same recursion in round-to-nearest (any z̃ is valid)
+  if (!closure.lt(1)) return failing(`the cyclic closure factor ${closure.toSD(6).toString()} is not < 1`);
+  const den = c.Down.sub(1, closure);
+  if (!den.gt(0)) return failing('the cyclic closure factor is too close to 1');
+  // @heuristic z̃ ≈ −B^{-1}·F(M) by the same recursion in round-to-nearest (any z̃ is valid)
+  const mid: Decimal[] = Fm.map((f) => new Approx(c.midpoint(f)).neg());
   const zt: Decimal[] = new Array(p);
   let z: Decimal = new Approx('0');
   let prod: Decimal = new Approx('1');
@@ -108,34 +110,43 @@ export function krawczykCyclic(s: Shooting, M: readonly Iv[], X: readonly Iv[], 
     }
   }
   if (!zt.every((v) => v.isFinite())) zt.fill(new Approx('0'));
-  const g: Decimal[] = new Array(p);
+  const e0: Iv[] = new Array(p);
+  const y0: Iv[] = new Array(p);
   for (let i = 0; i < p; i++) {
     const bz = c.sub(c.point(zt[(i + 1) % p]!), c.scale(at[i]!, c.point(zt[i]!)));
-    g[i] = c.mag(c.sub(W[i]!, bz));
+    e0[i] = c.sub(c.neg(Fm[i]!), bz);
+    y0[i] = c.add(M[i]!, c.point(zt[i]!));
   }
-  const u: Decimal[] = new Array(p);
-  const den = c.Down.sub(1, closure);
-  if (!den.gt(0)) return { ok: false, reason: `${label}: the cyclic closure factor is too close to 1` };
-  let t = new c.Up('0');
-  if (back) {
-    for (let i = p - 1; i >= 0; i--) t = mulU(c.Up.add(t, g[i]!), invUp[i]!);
-    t = divU(t, den);
-    for (let i = p - 1; i >= 0; i--) u[i] = t = mulU(c.Up.add(t, g[i]!), invUp[i]!);
-  } else {
-    for (let i = 0; i < p; i++) t = c.Up.add(mulU(absUp[i]!, t), g[i]!);
-    t = divU(t, den);
+  const atIv = at.map((a) => c.point(a));
+  return (X: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
+    const D: Iv[][] = new Array(p);
+    const g: Decimal[] = new Array(p);
     for (let i = 0; i < p; i++) {
-      u[i] = t;
-      t = c.Up.add(mulU(absUp[i]!, t), g[i]!);
+      D[i] = image(s, [X[i]!], true).jac!;
+      g[i] = c.mag(c.add(e0[i]!, c.mul(c.sub(D[i]![0]!, atIv[i]!), c.sub(X[i]!, M[i]!))));
     }
-  }
-  for (let i = 0; i < p; i++) {
-    const k = c.add(c.add(M[i]!, c.point(zt[i]!)), c.sym(u[i]!));
-    const box = inner[i]!;
-    if (!isInterior(k, box)) {
-      const over = c.Up.max(c.Up.sub(box.lo, k.lo), c.Up.sub(k.hi, box.hi));
-      return { ok: false, reason: `${label}: K(X) not inside the interior of the box at point ${i}, component 0: K = ${fmt(k, 20)}, box = ${fmt(box, 20)}, exceeds by ${over.toSD(3).toString()} (cyclic bound)` };
+    const u: Decimal[] = new Array(p);
+    let t = new c.Up('0');
+    if (back) {
+      for (let i = p - 1; i >= 0; i--) t = mulU(c.Up.add(t, g[i]!), invUp[i]!);
+      t = divU(t, den);
+      for (let i = p - 1; i >= 0; i--) u[i] = t = mulU(c.Up.add(t, g[i]!), invUp[i]!);
+    } else {
+      for (let i = 0; i < p; i++) t = c.Up.add(mulU(absUp[i]!, t), g[i]!);
+      t = divU(t, den);
+      for (let i = 0; i < p; i++) {
+        u[i] = t;
+        t = c.Up.add(mulU(absUp[i]!, t), g[i]!);
+      }
     }
-  }
-  return { ok: true, jacobians: D };
+    for (let i = 0; i < p; i++) {
+      const k = c.add(y0[i]!, c.sym(u[i]!));
+      const box = inner[i]!;
+      if (!isInterior(k, box)) {
+        const over = c.Up.max(c.Up.sub(box.lo, k.lo), c.Up.sub(k.hi, box.hi));
+        return { ok: false, reason: `${label}: K(X) not inside the interior of the box at point ${i}, component 0: K = ${fmt(k, 20)}, box = ${fmt(box, 20)}, exceeds by ${over.toSD(3).toString()} (cyclic bound)` };
+      }
+    }
+    return { ok: true, jacobians: D };
+  };
 }

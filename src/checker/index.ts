@@ -39,7 +39,7 @@ import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
-import { krawczykCyclic } from './cyclic.js';
+import { prepareCyclic } from './cyclic.js';
 import { prepareCyclic2, type BoxTest } from './cyclic2.js';
 import { estimateWork, formulaOps } from './budget.js';
 import {
@@ -308,11 +308,10 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (decC === undefined) decC = preconditioner(s, X, true);
     return decC ? krawczyk(s, decC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
   };
-  let cyclic2: BoxTest | undefined;
+  let prepared: BoxTest | undefined;
   const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
-    if (n === 1) return krawczykCyclic(s, M, Y, inner, label);
-    cyclic2 ??= prepareCyclic2(s, M);
-    return cyclic2(Y, inner, label);
+    prepared ??= n === 1 ? prepareCyclic(s, M) : prepareCyclic2(s, M);
+    return prepared(Y, inner, label);
   };
   type Form = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
   const forms: Form[] = [];
