@@ -146,15 +146,54 @@ describe('work budget on hostile certificates (issue 7 item 5)', () => {
 });
 
 describe('above 40 digits with p·n > 600 a preconditioner is still built (issue 7 item 5)', () => {
-  it('a valid Hénon-like certificate of 602 unknowns at 45 hint digits is VERIFIED (was: "singular")', () => {
-    // x → 0.5·x (n = 2, linear, fixed point 0 repeated: the period-301 solution x_i = 0, y_i = 0)
-    // is a contraction; any box around 0 of radius ρ holds exactly that solution (derived by hand).
-    const p = 301;
-    const centre = Array.from({ length: p }, () => ['0', '0']);
-    const cert = makeCert({ state: ['x', 'y'], params: {}, step: { x: '0.5*x+0.25*y', y: '0.5*y' }, centre, rad: '1e-30', minimalPeriod: null, hints: { digits: 45 } });
+  it('a valid certificate of 603 unknowns (dimension 3, dense) at 45 hint digits is VERIFIED (was: "singular")', () => {
+    // x → 0.5x + 0.25y, y → 0.5y, z → 0.5z is a contraction: its period-201 shooting system has
+    // exactly one zero, the origin repeated (derived by hand); boxes of radius 1e-30 around it.
+    const p = 201;
+    const centre = Array.from({ length: p }, () => ['0', '0', '0']);
+    const cert = makeCert({ state: ['x', 'y', 'z'], params: {}, step: { x: '0.5*x+0.25*y', y: '0.5*y', z: '0.5*z' }, centre, rad: '1e-30', minimalPeriod: null, hints: { digits: 45 } });
     const rep = checkCertificate(cert);
     expect(rep.reason).toBeUndefined();
     expect(rep.verdict).toBe('VERIFIED');
     expect(rep.digits).toBe(50);
+  }, 60_000);
+});
+
+describe('differential in dimension 2: dense (old) and structured (new) verdicts on Hénon orbits and mutants', () => {
+  it('agree on proven orbits of periods 6 and 10 (accepted) and on boxes moved off the orbit (rejected)', async () => {
+    const { getCatalogueMap } = await import('../../src/model/catalogue.js');
+    const { compileMap } = await import('../../src/model/compile.js');
+    const { findCandidates } = await import('../../src/search/index.js');
+    const { proveOrbit } = await import('../../src/prove/orbit.js');
+    const { prepareCyclic2 } = await import('../../src/checker/cyclic2.js');
+    // Hénon (a = 1.4, b = 0.3; Hénon 1976, Commun. Math. Phys. 50): candidates from our search,
+    // proven by the prover; the two checker forms must agree on them and on their mutants.
+    const compiled = compileMap(getCatalogueMap('henon')!, { a: { kind: 'exact', value: '1.4' }, b: { kind: 'exact', value: '0.3' } });
+    let compared = 0;
+    for (const p of [6, 10]) {
+      for (const cand of findCandidates(compiled, { period: p }).slice(0, 3)) {
+        const v = proveOrbit(compiled, cand.points, { uniqueness: false });
+        if (v.status !== 'proven') continue;
+        const c = ivCtx(30);
+        const params = new Map<string, Iv>([['a', c.literal('1.4')], ['b', c.literal('0.3')]]);
+        const s: Shooting = { c, ev: new Evaluator(c, params), step: [parseFormula('1 - a*x^2 + y', ['x', 'y'], new Set(['a', 'b'])), parseFormula('b*x', ['x', 'y'], new Set(['a', 'b']))], p, n: 2 };
+        const M = v.orbit.centre.flat().map((x) => c.literal(x));
+        const X = v.orbit.boxes.flat().map(([lo, hi]) => c.literal(lo, hi));
+        const C = preconditioner(s, X, false)!;
+        expect(krawczyk(s, C, M, X, X, 'e').ok).toBe(true);
+        expect(prepareCyclic2(s, M)(X, X, 'e').ok).toBe(true);
+        // mutant: point (p/2) moved by three widths in x (centre kept): no zero in the box
+        const j = 2 * Math.floor(p / 2);
+        const w = D80.sub(X[j]!.hi, X[j]!.lo).mul(3);
+        const Xm = X.slice();
+        Xm[j] = { lo: c.Up.add(X[j]!.lo, w), hi: c.Up.add(X[j]!.hi, w) };
+        const Mm = M.slice();
+        Mm[j] = c.point(c.midpoint(Xm[j]!));
+        expect(krawczyk(s, preconditioner(s, Xm, false)!, Mm, Xm, Xm, 'e').ok).toBe(false);
+        expect(prepareCyclic2(s, Mm)(Xm, Xm, 'e').ok).toBe(false);
+        compared++;
+      }
+    }
+    expect(compared).toBeGreaterThanOrEqual(5);
   }, 60_000);
 });
