@@ -16,7 +16,9 @@
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
  *     and Machin's formula for π (elementary.ts), X_i ∩ X_{i+p/q} = ∅ for every prime q | p ⇒
  *     minimal period p (weaker than, and implied by, pairwise disjointness),
- *     eigenvalues of a 2×2 matrix from trace and determinant.
+ *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
+ *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
+ *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices).
  *  4. This code (~1,750 lines, ~1,490 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
@@ -28,7 +30,9 @@
  * Claims are never partially accepted: one unverifiable claim rejects the certificate.
  * Deliberate choice: a stability class "undecided" is always accepted (it claims nothing).
  *
- * Limits (CheckLimits, configurable through `opts.limits`) keep hostile input fast and bounded.
+ * Limits (CheckLimits, configurable through `opts.limits`; defaults are the shared numbers of
+ * certificate/limits.ts) keep hostile input fast and bounded: before any arithmetic the work is
+ * estimated (budget.ts) and a certificate beyond `maxWork` is REJECTED with the estimate.
  */
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';

@@ -18,6 +18,10 @@
  * Cost: C is dense; the product C·J(X) exploits the two nonzero blocks per block column of J,
  * so one test costs O(N²·(n + 3)) interval operations and O(N) memory (rows are formed and
  * consumed one at a time).
+ * Structured form (dimensions 1 and 2, long periods): a `CyclicPreconditioner` makes
+ * `prepareKrawczyk` build the O(p) plan of cyclic.ts / cyclic2.ts, where C = B^{-1} for the exact
+ * block-cyclic B with float blocks is never formed and (I − C·J(X))(X − m) is bounded through
+ * B − J(X) being block-diagonal; the bounds are argued in those files.
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { resetStatus } from '../interval/arithmetic.js';
