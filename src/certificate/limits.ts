@@ -44,3 +44,5 @@ export const CHECK_WORK_BUDGET = 200_000_000;
  * other form when the first fails.
  */
 export const STRUCTURED_FROM_UNKNOWNS = 200;
+/** Highest working precision of the multiprecision kernel and of `--max-bits`, in bits. */
+export const MAX_BITS = 100_000;

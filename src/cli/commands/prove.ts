@@ -1,8 +1,9 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
 import { MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS } from '../../certificate/limits.js';
 
@@ -44,7 +45,7 @@ export interface ProveCommandOptions {
 /** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
 export type ProgressSink = (text: string) => void;
 
-export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
+export { DEFAULT_OUT_DIR } from '../options.js';
 
 /** Show at most this many orbit points in the table; the certificate has them all. */
 const MAX_POINTS_SHOWN = 6;
@@ -56,7 +57,7 @@ export async function proveCommand(
   progressSink?: ProgressSink,
 ): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
+  const maxBits = o.maxBits !== undefined ? parseMaxBits(o.maxBits) : undefined;
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
   if (limit !== undefined && o.all) {
