@@ -153,7 +153,7 @@ export function proveOrbitWith(
       attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
     } else {
       const a = ariths.float();
-      let C: Preconditioner<unknown> | null = null;
+      let C: Preconditioner<unknown> | null;
       if (structured) {
         const at = Float64Array.from(blocks);
         C = at.every(Number.isFinite) ? cyclicPreconditioner(at) : null;
