@@ -47,7 +47,7 @@ export function orbitStability<T>(arith: IntervalArithmetic<T>, blocks: readonly
 }
 
 function stability1<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
-  let multiplier: DecimalPair | null = null;
+  let multiplier: DecimalPair | null;
   if (arith.kind === 'interval' && arith.bits === 53) {
     multiplier = scaledProduct(arith, blocks, p);
     if (multiplier === null) return { class: 'undecided', note: 'the multiplier enclosure is unbounded' };
