@@ -16,6 +16,7 @@ import { compileMap } from '../src/model/compile.js';
 import { proveOrbit } from '../src/prove/orbit.js';
 import { buildCertificate } from '../src/certificate/build.js';
 import { checkCertificate } from '../src/checker/index.js';
+import { findCandidates } from '../src/search/index.js';
 
 /** A primitive binary word of length p without three equal bits in a row (cyclically); deterministic. */
 export function balancedWord(p: number, seed = 7): number[] {
@@ -153,6 +154,36 @@ export function runOne(p: number): Figures {
   };
 }
 
+/**
+ * Issue 8 item 1: checker time per orbit over prover time per orbit for Hénon (1.4, 0.3) orbits of
+ * periods 10, 20, 40 (the first 12 search candidates of each period, proven, then checked).
+ */
+export function henonRatios(): string[] {
+  const map = getCatalogueMap('henon')!;
+  const over = { a: { kind: 'exact' as const, value: '1.4' }, b: { kind: 'exact' as const, value: '0.3' } };
+  const compiled = compileMap(map, over);
+  const out: string[] = [];
+  for (const p of [10, 20, 40]) {
+    let tp = 0;
+    let tc = 0;
+    let n = 0;
+    let bad = 0;
+    for (const c of findCandidates(compiled, { period: p }).slice(0, 12)) {
+      const t0 = performance.now();
+      const v = proveOrbit(compiled, c.points);
+      tp += performance.now() - t0;
+      if (v.status !== 'proven') continue;
+      const cert = JSON.parse(JSON.stringify(buildCertificate(v.orbit, map, { overrides: over })));
+      const t1 = performance.now();
+      if (checkCertificate(cert).verdict !== 'VERIFIED') bad++;
+      tc += performance.now() - t1;
+      n++;
+    }
+    out.push(`henon p=${p}: ${n} orbits; prover ${(tp / n).toFixed(1)} ms/orbit, checker ${(tc / n).toFixed(1)} ms/orbit, checker/prover ${(tc / tp).toFixed(2)}${bad ? `; ${bad} NOT verified` : ''}`);
+  }
+  return out;
+}
+
 export async function runLongBench(): Promise<string[]> {
   const lines: string[] = ['case              prove s   check s  chk/prv  maxRSS MB  verdict'];
   const self = fileURLToPath(import.meta.url);
@@ -167,11 +198,14 @@ export async function runLongBench(): Promise<string[]> {
     if (kind === 'one') lines.push(`  boxes contain sin²: ${f.contained}; log2|Λ| in ${f.log2Multiplier ? f.log2Multiplier.map((x) => x.toFixed(4)).join('..') : '-'}${f.detail ? `; ${f.detail.slice(0, 40)}` : ''}`);
     else lines.push(`  ${(f.detail ?? '').slice(0, 74)}`);
   }
+  const ratios = execFileSync(process.execPath, [self, 'ratios'], { encoding: 'utf8', maxBuffer: 1 << 24 });
+  lines.push(...ratios.trim().split('\n'));
   return lines;
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
   if (process.argv[2] === 'one') console.log(JSON.stringify(runOne(Number(process.argv[3]))));
   else if (process.argv[2] === 'henon') console.log(JSON.stringify(runHenon(Number(process.argv[3]))));
+  else if (process.argv[2] === 'ratios') for (const l of henonRatios()) console.log(l);
   else for (const l of await runLongBench()) console.log(l);
 }
