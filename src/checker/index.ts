@@ -19,7 +19,7 @@
  *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
  *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
  *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices).
- *  4. This code (~1,750 lines, ~1,490 without comments: interval.ts, elementary.ts, formula.ts,
+ *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
  * C is valid; it is computed non-rigorously), hints (they only choose the precision).
@@ -33,18 +33,13 @@
  * Limits (CheckLimits, configurable through `opts.limits`; defaults are the shared numbers of
  * certificate/limits.ts) keep hostile input fast and bounded: before any arithmetic the work is
  * estimated (budget.ts) and a certificate beyond `maxWork` is REJECTED with the estimate.
+ *
+ * Reading order: `readCertificate` (the schema, every field checked) → `runCheck`, which builds the
+ * boxes and calls one function per claim: `verifyExistence`, `verifyUniqueness`,
+ * `verifyMinimalPeriod`, `verifyStability`.
  */
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
-import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
-import { ivCtx } from './elementary.js';
-import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
-import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
-import { prepareCyclic } from './cyclic.js';
-import { prepareCyclic2, type BoxTest } from './cyclic2.js';
-import { estimateWork, formulaOps } from './budget.js';
 import {
   CHECK_WORK_BUDGET,
   MAX_DECIMAL_DENSE_UNKNOWNS,
@@ -57,6 +52,15 @@ import {
   MAX_UNKNOWNS,
   STRUCTURED_FROM_UNKNOWNS,
 } from '../certificate/limits.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
+import { ivCtx } from './elementary.js';
+import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
+import { certificateHash, JsonError, parseStrictJson } from './json.js';
+import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
+import { prepareCyclic } from './cyclic.js';
+import { prepareCyclic2, type BoxTest } from './cyclic2.js';
+import { estimateWork, formulaOps } from './budget.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
@@ -84,7 +88,7 @@ export interface CheckLimits {
   maxDimension: number;
   /** Largest number of unknowns p·n of the shooting system (MAX_UNKNOWNS, shared with the prover). */
   maxUnknowns: number;
-  /** Largest p·n with a dense preconditioner (MAX_DENSE_UNKNOWNS); dimension ≥ 2 beyond it is refused. */
+  /** Largest p·n with a dense preconditioner (MAX_DENSE_UNKNOWNS); dimension ≥ 3 beyond it is refused. */
   maxDenseUnknowns: number;
   /** Longest decimal string (2 000 characters) and largest |decimal exponent| (100 000). */
   maxNumberLength: number;
@@ -162,7 +166,35 @@ function int(v: unknown, path: string, min: number, max: number): number {
   return x;
 }
 
-function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+/** A certificate as read from its document: the schema checked, nothing computed yet. */
+interface ReadCertificate {
+  p: number;
+  n: number;
+  step: Node[];
+  /** Parameter name → [lo, hi] decimal text (lo = hi for an exact value). */
+  paramText: Map<string, [string, string]>;
+  centreTxt: string[][];
+  boxTxt: [string, string][][];
+  /** Claimed uniqueness radius, or null (no claim). */
+  radius: string | null;
+  /** Claimed minimal period, or null (no claim). */
+  minimal: number | null;
+  stability: StabilityClaim | null;
+  /** Working precision (digits) from the options and the hints. */
+  digits: number;
+}
+
+/** The stability claim as text: the class and the enclosures the certificate states. */
+interface StabilityClaim {
+  cls: string;
+  multiplier?: [string, string];
+  trace?: [string, string];
+  determinant?: [string, string];
+  eigenvalueModuli?: [string, string][];
+}
+
+/** Schema reading: every field of the document checked (types, ranges, limits), or a Refusal. */
+function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits): ReadCertificate {
   const dec = (v: unknown, path: string): string => {
     const s = str(v, path);
     if (s.length > limits.maxNumberLength) reject(path, `number at ${path} has ${s.length} characters (limit ${limits.maxNumberLength})`);
@@ -193,10 +225,6 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
-  // Dimension 2: the structured bound first at every period (issue 8 item 1: 5–7× faster than the
-  // dense product at Hénon periods 20–40); dimension 1 from STRUCTURED_FROM_UNKNOWNS on (below it
-  // the dense bound is tighter near |Λ| ≈ 1). The other form is a fallback (budget permitting).
-  const cyclicFirst = n === 2 || (n === 1 && p > STRUCTURED_FROM_UNKNOWNS);
   if (n > 2 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimensions 1 and 2)`);
   const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
@@ -250,11 +278,21 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (minimal !== p) reject('$.claims.minimalPeriod', `minimalPeriod ${minimal} differs from period ${p}; only minimalPeriod = period can be verified`);
   }
   const stab = claims.stability === undefined || claims.stability === null ? null : obj(claims.stability, '$.claims.stability');
+  let stability: StabilityClaim | null = null;
   if (stab) {
     for (const k of Object.keys(stab)) {
       if (!['class', 'multiplier', 'trace', 'determinant', 'eigenvalueModuli'].includes(k)) reject(`$.claims.stability.${k}`, `unknown stability field "${k}"`);
     }
     if (!['attracting', 'repelling', 'saddle', 'undecided'].includes(stab.class as string)) reject('$.claims.stability.class', `unknown stability class ${JSON.stringify(stab.class)}`);
+    stability = { cls: stab.class as string };
+    for (const key of ['multiplier', 'trace', 'determinant'] as const) {
+      if (stab[key] !== undefined && stab[key] !== null) stability[key] = ivl(stab[key], `$.claims.stability.${key}`);
+    }
+    if (stab.eigenvalueModuli !== undefined && stab.eigenvalueModuli !== null) {
+      stability.eigenvalueModuli = arr(stab.eigenvalueModuli, '$.claims.stability.eigenvalueModuli', n).map((m, i) =>
+        ivl(m, `$.claims.stability.eigenvalueModuli[${i}]`),
+      );
+    }
   }
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
@@ -263,64 +301,73 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits };
+}
 
+/** The boxes as intervals of the working context, their exact ends, and the centres. */
+interface Boxes {
+  M: Iv[];
+  X: Iv[];
+  Xexact: Iv[];
+}
 
+/**
+ * The Krawczyk forms this certificate is tested with, in order; any form that passes proves the
+ * claim (each is a valid Krawczyk operator). Dimension 2: the structured bound first at every
+ * period (issue 8 item 1); dimension 1 from STRUCTURED_FROM_UNKNOWNS on (below it the dense bound
+ * is tighter near |Λ| ≈ 1); the other forms are fallbacks when they fit the work budget.
+ * Fix (issue 7 item 5): above 40 digits with more unknowns than a decimal preconditioner may have,
+ * the float preconditioner is used instead of none. Preconditioners are built once, lazily.
+ */
+type KrawczykTest = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
+type Form = 'cyclic' | 'dense-decimal' | 'dense-float';
+interface Plan {
+  hintedHigh: boolean;
+  decimalC: boolean;
+  cyclicFirst: boolean;
+  fallbackOk: (f: Form) => boolean;
+}
+
+/** The work estimate (budget.ts) from the certificate's shape alone: a Refusal beyond the budget. */
+function planWork(r: ReadCertificate, opts: CheckOptions, limits: CheckLimits): Plan {
+  const { p, n } = r;
   const N = p * n;
-  const hintedHigh = digits > (opts.digits ?? DEFAULT_DIGITS) || digits > 40;
+  const hintedHigh = r.digits > (opts.digits ?? DEFAULT_DIGITS) || r.digits > 40;
   const decimalC = hintedHigh && N <= limits.maxDecimalPrecondUnknowns;
-  // ---- the work estimate, before any arithmetic ----
+  const cyclicFirst = n === 2 || (n === 1 && p > STRUCTURED_FROM_UNKNOWNS);
   let stepOps = 0;
-  for (const node of step) stepOps += formulaOps(node, n, digits);
-  const form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
-  const work = estimateWork({ period: p, dim: n, digits, stepOps, form });
+  for (const node of r.step) stepOps += formulaOps(node, n, r.digits);
+  const first: Form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
+  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first });
   const workText = (w: number): string => w.toExponential(1).replace('e+', 'e');
   if (!(work <= limits.maxWork)) {
-    reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${digits} digits, ${form} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
+    reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${r.digits} digits, ${first} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
   }
-  // The other form is a fallback only when it also fits the budget.
-  const fallbackOk = (f: 'cyclic' | 'dense-decimal' | 'dense-float'): boolean =>
-    estimateWork({ period: p, dim: n, digits, stepOps, form: f }) + work <= limits.maxWork;
+  const fallbackOk = (f: Form): boolean => estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: f }) + work <= limits.maxWork;
+  return { hintedHigh, decimalC, cyclicFirst, fallbackOk };
+}
 
-  // ---- the mathematics ----
-  const c = ivCtx(digits);
-  const params = new Map<string, Iv>();
-  for (const [k, [lo, hi]] of paramText) params.set(k, c.literal(lo, hi));
-  const s: Shooting = { c, ev: new Evaluator(c, params), step, p, n };
-  const M: Iv[] = [];
-  const X: Iv[] = [];
-  const Xexact: Iv[] = [];
-  for (let i = 0; i < p; i++) {
-    for (let a = 0; a < n; a++) {
-      const [lo, hi] = boxTxt[i]![a]!;
-      const ex = { lo: new Exact(lo), hi: new Exact(hi) };
-      const m = new Exact(centreTxt[i]![a]!);
-      if (m.lt(ex.lo) || m.gt(ex.hi)) reject(`$.orbit.centre[${i}][${a}]`, `centre of point ${i}, component ${a} lies outside its box ${fmt(ex)}`);
-      Xexact.push(ex);
-      X.push(c.literal(lo, hi));
-      M.push(c.literal(centreTxt[i]![a]!));
-    }
-  }
-  // Krawczyk forms, tried in order; any that passes proves the claim (each is a valid Krawczyk
-  // operator). Preconditioners are built lazily and kept for the uniqueness test.
-  // Fix (issue 7 item 5): above 40 digits with more unknowns than a decimal preconditioner may
-  // have, the float preconditioner is used instead of none.
+function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, limits: CheckLimits): KrawczykTest {
+  const { p, n } = r;
+  const N = p * n;
+  const { hintedHigh, decimalC, cyclicFirst, fallbackOk } = plan;
+  const noC: KrawczykOutcome = { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
   let floatC: Precond | null | undefined;
   let decC: Precond | null | undefined;
-  const denseFloat = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
-    if (floatC === undefined) floatC = preconditioner(s, X, false);
-    return floatC ? krawczyk(s, floatC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
-  };
-  const denseDecimal = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
-    if (decC === undefined) decC = preconditioner(s, X, true);
-    return decC ? krawczyk(s, decC, M, Y, inner, label) : { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
-  };
   let prepared: BoxTest | undefined;
-  const cyclic = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
-    prepared ??= n === 1 ? prepareCyclic(s, M) : prepareCyclic2(s, M);
+  const denseFloat: KrawczykTest = (Y, inner, label) => {
+    if (floatC === undefined) floatC = preconditioner(s, b.X, false);
+    return floatC ? krawczyk(s, floatC, b.M, Y, inner, label) : noC;
+  };
+  const denseDecimal: KrawczykTest = (Y, inner, label) => {
+    if (decC === undefined) decC = preconditioner(s, b.X, true);
+    return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
+  };
+  const cyclic: KrawczykTest = (Y, inner, label) => {
+    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2(s, b.M);
     return prepared(Y, inner, label);
   };
-  type Form = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
-  const forms: Form[] = [];
+  const forms: KrawczykTest[] = [];
   if (cyclicFirst) {
     forms.push(cyclic);
     if (decimalC && fallbackOk('dense-decimal')) forms.push(denseDecimal);
@@ -330,87 +377,131 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
     if (n <= 2) forms.push(cyclic);
   }
-  const test = (Y: readonly Iv[], inner: readonly Iv[], label: string): KrawczykOutcome => {
-    let first: KrawczykOutcome | null = null;
+  return (Y, inner, label) => {
+    let firstOut: KrawczykOutcome | null = null;
     for (const f of forms) {
       const out = f(Y, inner, label);
       if (out.ok) return out;
-      first ??= out;
+      firstOut ??= out;
     }
-    return first!;
+    return firstOut!;
   };
-  const kx = test(X, Xexact, 'existence');
-  if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  const verified: ClaimName[] = ['existence'];
-  const D = (kx as { jacobians: Iv[][] }).jacobians;
-  const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
+}
 
-  if (radius !== null) {
-    const Yout: Iv[] = [];
-    const Yin: Iv[] = [];
-    const r = new Exact(radius);
-    for (let i = 0; i < N; i++) {
-      const m = new Exact(centreTxt[Math.floor(i / n)]![i % n]!);
-      Yout.push({ lo: c.Down.sub(m, r), hi: c.Up.add(m, r) });
-      const yin = { lo: c.Up.sub(m, r), hi: c.Down.add(m, r) };
-      Yin.push(yin);
-      if (!isSubset(Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
+/** Existence: Krawczyk on the boxes. Returns D = J(X). */
+function verifyExistence(test: KrawczykTest, b: Boxes): { D: Iv[][] } {
+  const kx = test(b.X, b.Xexact, 'existence');
+  if (!kx.ok) reject('$.orbit.boxes', kx.reason);
+  return { D: (kx as { jacobians: Iv[][] }).jacobians };
+}
+
+/** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
+function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, test: KrawczykTest, radius: string): void {
+  const { c } = s;
+  const n = r.n;
+  const Yout: Iv[] = [];
+  const Yin: Iv[] = [];
+  const rad = new Exact(radius);
+  for (let i = 0; i < r.p * n; i++) {
+    const m = new Exact(r.centreTxt[Math.floor(i / n)]![i % n]!);
+    Yout.push({ lo: c.Down.sub(m, rad), hi: c.Up.add(m, rad) });
+    const yin = { lo: c.Up.sub(m, rad), hi: c.Down.add(m, rad) };
+    Yin.push(yin);
+    if (!isSubset(b.Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
+  }
+  const ky = test(Yout, Yin, 'uniqueness');
+  if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
+}
+
+/**
+ * Minimal period p: a minimal period d < p would force x_i = x_{i+d} for some proper divisor d of
+ * p, hence X_i ∩ X_{i+d} ≠ ∅ for d = p/q, q a prime factor of p. Disjointness of those pairs
+ * excludes it.
+ */
+function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
+  const disjoint = (i: number, j: number): boolean => {
+    for (let a = 0; a < n; a++) {
+      const u = Xexact[i * n + a]!;
+      const v = Xexact[j * n + a]!;
+      if (u.hi.lt(v.lo) || v.hi.lt(u.lo)) return true;
     }
-    const ky = test(Yout, Yin, 'uniqueness');
-    if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
+    return false;
+  };
+  for (let q = 2, rest = p; q <= rest; q++) {
+    if (rest % q !== 0) continue;
+    while (rest % q === 0) rest /= q;
+    const dd = p / q;
+    for (let i = 0; i < p; i++) {
+      if (!disjoint(i, (i + dd) % p)) reject('$.claims.minimalPeriod', `boxes of points ${i} and ${(i + dd) % p} overlap: minimal period ${p} not shown`);
+    }
+  }
+}
+
+/** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
+function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+  const st = stability(s.c, D, n);
+  const claimed = claim.cls;
+  // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
+  if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
+  if (claimed !== 'undecided' && claimed !== st.cls) reject('$.claims.stability.class', `claimed class "${claimed}" but the checker derives "${st.cls}"${st.multiplier ? ` (multiplier ${fmt(st.multiplier)})` : ''}${st.moduli ? ` (moduli ${st.moduli.map((m) => fmt(m)).join(', ')})` : ''}`);
+  const contains = (key: 'multiplier' | 'trace' | 'determinant', mine: Iv | undefined): void => {
+    const stated = claim[key];
+    if (stated === undefined) return;
+    const path = `$.claims.stability.${key}`;
+    const [lo, hi] = stated;
+    if (!mine) reject(path, `the checker cannot re-derive ${key} for dimension ${n}`);
+    if (!isSubset(mine!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed ${key} [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(mine!, 20)}`);
+  };
+  contains('multiplier', st.multiplier);
+  contains('trace', st.trace);
+  contains('determinant', st.determinant);
+  if (claim.eigenvalueModuli !== undefined) {
+    if (!st.moduli) reject('$.claims.stability.eigenvalueModuli', 'the checker cannot re-derive the eigenvalue moduli (discriminant of the monodromy straddles 0, or n ≥ 3)');
+    claim.eigenvalueModuli.forEach(([lo, hi], i) => {
+      const path = `$.claims.stability.eigenvalueModuli[${i}]`;
+      if (!isSubset(st.moduli![i]!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed modulus [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(st.moduli![i]!, 20)}`);
+    });
+  }
+}
+
+/** Schema reading, then the mathematics: each stated claim re-derived, or a Refusal. */
+function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+  const r = readCertificate(doc, opts, limits);
+  const { p, n } = r;
+  const plan = planWork(r, opts, limits); // before any arithmetic
+  const c = ivCtx(r.digits);
+  const params = new Map<string, Iv>();
+  for (const [k, [lo, hi]] of r.paramText) params.set(k, c.literal(lo, hi));
+  const s: Shooting = { c, ev: new Evaluator(c, params), step: r.step, p, n };
+  const b: Boxes = { M: [], X: [], Xexact: [] };
+  for (let i = 0; i < p; i++) {
+    for (let a = 0; a < n; a++) {
+      const [lo, hi] = r.boxTxt[i]![a]!;
+      const ex = { lo: new Exact(lo), hi: new Exact(hi) };
+      const m = new Exact(r.centreTxt[i]![a]!);
+      if (m.lt(ex.lo) || m.gt(ex.hi)) reject(`$.orbit.centre[${i}][${a}]`, `centre of point ${i}, component ${a} lies outside its box ${fmt(ex)}`);
+      b.Xexact.push(ex);
+      b.X.push(c.literal(lo, hi));
+      b.M.push(c.literal(r.centreTxt[i]![a]!));
+    }
+  }
+  const test = krawczykForms(r, s, b, plan, limits);
+  const { D } = verifyExistence(test, b);
+  const verified: ClaimName[] = ['existence'];
+  const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
+  if (r.radius !== null) {
+    verifyUniqueness(r, s, b, test, r.radius);
     verified.push('uniqueness');
   }
-
-  if (minimal !== null) {
-    // minimal period d < p would force x_i = x_{i+d} for some proper divisor d of p, hence
-    // X_i ∩ X_{i+d} ≠ ∅ for d = p/q, q a prime factor of p. Disjointness of those pairs excludes it.
-    const disjoint = (i: number, j: number): boolean => {
-      for (let a = 0; a < n; a++) {
-        const u = Xexact[i * n + a]!;
-        const v = Xexact[j * n + a]!;
-        if (u.hi.lt(v.lo) || v.hi.lt(u.lo)) return true;
-      }
-      return false;
-    };
-    for (let q = 2, rest = p; q <= rest; q++) {
-      if (rest % q !== 0) continue;
-      while (rest % q === 0) rest /= q;
-      const dd = p / q;
-      for (let i = 0; i < p; i++) {
-        if (!disjoint(i, (i + dd) % p)) reject('$.claims.minimalPeriod', `boxes of points ${i} and ${(i + dd) % p} overlap: minimal period ${p} not shown`);
-      }
-    }
+  if (r.minimal !== null) {
+    verifyMinimalPeriod(p, n, b.Xexact);
     verified.push('minimal-period');
   }
-
-  if (stab) {
-    const st = stability(c, D, n);
-    const claimed = stab.class as string;
-    // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
-    if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
-    if (claimed !== 'undecided' && claimed !== st.cls) reject('$.claims.stability.class', `claimed class "${claimed}" but the checker derives "${st.cls}"${st.multiplier ? ` (multiplier ${fmt(st.multiplier)})` : ''}${st.moduli ? ` (moduli ${st.moduli.map((m) => fmt(m)).join(', ')})` : ''}`);
-    const contains = (key: 'multiplier' | 'trace' | 'determinant', mine: Iv | undefined): void => {
-      if (stab[key] === undefined || stab[key] === null) return;
-      const path = `$.claims.stability.${key}`;
-      const [lo, hi] = ivl(stab[key], path);
-      if (!mine) reject(path, `the checker cannot re-derive ${key} for dimension ${n}`);
-      if (!isSubset(mine!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed ${key} [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(mine!, 20)}`);
-    };
-    contains('multiplier', st.multiplier);
-    contains('trace', st.trace);
-    contains('determinant', st.determinant);
-    if (stab.eigenvalueModuli !== undefined && stab.eigenvalueModuli !== null) {
-      const mods = arr(stab.eigenvalueModuli, '$.claims.stability.eigenvalueModuli', n);
-      if (!st.moduli) reject('$.claims.stability.eigenvalueModuli', 'the checker cannot re-derive the eigenvalue moduli (discriminant of the monodromy straddles 0, or n ≥ 3)');
-      mods.forEach((m, i) => {
-        const path = `$.claims.stability.eigenvalueModuli[${i}]`;
-        const [lo, hi] = ivl(m, path);
-        if (!isSubset(st.moduli![i]!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed modulus [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(st.moduli![i]!, 20)}`);
-      });
-    }
+  if (r.stability) {
+    verifyStability(s, D, n, r.stability, kinkOnX);
     verified.push('stability');
   }
-  return { claims: verified, digits };
+  return { claims: verified, digits: r.digits };
 }
 
 function depthOk(v: unknown, max: number): boolean {
