@@ -38,7 +38,7 @@
  * boxes and calls one function per claim: `verifyExistence`, `verifyUniqueness`,
  * `verifyMinimalPeriod`, `verifyStability`.
  */
-import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { readFileSync, readdirSync, statSync, type Dirent } from 'node:fs';
 import { join } from 'node:path';
 import {
   CHECK_WORK_BUDGET,
@@ -55,15 +55,17 @@ import {
 import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
-import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
+import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
 import { prepareCyclic } from './cyclic.js';
 import { prepareCyclic2, type BoxTest } from './cyclic2.js';
 import { estimateWork, formulaOps } from './budget.js';
+import { checkEdge, checkWindow } from './window.js';
+import { checkAbsence } from './absence.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -145,6 +147,11 @@ const reject = (path: string, msg: string): never => {
 // ---- schema reading with JSON paths ----
 
 type Obj = Record<string, unknown>;
+/** Rejects any key of `o` not in `allowed` (the schema's additionalProperties: false). */
+function onlyKeys(o: Obj, allowed: readonly string[], path: string): void {
+  for (const k of Object.keys(o)) if (!allowed.includes(k)) reject(`${path}.${k}`, `unknown key ${JSON.stringify(k.slice(0, 40))} at ${path} (certificate v1 allows only ${allowed.join(', ')})`);
+}
+
 function obj(v: unknown, path: string): Obj {
   if (typeof v !== 'object' || v === null || Array.isArray(v)) reject(path, `expected an object at ${path}`);
   return v as Obj;
@@ -214,29 +221,34 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge" or "periodic-absence")`);
+  // the schema forbids other keys (additionalProperties: false): a key the checker does not read
+  // could still be read by a person ("note": "all orbits for r in …") and is refused
+  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
   if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
   const p = int(d.period, '$.period', 1, limits.maxPeriod);
   const map = obj(d.map, '$.map');
+  onlyKeys(map, ['params', 'state', 'step', 'title'], '$.map');
+  if (d.producer !== undefined) onlyKeys(obj(d.producer, '$.producer'), ['name', 'version'], '$.producer');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
   if (n > 2 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimensions 1 and 2)`);
-  const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
+  const ident = { test: isValidName };
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
   const names = new Set<string>();
   for (const [i, s] of state.entries()) {
-    if (!ident.test(s) || names.has(s)) reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)}`);
+    if (!ident.test(s) || names.has(s)) reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)} (names are ASCII letters, digits, _; not a function name, pi or e)`);
     names.add(s);
   }
   const paramText = new Map<string, [string, string]>();
   for (const k of Object.keys(paramsRaw)) {
     const path = `$.map.params.${k}`;
-    if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (or it repeats a state name)`);
+    if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (names are ASCII letters, digits, _; not a function name, pi or e; nor a state name)`);
     const v = paramsRaw[k];
     if (typeof v !== 'string' && !Array.isArray(v)) reject(path, `expected a decimal string or a [lo, hi] pair of decimal strings at ${path}`);
     paramText.set(k, typeof v === 'string' ? [dec(v, path), dec(v, path)] : ivl(v, path));
@@ -255,6 +267,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     }
   });
   const orbit = obj(d.orbit, '$.orbit');
+  onlyKeys(orbit, ['boxes', 'centre'], '$.orbit');
   const centreTxt = arr(orbit.centre, '$.orbit.centre', p).map((pt, i) =>
     arr(pt, `$.orbit.centre[${i}]`, n).map((x, a) => dec(x, `$.orbit.centre[${i}][${a}]`)),
   );
@@ -269,6 +282,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   let radius: string | null = null;
   if (claims.uniqueness !== undefined && claims.uniqueness !== null) {
     const u = obj(claims.uniqueness, '$.claims.uniqueness');
+    onlyKeys(u, ['radius'], '$.claims.uniqueness');
     radius = dec(u.radius, '$.claims.uniqueness.radius');
     if (!new Exact(radius).gt(0)) reject('$.claims.uniqueness.radius', 'uniqueness radius must be positive');
   }
@@ -297,6 +311,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
     const h = obj(d.hints, '$.hints');
+    onlyKeys(h, ['bits', 'digits'], '$.hints');
     if (h.digits !== undefined) digits = Math.max(digits, int(h.digits, '$.hints.digits', 1, limits.maxDigits) + 5);
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
@@ -465,7 +480,21 @@ function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClai
 }
 
 /** Schema reading, then the mathematics: each stated claim re-derived, or a Refusal. */
+/** Kinds with checker files of their own (window.ts, absence.ts): windows, bifurcation edges, absence covers. */
+function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } | null {
+  const d = doc as Record<string, unknown>;
+  if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
+  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
+  const digits = opts.digits ?? DEFAULT_DIGITS;
+  if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
+  else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
+  else checkAbsence(d, digits, limits, reject);
+  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : ['absence'], digits };
+}
+
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+  const other = otherKind(doc, opts, limits);
+  if (other) return other;
   const r = readCertificate(doc, opts, limits);
   const { p, n } = r;
   const plan = planWork(r, opts, limits); // before any arithmetic
@@ -566,10 +595,32 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
   }
 }
 
+/** An entry of a folder that `check DIR` did not read, and why. */
+export interface SkippedEntry {
+  file: string;
+  reason: string;
+}
+
 /** Check files and directories (every *.json inside, recursively, symlinked directories not followed). */
 export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckReport[] {
+  return checkPathsReporting(paths, opts).reports;
+}
+
+/** What kind of file system entry this is, for a skip reason. */
+function entryKind(ent: Dirent): string {
+  return ent.isFIFO() ? 'a FIFO (named pipe)' : ent.isSocket() ? 'a socket' : ent.isBlockDevice() || ent.isCharacterDevice() ? 'a device' : 'not a regular file';
+}
+
+/**
+ * checkPaths, also listing what was skipped inside folders and why: symlinked folders (not
+ * followed, so a folder cannot loop or leave the tree), FIFOs, sockets and devices (reading could
+ * block), `*.JSON`-style names that are not exactly `.json`, and broken symlinks. Other files
+ * (README.md, …) are not certificates and are not listed.
+ */
+export function checkPathsReporting(paths: string[], opts: CheckOptions = {}): { reports: CheckReport[]; skipped: SkippedEntry[] } {
   const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
   const out: CheckReport[] = [];
+  const skipped: SkippedEntry[] = [];
   const unreadable = (file: string, reason: string): CheckReport => ({
     verdict: 'UNREADABLE', file, reason, claimsVerified: [], digits: opts.digits ?? DEFAULT_DIGITS, elapsedMs: 0,
   });
@@ -584,8 +635,27 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
     if (st.isDirectory()) {
       const entries = readdirSync(p, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
       for (const ent of entries) {
-        if (ent.isDirectory()) visit(join(p, ent.name), false);
-        else if ((ent.isFile() || ent.isSymbolicLink()) && ent.name.endsWith('.json')) visit(join(p, ent.name), false);
+        const full = join(p, ent.name);
+        const json = ent.name.endsWith('.json');
+        const jsonLike = !json && ent.name.toLowerCase().endsWith('.json');
+        if (ent.isDirectory()) visit(full, false);
+        else if (ent.isSymbolicLink()) {
+          let target;
+          try {
+            target = statSync(full);
+          } catch {
+            if (json || jsonLike) skipped.push({ file: full, reason: 'broken symbolic link' });
+            continue;
+          }
+          if (target.isDirectory()) skipped.push({ file: full, reason: 'symbolic link to a folder: not followed' });
+          else if (!target.isFile()) {
+            if (json || jsonLike) skipped.push({ file: full, reason: 'symbolic link to something that is not a regular file' });
+          } else if (json) visit(full, false);
+          else if (jsonLike) skipped.push({ file: full, reason: 'name ends in a differently cased ".json": only *.json is read' });
+        } else if (ent.isFile()) {
+          if (json) visit(full, false);
+          else if (jsonLike) skipped.push({ file: full, reason: 'name ends in a differently cased ".json": only *.json is read' });
+        } else skipped.push({ file: full, reason: `${entryKind(ent)}: not read` });
       }
       return;
     }
@@ -607,7 +677,7 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
     out.push({ ...checkCertificate(text, opts), file: p });
   };
   for (const p of paths) visit(p, true);
-  return out;
+  return { reports: out, skipped };
 }
 
 export { canonicalJson, certificateHash } from './json.js';

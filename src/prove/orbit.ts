@@ -151,6 +151,12 @@ export function proveOrbitWith(
   const start = new Float64Array(N);
   for (let i = 0; i < p; i++) for (let j = 0; j < n; j++) start[i * n + j] = candidateDouble(points[i]![j]!);
   const exactStart = points.some((pt) => pt.some((v) => typeof v === 'string'));
+  // A decimal start coordinate below the smallest normal double (e.g. x0 ≈ 5e-368 on a long
+  // logistic orbit near 0) underflows to 0 or a subnormal in float Newton, which then converges to
+  // some other solution (the fixed point 0): go straight to multiprecision.
+  const belowDouble = points.some((pt) =>
+    pt.some((v) => typeof v === 'string' && Math.abs(Number(v)) < 2.2250738585072014e-308 && !/^[+-]?[0.]*([eE][+-]?\d+)?$/.test(v)),
+  );
 
   let refineMs = 0;
   const book = new AttemptBook();
@@ -159,7 +165,10 @@ export function proveOrbitWith(
   let mpStartOf: () => Decimal[];
 
   // float64 attempt
-  {
+  if (belowDouble) {
+    mpStartOf = () => points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))));
+    book.fail(53, 'undecided', 'float64 skipped: a start coordinate is below the smallest normal double');
+  } else {
     const tr = performance.now();
     const ref = opts.refine === false ? null : refineFloat(map, start, p, n);
     const x = ref?.x ?? start;
