@@ -6,6 +6,7 @@ import { runCheckBench } from './check-bench.js';
 import { runCountBench } from './count-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runIntervalBench } from './interval-bench.js';
+import { runLongBench } from './long-bench.js';
 import { runMathAccuracyBench } from './math-accuracy-bench.js';
 import { runProveBench } from './prove-bench.js';
 import { runSearchBench } from './search-bench.js';
@@ -25,6 +26,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
   { title: 'orbit counting', file: 'bench/count-bench.ts', run: runCountBench },
+  { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
 ];
 

@@ -164,6 +164,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .description('re-verify certificates with the independent checker: VERIFIED / REJECTED / UNREADABLE')
     .argument('<paths...>', 'certificate files or folders (all *.json inside)')
     .option('--digits <D>', 'decimal digits for the checker')
+    .option('--max-work <W>', 'refuse certificates whose estimated work exceeds W units (default 2e8, minutes)')
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;

@@ -6,6 +6,7 @@
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
 import { buildCertificate } from '../certificate/build.js';
+import { renameSync, unlinkSync } from 'node:fs';
 import { OrbitIdentifier } from '../prove/identify.js';
 import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
@@ -198,6 +199,26 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
+/**
+ * Rename a certificate the checker rejected to `<name>.rejected.json` (atomic rename, replacing an
+ * older set-aside file of that name); if the rename fails, remove it. Returns the new path, or
+ * undefined when the file was removed.
+ */
+export function setAsideRejected(path: string): string | undefined {
+  const target = path.replace(/\.json$/, '') + '.rejected.json';
+  try {
+    renameSync(path, target);
+    return target;
+  } catch {
+    try {
+      unlinkSync(path);
+    } catch {
+      // already gone
+    }
+    return undefined;
+  }
+}
+
 /** Search, prove, write and re-check. Throws only user errors (e.g. cert-exists) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
@@ -290,6 +311,8 @@ export async function certifyOrbits(
       else {
         outcome.status = 'rejected-by-checker';
         outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
+        // never leave a rejected certificate where a verified one would be (issue 7 item 4)
+        outcome.certificatePath = setAsideRejected(path);
       }
     }
     if (outcome.status !== 'rejected-by-checker') {

@@ -2,11 +2,12 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
-import { parseDigits } from '../options.js';
+import { parseDigits, parseMaxWork } from '../options.js';
 import { checkPathsReporting, type CheckReport, type SkippedEntry } from '../../checker/index.js';
 
 export interface CheckCommandOptions {
   digits?: string;
+  maxWork?: string;
   json?: boolean;
 }
 
@@ -15,13 +16,14 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
+  const maxWork = o.maxWork !== undefined ? parseMaxWork(o.maxWork) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
   absolute.forEach((p, i) => {
     if (!existsSync(p)) {
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const checked = checkPathsReporting(absolute, digits ? { digits } : {});
+  const checked = checkPathsReporting(absolute, { ...(digits ? { digits } : {}), ...(maxWork ? { limits: { maxWork } } : {}) });
   const reports = checked.reports.map(clarifyReport);
   const skipped = checked.skipped;
   if (reports.length === 0) {
