@@ -4,8 +4,10 @@
  */
 import { runCheckBench } from './check-bench.js';
 import { runEvalBench } from './eval-bench.js';
+import { runCountBench } from './count-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runIntervalBench } from './interval-bench.js';
+import { runLongBench } from './long-bench.js';
 import { runMathAccuracyBench } from './math-accuracy-bench.js';
 import { runProveBench } from './prove-bench.js';
 import { runSearchBench } from './search-bench.js';
@@ -25,6 +27,8 @@ const BENCHES: BenchSpec[] = [
   { title: 'candidate search', file: 'bench/search-bench.ts', run: runSearchBench },
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
+  { title: 'orbit counting', file: 'bench/count-bench.ts', run: runCountBench },
+  { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
 ];
 

@@ -16,7 +16,9 @@
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
  *     and Machin's formula for π (elementary.ts), X_i ∩ X_{i+p/q} = ∅ for every prime q | p ⇒
  *     minimal period p (weaker than, and implied by, pairwise disjointness),
- *     eigenvalues of a 2×2 matrix from trace and determinant.
+ *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
+ *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
+ *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices).
  *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
@@ -28,7 +30,9 @@
  * Claims are never partially accepted: one unverifiable claim rejects the certificate.
  * Deliberate choice: a stability class "undecided" is always accepted (it claims nothing).
  *
- * Limits (CheckLimits, configurable through `opts.limits`) keep hostile input fast and bounded.
+ * Limits (CheckLimits, configurable through `opts.limits`; defaults are the shared numbers of
+ * certificate/limits.ts) keep hostile input fast and bounded: before any arithmetic the work is
+ * estimated (budget.ts) and a certificate beyond `maxWork` is REJECTED with the estimate.
  *
  * Reading order: `readCertificate` (the schema, every field checked) → `runCheck`, which builds the
  * boxes and calls one function per claim: `verifyExistence`, `verifyUniqueness`,
@@ -36,19 +40,34 @@
  */
 import { readFileSync, readdirSync, statSync, type Dirent } from 'node:fs';
 import { join } from 'node:path';
-import { MAX_DIGITS } from '../certificate/limits.js';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import {
+  CHECK_WORK_BUDGET,
+  MAX_DECIMAL_DENSE_UNKNOWNS,
+  MAX_DENSE_UNKNOWNS,
+  MAX_DIGITS,
+  MAX_DIMENSION,
+  MAX_FORMULA_LENGTH,
+  MAX_NUMBER_LENGTH,
+  MAX_PERIOD,
+  MAX_UNKNOWNS,
+  STRUCTURED_FROM_UNKNOWNS,
+} from '../certificate/limits.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type Precond, type Shooting, type Stability } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
+import { prepareCyclic } from './cyclic.js';
+import { prepareCyclic2, type BoxTest } from './cyclic2.js';
+import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
+import { checkCount, CountRejection } from './count.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -71,8 +90,10 @@ export interface CheckLimits {
   /** Largest period (100 000) and state dimension (16). */
   maxPeriod: number;
   maxDimension: number;
-  /** Largest number of unknowns p·n of the shooting system (2 500; C is dense). */
+  /** Largest number of unknowns p·n of the shooting system (MAX_UNKNOWNS, shared with the prover). */
   maxUnknowns: number;
+  /** Largest p·n with a dense preconditioner (MAX_DENSE_UNKNOWNS); dimension ≥ 3 beyond it is refused. */
+  maxDenseUnknowns: number;
   /** Longest decimal string (2 000 characters) and largest |decimal exponent| (100 000). */
   maxNumberLength: number;
   maxExponent: number;
@@ -82,19 +103,26 @@ export interface CheckLimits {
   maxFormulaLength: number;
   /** Above this many unknowns a decimal preconditioner is not attempted (600). */
   maxDecimalPrecondUnknowns: number;
+  /**
+   * Largest estimated work (budget.ts units, ≈ one 30-digit interval operation each) before any
+   * arithmetic starts; beyond it the certificate is REJECTED with the estimate as the reason.
+   */
+  maxWork: number;
 }
 
 export const DEFAULT_LIMITS: CheckLimits = {
   maxFileBytes: 64 * 1024 * 1024,
   maxJsonDepth: 64,
-  maxPeriod: 100_000,
-  maxDimension: 16,
-  maxUnknowns: 2500,
-  maxNumberLength: 2000,
+  maxPeriod: MAX_PERIOD,
+  maxDimension: MAX_DIMENSION,
+  maxUnknowns: MAX_UNKNOWNS,
+  maxDenseUnknowns: MAX_DENSE_UNKNOWNS,
+  maxNumberLength: MAX_NUMBER_LENGTH,
   maxExponent: 100_000,
   maxDigits: MAX_DIGITS,
-  maxFormulaLength: 10_000,
-  maxDecimalPrecondUnknowns: 600,
+  maxFormulaLength: MAX_FORMULA_LENGTH,
+  maxDecimalPrecondUnknowns: MAX_DECIMAL_DENSE_UNKNOWNS,
+  maxWork: CHECK_WORK_BUDGET,
 };
 
 export interface CheckOptions {
@@ -197,7 +225,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge" or "periodic-absence")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
   onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
@@ -213,6 +241,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
+  if (n > 2 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimensions 1 and 2)`);
   const ident = { test: isValidName };
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
   const names = new Set<string>();
@@ -307,32 +336,92 @@ interface Boxes {
   Xexact: Iv[];
 }
 
-/** Existence: Krawczyk on the boxes (decimal preconditioner when the float one fails). Returns C and D = J(X). */
-function verifyExistence(r: ReadCertificate, s: Shooting, b: Boxes, opts: CheckOptions, limits: CheckLimits): { C: Precond; D: Iv[][] } {
-  const N = r.p * r.n;
+/**
+ * The Krawczyk forms this certificate is tested with, in order; any form that passes proves the
+ * claim (each is a valid Krawczyk operator). Dimension 2: the structured bound first at every
+ * period (issue 8 item 1); dimension 1 from STRUCTURED_FROM_UNKNOWNS on (below it the dense bound
+ * is tighter near |Λ| ≈ 1); the other forms are fallbacks when they fit the work budget.
+ * Fix (issue 7 item 5): above 40 digits with more unknowns than a decimal preconditioner may have,
+ * the float preconditioner is used instead of none. Preconditioners are built once, lazily.
+ */
+type KrawczykTest = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
+type Form = 'cyclic' | 'dense-decimal' | 'dense-float';
+interface Plan {
+  hintedHigh: boolean;
+  decimalC: boolean;
+  cyclicFirst: boolean;
+  fallbackOk: (f: Form) => boolean;
+}
+
+/** The work estimate (budget.ts) from the certificate's shape alone: a Refusal beyond the budget. */
+function planWork(r: ReadCertificate, opts: CheckOptions, limits: CheckLimits): Plan {
+  const { p, n } = r;
+  const N = p * n;
   const hintedHigh = r.digits > (opts.digits ?? DEFAULT_DIGITS) || r.digits > 40;
-  const withDecimalC = (): ReturnType<typeof preconditioner> =>
-    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, b.X, true) : null;
-  let C = hintedHigh ? withDecimalC() : preconditioner(s, b.X, false);
-  if (!C && !hintedHigh) C = withDecimalC();
-  if (!C) reject('$.orbit.centre', 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner');
-  let kx = krawczyk(s, C!, b.M, b.X, b.Xexact, 'existence');
-  if (!kx.ok && !hintedHigh && N <= limits.maxDecimalPrecondUnknowns) {
-    const C2 = withDecimalC();
-    if (C2) {
-      const k2 = krawczyk(s, C2, b.M, b.X, b.Xexact, 'existence');
-      if (k2.ok) {
-        C = C2;
-        kx = k2;
-      }
-    }
+  const decimalC = hintedHigh && N <= limits.maxDecimalPrecondUnknowns;
+  const cyclicFirst = n === 2 || (n === 1 && p > STRUCTURED_FROM_UNKNOWNS);
+  let stepOps = 0;
+  for (const node of r.step) stepOps += formulaOps(node, n, r.digits);
+  const first: Form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
+  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first });
+  const workText = (w: number): string => w.toExponential(1).replace('e+', 'e');
+  if (!(work <= limits.maxWork)) {
+    reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${r.digits} digits, ${first} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
   }
+  const fallbackOk = (f: Form): boolean => estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: f }) + work <= limits.maxWork;
+  return { hintedHigh, decimalC, cyclicFirst, fallbackOk };
+}
+
+function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, limits: CheckLimits): KrawczykTest {
+  const { p, n } = r;
+  const N = p * n;
+  const { hintedHigh, decimalC, cyclicFirst, fallbackOk } = plan;
+  const noC: KrawczykOutcome = { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
+  let floatC: Precond | null | undefined;
+  let decC: Precond | null | undefined;
+  let prepared: BoxTest | undefined;
+  const denseFloat: KrawczykTest = (Y, inner, label) => {
+    if (floatC === undefined) floatC = preconditioner(s, b.X, false);
+    return floatC ? krawczyk(s, floatC, b.M, Y, inner, label) : noC;
+  };
+  const denseDecimal: KrawczykTest = (Y, inner, label) => {
+    if (decC === undefined) decC = preconditioner(s, b.X, true);
+    return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
+  };
+  const cyclic: KrawczykTest = (Y, inner, label) => {
+    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2(s, b.M);
+    return prepared(Y, inner, label);
+  };
+  const forms: KrawczykTest[] = [];
+  if (cyclicFirst) {
+    forms.push(cyclic);
+    if (decimalC && fallbackOk('dense-decimal')) forms.push(denseDecimal);
+    if (N <= limits.maxDenseUnknowns && fallbackOk('dense-float')) forms.push(denseFloat);
+  } else {
+    forms.push(decimalC ? denseDecimal : denseFloat);
+    if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
+    if (n <= 2) forms.push(cyclic);
+  }
+  return (Y, inner, label) => {
+    let firstOut: KrawczykOutcome | null = null;
+    for (const f of forms) {
+      const out = f(Y, inner, label);
+      if (out.ok) return out;
+      firstOut ??= out;
+    }
+    return firstOut!;
+  };
+}
+
+/** Existence: Krawczyk on the boxes. Returns D = J(X). */
+function verifyExistence(test: KrawczykTest, b: Boxes): { D: Iv[][] } {
+  const kx = test(b.X, b.Xexact, 'existence');
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  return { C: C!, D: (kx as { jacobians: Iv[][] }).jacobians };
+  return { D: (kx as { jacobians: Iv[][] }).jacobians };
 }
 
 /** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
-function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, C: Precond, radius: string): void {
+function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, test: KrawczykTest, radius: string): void {
   const { c } = s;
   const n = r.n;
   const Yout: Iv[] = [];
@@ -345,7 +434,7 @@ function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, C: Precond,
     Yin.push(yin);
     if (!isSubset(b.Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
   }
-  const ky = krawczyk(s, C, b.M, Yout, Yin, 'uniqueness');
+  const ky = test(Yout, Yin, 'uniqueness');
   if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
 }
 
@@ -415,10 +504,19 @@ function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { cla
 }
 
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+  const top = typeof doc === 'object' && doc !== null && !Array.isArray(doc) ? (doc as Obj) : null;
+  if (top && top.format === CERTIFICATE_FORMAT && top.formatVersion === CERTIFICATE_FORMAT_VERSION && top.kind === CERTIFICATE_KIND_COUNT) {
+    // count certificates: checker/count.ts
+    const digits = opts.digits ?? DEFAULT_DIGITS;
+    if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+    checkCount(top, digits, limits);
+    return { claims: ['count'], digits };
+  }
   const other = otherKind(doc, opts, limits);
   if (other) return other;
   const r = readCertificate(doc, opts, limits);
   const { p, n } = r;
+  const plan = planWork(r, opts, limits); // before any arithmetic
   const c = ivCtx(r.digits);
   const params = new Map<string, Iv>();
   for (const [k, [lo, hi]] of r.paramText) params.set(k, c.literal(lo, hi));
@@ -435,11 +533,12 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
       b.M.push(c.literal(r.centreTxt[i]![a]!));
     }
   }
-  const { C, D } = verifyExistence(r, s, b, opts, limits);
+  const test = krawczykForms(r, s, b, plan, limits);
+  const { D } = verifyExistence(test, b);
   const verified: ClaimName[] = ['existence'];
   const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
   if (r.radius !== null) {
-    verifyUniqueness(r, s, b, C, r.radius);
+    verifyUniqueness(r, s, b, test, r.radius);
     verified.push('uniqueness');
   }
   if (r.minimal !== null) {
@@ -507,6 +606,7 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
     digits = r.digits;
     return done({ verdict: 'VERIFIED', claimsVerified: r.claims });
   } catch (e) {
+    if (e instanceof CountRejection) return done({ verdict: 'REJECTED', reason: e.message, path: e.path, claimsVerified: [] });
     if (e instanceof Refusal) return done({ verdict: e.verdict, reason: e.message, ...(e.path ? { path: e.path } : {}), claimsVerified: [] });
     if (e instanceof DomainViolation) return done({ verdict: 'REJECTED', reason: e.message, claimsVerified: [] });
     if (e instanceof RangeError) return done({ verdict: 'REJECTED', reason: `resource limit while checking: ${e.message}`, claimsVerified: [] });

@@ -127,6 +127,14 @@ export function parseWorkers(text: string): number {
   });
 }
 
+/** `--max-work W`: a positive number (plain or scientific, e.g. 2e9) of checker work units. */
+export function parseMaxWork(text: string): number {
+  const v = /^\s*\d+(\.\d*)?([eE]\+?\d+)?\s*$/.test(text) ? Number(text.trim()) : Number.NaN;
+  if (!(v >= 1) || !Number.isFinite(v)) {
+    throw new UsageError('bad-max-work', '--max-work', text, 'expected a positive number of work units', 'write e.g. --max-work 2e9 (the default is 2e8, about minutes of work)');
+  }
+  return v;
+}
 /** `--effort E`: a positive decimal factor, at most 1000 (multiplies the float search effort). */
 export function parseEffort(text: string): number {
   const v = DECIMAL_LITERAL.test(text.trim()) ? Number(text.trim()) : Number.NaN;

@@ -3,12 +3,14 @@
  * order, as the checker's sequential `checkPaths` (the folder walk is the checker's own
  * `listCheckTargets`; each file is checked by `checkFile` in some worker).
  */
-import { listCheckTargets, type CheckReport, type SkippedEntry } from '../checker/index.js';
+import { listCheckTargets, type CheckOptions, type CheckReport, type SkippedEntry } from '../checker/index.js';
 import type { CheckTask } from './check-task.js';
 import { runPool } from './pool.js';
 
 export interface CheckManyOptions {
   digits?: number;
+  /** Checker limits (e.g. `maxWork`), as `CheckOptions.limits`. */
+  limits?: CheckOptions['limits'];
   /** Worker threads (default: the number of cores). */
   workers?: number;
   /** Finished certificates so far, across workers. */
@@ -25,7 +27,9 @@ export async function checkMany(paths: string[], opts: CheckManyOptions = {}): P
 export async function checkManyReporting(paths: string[], opts: CheckManyOptions = {}): Promise<{ reports: CheckReport[]; skipped: SkippedEntry[] }> {
   const { targets, skipped } = listCheckTargets(paths, opts.digits !== undefined ? { digits: opts.digits } : {});
   const tasks: CheckTask[] = [];
-  for (const t of targets) if (typeof t === 'string') tasks.push(opts.digits !== undefined ? { file: t, digits: opts.digits } : { file: t });
+  for (const t of targets) {
+    if (typeof t === 'string') tasks.push({ file: t, ...(opts.digits !== undefined ? { digits: opts.digits } : {}), ...(opts.limits ? { limits: opts.limits } : {}) });
+  }
   const checked = await runPool<CheckTask, CheckReport>(CHECK_TASK, tasks, {
     ...(opts.workers !== undefined ? { workers: opts.workers } : {}),
     ...(opts.progress !== undefined ? { progress: opts.progress } : {}),

@@ -2,12 +2,13 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
-import { parseDigits, parseWorkers } from '../options.js';
+import { parseDigits, parseMaxWork, parseWorkers } from '../options.js';
 import type { CheckReport, SkippedEntry } from '../../checker/index.js';
 import { checkManyReporting } from '../../workflow/check.js';
 
 export interface CheckCommandOptions {
   digits?: string;
+  maxWork?: string;
   workers?: string;
   json?: boolean;
 }
@@ -18,13 +19,18 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   }
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const workers = o.workers !== undefined ? parseWorkers(o.workers) : undefined;
+  const maxWork = o.maxWork !== undefined ? parseMaxWork(o.maxWork) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
   absolute.forEach((p, i) => {
     if (!existsSync(p)) {
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const checked = await checkManyReporting(absolute, { ...(digits ? { digits } : {}), ...(workers !== undefined ? { workers } : {}) });
+  const checked = await checkManyReporting(absolute, {
+    ...(digits ? { digits } : {}),
+    ...(maxWork ? { limits: { maxWork } } : {}),
+    ...(workers !== undefined ? { workers } : {}),
+  });
   const reports = checked.reports.map(clarifyReport);
   const skipped = checked.skipped;
   if (reports.length === 0) {

@@ -6,6 +6,27 @@ import { readPointsFile } from '../points.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
+import { MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS } from '../../certificate/limits.js';
+
+/**
+ * Refuse, before any search, a period whose shooting system the prover and the checker would
+ * both refuse (the same limits, certificate/limits.ts): minutes of search for a sure "undecided".
+ */
+export function checkProblemSize(period: number, dim: number): void {
+  const N = period * dim;
+  if (N > MAX_UNKNOWNS) {
+    throw new UsageError('bad-period', '--period', String(period), `period ${period} × dimension ${dim} = ${N} unknowns exceeds the limit of ${MAX_UNKNOWNS}`, `use a period of at most ${Math.floor(MAX_UNKNOWNS / dim)}`);
+  }
+  if (dim > 2 && N > MAX_DENSE_UNKNOWNS) {
+    throw new UsageError(
+      'bad-period',
+      '--period',
+      String(period),
+      `period ${period} × dimension ${dim} = ${N} unknowns exceeds the dense limit of ${MAX_DENSE_UNKNOWNS} (the structured O(p) proof exists for dimensions 1 and 2 only)`,
+      `use a period of at most ${Math.floor(MAX_DENSE_UNKNOWNS / dim)} for this map`,
+    );
+  }
+}
 
 export interface ProveCommandOptions {
   period: string;
@@ -55,6 +76,7 @@ export async function proveCommand(
   }
   const effort = o.effort !== undefined ? parseEffort(o.effort) : undefined;
   const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  checkProblemSize(period, compiled.dim);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const nearExact = o.near !== undefined ? nearDecimals(o.near) : null;
   const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
