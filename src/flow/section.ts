@@ -234,7 +234,7 @@ export function floatReturn(
   let V = jac ? identityF(n) : null;
   let left = false;
   let steps = 0;
-  while (steps++ < 200_000) {
+  while (steps++ < 20_000) {
     let h = stepSize(point, x, P, opts);
     const x1 = x.slice();
     let V1 = V;
