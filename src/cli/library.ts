@@ -3,7 +3,8 @@
  * binding is easy to audit).
  */
 import { checkCertificate, checkPaths, type CheckReport } from '../checker/index.js';
-import { compileMap, describeMap, parseMapSource, parseParamOverride, resolveMap } from '../model/index.js';
+import { compileAnyMap } from '../flow/compile.js';
+import { describeMap, parseMapSource, parseParamOverride, resolveMap } from '../model/index.js';
 import { proveOrbit, type OrbitVerdict } from '../prove/index.js';
 import { findCandidates, type Candidate } from '../search/index.js';
 
@@ -11,7 +12,8 @@ export type CandidateLike = Candidate;
 export type ProveVerdictLike = OrbitVerdict;
 export type CheckReportLike = CheckReport;
 
-const modelModule = { resolveMap, parseMapSource, parseParamOverride, compileMap, describeMap };
+/** `compileMap` here compiles formula maps and flow maps alike (src/flow). */
+const modelModule = { resolveMap, parseMapSource, parseParamOverride, compileMap: compileAnyMap, describeMap };
 const searchModule = { findCandidates };
 const proveModule = { proveOrbit };
 const checkerModule = { checkCertificate, checkPaths };
