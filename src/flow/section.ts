@@ -144,6 +144,7 @@ export class ReturnMapEvaluator<T> {
     const F = this.flow;
     const n = this.n;
     const start = F.save();
+    const tStart = F.time();
     const probe = (dt: T, hi: number): T[] | null => {
       F.restore(start);
       if (!F.step(dt, hi)) return null;
@@ -181,7 +182,6 @@ export class ReturnMapEvaluator<T> {
       }
       // τ ∈ [a, b]: enclose φ over that time interval
       const tau = A.hull(A.fromNumber(a), A.fromNumber(b));
-      const tStart = F.time();
       const Xc = probe(tau, b);
       if (Xc === null) return { ok: false, reason: 'the a priori enclosure failed on the crossing interval' };
       const f = new Array<T>(n);

@@ -16,7 +16,8 @@ import { MapLanguageError } from '../../src/expr/errors.js';
 import type { MapDefinition } from '../../src/model/types.js';
 
 const D = Decimal.clone({ precision: 60 });
-const contains = (iv: Interval, exact: Decimal): boolean => exact.gte(new D(iv.lo)) && exact.lte(new D(iv.hi));
+// interval ends as their exact decimal values (never via the shortest round-trip string)
+const contains = (iv: Interval, exact: Decimal): boolean => exact.gte(new D(decimalOfDouble(iv.lo))) && exact.lte(new D(decimalOfDouble(iv.hi)));
 const base = { title: 't', params: {}, step: {}, region: {} };
 
 function flowOf(def: MapDefinition, order = 16) {
@@ -44,7 +45,7 @@ describe('validated Taylor integrator on closed forms', () => {
         const r = vf.integrate([A.fromNumber(x0)], A.fromNumber(0), A.fromNumber(t), false);
         return r.ok && contains(r.x[0]!, new D(decimalOfDouble(x0)).mul(D.exp(new D(decimalOfDouble(t)))));
       }),
-      { numRuns: 25 },
+      { numRuns: 40 },
     );
   });
 
@@ -160,5 +161,80 @@ describe('map files for flows', () => {
     expect(() => parseMapSource('state: [x]\nstep: {x: x}\nflow: {x: x}\nduration: 1\nregion: {x: [0, 1]}')).toThrow(/either 'step'/);
     expect(() => parseMapSource('state: [x]\nflow: {x: x}\nregion: {x: [0, 1]}')).toThrow(/needs 'duration'/);
     expect(() => parseMapSource('state: [x]\nstep: {x: x}\nduration: 1\nregion: {x: [0, 1]}')).toThrow(/belongs to a flow map/);
+  });
+});
+
+describe('return maps to a section', () => {
+  it('limit cycle r = 1 of the planar system: fixed point (1, 0), return time 2π, multiplier e^{−4π} in the trace', () => {
+    // x' = −y + x(1 − r²), y' = x + y(1 − r²): in polar form r' = r(1 − r²), θ' = 1, so the
+    // circle r = 1 is a periodic orbit of period 2π with Floquet multiplier e^{(1 − 3)·2π} = e^{−4π}
+    // (closed form, derived by hand). Section y = 0 crossed with y increasing (at x > 0).
+    const def: MapDefinition = {
+      ...base, state: ['x', 'y'], region: { x: ['0', '2'], y: ['-1', '1'] },
+      flow: { rhs: { x: '-y + x*(1 - x^2 - y^2)', y: 'x + y*(1 - x^2 - y^2)' }, section: { surface: 'y', crossing: 'increasing' } },
+    };
+    const m = compileFlowMap(def, undefined, { order: 12 });
+    const A = intervalArithmetic();
+    const out = [A.fromNumber(0), A.fromNumber(0)];
+    const jac = [A.fromNumber(0), A.fromNumber(0), A.fromNumber(0), A.fromNumber(0)];
+    A.status.continuous = true;
+    m.evaluator(A).imageAndJacobian([A.fromNumber(1), A.fromNumber(0)], out, jac);
+    expect(A.status.continuous).toBe(true);
+    expect(contains(out[0]!, new D(1)) && contains(out[1]!, new D(0))).toBe(true);
+    const tau = m.flowTimes()[0] as Interval;
+    expect(contains(tau, D.acos(-1).mul(2))).toBe(true);
+    // DP = diag-like with eigenvalues {e^{−4π}, 0}: the trace encloses e^{−4π}
+    const trace = A.add(jac[0]!, jac[3]!);
+    expect(contains(trace, D.exp(D.acos(-1).mul(-4)))).toBe(true);
+  }, 20_000);
+
+  it('refuses on a section the flow is tangent to', () => {
+    // x' = 1, y' = 0: the section y = 0 contains the whole trajectory (∇g·F = 0 everywhere)
+    const def: MapDefinition = {
+      ...base, state: ['x', 'y'], region: { x: ['0', '1'], y: ['-1', '1'] },
+      flow: { rhs: { x: '1', y: '0*x' }, section: { surface: 'y', crossing: 'increasing' } },
+    };
+    const m = compileFlowMap(def, undefined, { order: 8 });
+    const A = intervalArithmetic();
+    const out = [A.fromNumber(0), A.fromNumber(0)];
+    A.status.continuous = true;
+    m.evaluator(A).image([A.fromNumber(0), A.fromNumber(0)], out);
+    expect(A.status.continuous).toBe(false);
+    expect(m.lastRefusal()).toMatch(/tangent/);
+  });
+});
+
+describe('series recurrences (sin, cos, exp, log, sqrt, ÷, integer powers) against closed forms', () => {
+  it('quadratures u′ = 1 and s′ = cos u, w′ = exp u, q′ = 1/(2√u), r′ = log u, p′ = 3u²·u⁻¹ contain their antiderivatives (fast-check)', () => {
+    // closed forms (calculus): s = s0 + sin(u) − sin(u0), w = w0 + exp(u) − exp(u0), q = √u,
+    // r = r0 + [u log u − u]_{u0}^{u}, p = p0 + (3/2)(u² − u0²)
+    const def: MapDefinition = {
+      ...base, state: ['u', 's', 'w', 'q', 'r', 'p'],
+      region: { u: ['0', '9'], s: ['-9', '9'], w: ['-9', '9'], q: ['0', '9'], r: ['-9', '9'], p: ['-99', '99'] },
+      flow: { rhs: { u: '1', s: 'cos(u)', w: 'exp(u)', q: '1/(2*sqrt(u))', r: 'log(u)', p: '3*u^2*u^-1' }, duration: '1' },
+    };
+    const { A, vf } = flowOf(def, 12);
+    fc.assert(
+      fc.property(fc.double({ min: 0.5, max: 3, noNaN: true }), fc.double({ min: 0.01, max: 1.5, noNaN: true }), (u0, t) => {
+        const q0 = new D(decimalOfDouble(u0)).sqrt();
+        // start q at an enclosure of √u0 (exact ends), the rest at 0
+        const qStart = A.constant(q0.toSD(30, Decimal.ROUND_FLOOR).toString(), q0.toSD(30, Decimal.ROUND_CEIL).toString());
+        const z = A.fromNumber(0);
+        const r = vf.integrate([A.fromNumber(u0), z, z, qStart, z, z], A.fromNumber(0), A.fromNumber(t), false);
+        if (!r.ok) return false;
+        const U0 = new D(decimalOfDouble(u0));
+        const U = U0.add(new D(decimalOfDouble(t)));
+        const F = (u: Decimal) => u.mul(u.ln()).sub(u);
+        return (
+          contains(r.x[0]!, U) &&
+          contains(r.x[1]!, D.sin(U).sub(D.sin(U0))) &&
+          contains(r.x[2]!, D.exp(U).sub(D.exp(U0))) &&
+          contains(r.x[3]!, U.sqrt()) &&
+          contains(r.x[4]!, F(U).sub(F(U0))) &&
+          contains(r.x[5]!, U.pow(2).sub(U0.pow(2)).mul(1.5))
+        );
+      }),
+      { numRuns: 15 },
+    );
   });
 });
