@@ -14,6 +14,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'candidate search', module: './search-bench.js', fn: 'runSearchBench' },
   { title: 'prover', module: './prove-bench.js', fn: 'runProveBench' },
   { title: 'independent checker', module: './check-bench.js', fn: 'runCheckBench' },
+  { title: 'flow integrator', module: './flow-bench.js', fn: 'runFlowBench' },
 ];
 
 async function main(): Promise<void> {
