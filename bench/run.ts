@@ -1,43 +1,36 @@
 /**
- * `npm run bench`: runs every benchmark that exists and prints its lines. Each benchmark module is
- * loaded with a dynamic import so a missing one is reported as "not available" instead of failing.
+ * `npm run bench`: runs every benchmark and prints its lines. A benchmark that throws is reported
+ * as FAILED (exit code 1) and the others still run.
  */
+import { runCheckBench } from './check-bench.js';
+import { runExprBench } from './expr-bench.js';
+import { runFlowBench } from './flow-bench.js';
+import { runIntervalBench } from './interval-bench.js';
+import { runProveBench } from './prove-bench.js';
+import { runSearchBench } from './search-bench.js';
+
 interface BenchSpec {
   title: string;
-  module: string;
-  fn: string;
+  file: string;
+  run: () => Promise<string[]>;
 }
 
 const BENCHES: BenchSpec[] = [
-  { title: 'interval kernel', module: './interval-bench.js', fn: 'runIntervalBench' },
-  { title: 'map language', module: './expr-bench.js', fn: 'runExprBench' },
-  { title: 'candidate search', module: './search-bench.js', fn: 'runSearchBench' },
-  { title: 'prover', module: './prove-bench.js', fn: 'runProveBench' },
-  { title: 'independent checker', module: './check-bench.js', fn: 'runCheckBench' },
-  { title: 'flow integrator', module: './flow-bench.js', fn: 'runFlowBench' },
+  { title: 'interval kernel', file: 'bench/interval-bench.ts', run: runIntervalBench },
+  { title: 'map language', file: 'bench/expr-bench.ts', run: runExprBench },
+  { title: 'candidate search', file: 'bench/search-bench.ts', run: runSearchBench },
+  { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
+  { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
+  { title: 'flow integrator', file: 'bench/flow-bench.ts', run: runFlowBench },
 ];
 
 async function main(): Promise<void> {
   let failures = 0;
   for (const b of BENCHES) {
-    console.log(`== ${b.title} (${b.module.replace('./', 'bench/').replace(/\.js$/, '.ts')})`);
-    let mod: Record<string, unknown>;
-    try {
-      mod = (await import(b.module)) as Record<string, unknown>;
-    } catch (e) {
-      const code = (e as NodeJS.ErrnoException).code;
-      const missingItself = code === 'ERR_MODULE_NOT_FOUND' && (e as Error).message.includes(b.module.slice(2));
-      console.log(missingItself ? '   not available' : `   not available (${(e as Error).message})`);
-      continue;
-    }
-    const run = mod[b.fn];
-    if (typeof run !== 'function') {
-      console.log(`   not available (no export ${b.fn})`);
-      continue;
-    }
+    console.log(`== ${b.title} (${b.file})`);
     try {
       const t0 = performance.now();
-      const lines = (await (run as () => Promise<string[]>)()) ?? [];
+      const lines = await b.run();
       for (const line of lines) console.log(`   ${line}`);
       console.log(`   (${((performance.now() - t0) / 1000).toFixed(1)} s)`);
     } catch (e) {

@@ -18,23 +18,25 @@ import {
   writeSync,
 } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
+import { UserError } from '../errors.js';
 import type { CertificateV1 } from './types.js';
 
-export type CertificateWriteErrorCode = 'CERT_EXISTS' | 'CERT_WRITE_FAILED';
+export type CertificateWriteErrorCode = 'cert-exists' | 'cert-write-failed';
 
-/** A user-facing write problem (exit 2): where, what, and how to fix it. */
-export class CertificateWriteError extends Error {
-  override readonly name = 'CertificateWriteError';
-  constructor(
-    readonly code: CertificateWriteErrorCode,
-    readonly path: string,
-    message: string,
-    readonly hint: string,
-  ) {
-    super(message);
+/** A user-facing write problem (exit 2): where (the path), what, and how to fix it. */
+export class CertificateWriteError extends UserError {
+  override name = 'CertificateWriteError';
+  declare readonly code: CertificateWriteErrorCode;
+  constructor(code: CertificateWriteErrorCode, path: string, message: string, hint: string) {
+    super(code, message, hint, path);
   }
-  render(): string {
-    return `${this.path}: error [${this.code}]: ${this.message}\n  hint: ${this.hint}`;
+  /** The file or folder concerned (the `place` of UserError). */
+  get path(): string {
+    return this.place;
+  }
+  /** `path: error [code]: message` — the path first, as compilers print it. */
+  override render(): string {
+    return `${this.place}: error [${this.code}]: ${this.message}\n  hint: ${this.hint}`;
   }
 }
 
@@ -53,7 +55,7 @@ export function describeFsError(e: unknown): string {
 
 function dirError(target: string, message: string): CertificateWriteError {
   return new CertificateWriteError(
-    'CERT_WRITE_FAILED',
+    'cert-write-failed',
     target,
     message,
     'choose a folder you can write to with --out (it is created if its parent folder is writable)',
@@ -89,7 +91,7 @@ function checkWritableDir(existing: string, target: string): void {
 }
 
 /**
- * Throws CERT_WRITE_FAILED unless `dir` is a writable folder or could be created (its nearest
+ * Throws cert-write-failed unless `dir` is a writable folder or could be created (its nearest
  * existing ancestor is a writable folder). Creates nothing; for failing early, before long work.
  */
 export function checkDirectoryUsable(dir: string): void {
@@ -99,7 +101,7 @@ export function checkDirectoryUsable(dir: string): void {
 
 /**
  * Create `dir` and its missing parents one level at a time. Not `mkdirSync(recursive)`: that loops
- * forever on some pseudo file systems (e.g. under /proc on Linux, node 20). Throws CERT_WRITE_FAILED
+ * forever on some pseudo file systems (e.g. under /proc on Linux, node 20). Throws cert-write-failed
  * with the folder and the system's reason.
  */
 export function ensureDirectory(dir: string): void {
@@ -140,7 +142,7 @@ export function serializeCertificate(cert: CertificateV1): string {
 }
 
 export interface WriteOptions {
-  /** Replace an existing file (default false: refuse with CERT_EXISTS). */
+  /** Replace an existing file (default false: refuse with cert-exists). */
   force?: boolean;
 }
 
@@ -168,7 +170,7 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
   const dir = dirname(target);
   const existsError = () =>
     new CertificateWriteError(
-      'CERT_EXISTS',
+      'cert-exists',
       target,
       'file already exists; not overwritten',
       'pass --force to replace it, or choose another folder with --out',
@@ -210,7 +212,7 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
     }
     if (e instanceof CertificateWriteError) throw e;
     throw new CertificateWriteError(
-      'CERT_WRITE_FAILED',
+      'cert-write-failed',
       target,
       `cannot write file: ${describeFsError(e)}`,
       'check that the folder exists or can be created and is writable, or choose another with --out',

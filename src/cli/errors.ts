@@ -1,3 +1,5 @@
+import { UserError } from '../errors.js';
+
 /**
  * CLI outcomes and the error channels of STYLE.md: user mistakes (exit 2, typed, with place and
  * hint), internal errors (exit 3, reported as bugs). Mathematical outcomes are data, never errors.
@@ -33,71 +35,29 @@ export type UsageErrorCode =
   | 'bad-param-override';
 
 /** A command-line mistake: what, where (which option / argument), how to fix it. */
-export class UsageError extends Error {
-  override readonly name = 'UsageError';
+export class UsageError extends UserError {
+  override name = 'UsageError';
+  declare readonly code: UsageErrorCode;
+  declare readonly text: string;
   constructor(
-    readonly code: UsageErrorCode,
+    code: UsageErrorCode,
     /** The option or argument, e.g. `--period`. */
-    readonly where: string,
+    where: string,
     /** The offending text as typed. */
-    readonly text: string,
+    text: string,
     message: string,
-    readonly hint: string,
+    hint: string,
   ) {
-    super(message);
+    super(code, message, hint, where, text);
   }
-  render(): string {
-    return `error [${this.code}] in ${this.where} ${JSON.stringify(this.text)}: ${this.message}\n  hint: ${this.hint}`;
-  }
-  toJSON(): Record<string, unknown> {
-    return { code: this.code, where: this.where, text: this.text, message: this.message, hint: this.hint };
-  }
-}
-
-/** A library layer the CLI needs is not built (yet). An internal condition: exit 3. */
-export class NotAvailableError extends Error {
-  override readonly name = 'NotAvailableError';
-  constructor(readonly feature: string) {
-    super(`${feature} is not available yet in this build of orbitseal`);
-  }
-}
-
-/** A user-facing error from any layer: has a stable string `code` (and usually a `render()`). */
-interface UserErrorLike {
-  code: string;
-  render?: () => string;
-  hint?: unknown;
-}
-
-const USER_ERROR_NAMES = new Set([
-  'MapLanguageError',
-  'UsageError',
-  'CertificateWriteError',
-  'SearchOptionError',
-  'ModelError',
-]);
-
-function isUserError(e: unknown): e is Error & UserErrorLike {
-  return e instanceof Error && USER_ERROR_NAMES.has(e.name) && typeof (e as unknown as UserErrorLike).code === 'string';
-}
-
-function renderUserError(e: Error & UserErrorLike): string {
-  if (typeof e.render === 'function') return e.render();
-  const hint = typeof e.hint === 'string' && e.hint !== '' ? `\n  hint: ${e.hint}` : '';
-  return `error [${e.code}]: ${e.message}${hint}`;
 }
 
 /** Turn anything thrown by a command into a result: user mistakes exit 2, everything else exits 3. */
 export function errorResult(e: unknown, json = false): CommandResult {
-  if (isUserError(e)) {
-    if (json) {
-      const detail = typeof (e as { toJSON?: unknown }).toJSON === 'function' ? (e as unknown as { toJSON(): unknown }).toJSON() : { code: e.code, message: e.message };
-      return { stdout: JSON.stringify({ error: detail }, null, 2) + '\n', stderr: renderUserError(e) + '\n', exitCode: EXIT_USAGE };
-    }
-    return { stdout: '', stderr: renderUserError(e) + '\n', exitCode: EXIT_USAGE };
-  }
-  if (e instanceof NotAvailableError) {
-    return { stdout: '', stderr: `orbitseal: ${e.message} (exit 3).\n`, exitCode: EXIT_INTERNAL };
+  if (e instanceof UserError) {
+    const stderr = e.render() + '\n';
+    if (json) return { stdout: JSON.stringify({ error: e.toJSON() }, null, 2) + '\n', stderr, exitCode: EXIT_USAGE };
+    return { stdout: '', stderr, exitCode: EXIT_USAGE };
   }
   const what = e instanceof Error ? `${e.name}: ${e.message}` : String(e);
   return {

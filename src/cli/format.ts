@@ -29,11 +29,6 @@ export function widthUp(iv: readonly [string, string]): string {
   return w.toSignificantDigits(2, Decimal.ROUND_CEIL).toExponential();
 }
 
-/** A decimal string shortened to `sig` significant digits, round to nearest (for points only). */
-export function shortPoint(x: string, sig = 12): string {
-  return new Decimal(x).toSignificantDigits(sig).toString();
-}
-
 /**
  * Left-aligned text table with a header rule. Cells may contain newlines (continued lines).
  * Loops only (no spread into Math.max): tables may have tens of thousands of lines.
@@ -57,13 +52,4 @@ export function table(headers: string[], rows: string[][]): string {
   const out: string[] = [line(headers), line(widths.map((w) => '-'.repeat(w)))];
   for (const r of expanded) out.push(line(r));
   return out.join('\n');
-}
-
-/** Indent every line of `text` by `n` spaces. */
-export function indent(text: string, n = 2): string {
-  const pad = ' '.repeat(n);
-  return text
-    .split('\n')
-    .map((l) => (l === '' ? l : pad + l))
-    .join('\n');
 }

@@ -1,16 +1,25 @@
 /**
  * The command line as a pure function: `runCli(argv)` → {stdout, stderr, exitCode}. No process
  * I/O here (main.ts does that), so tests run every command in-process.
+ *
+ * Startup: each command's module (and with it the prover, the checker, decimal.js) is imported
+ * only when that command runs, so `orbitseal --version` and `--help` load commander and little
+ * else. Keep the static imports below light (no command modules, nothing that loads decimal.js).
  */
 import { Command, CommanderError } from 'commander';
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
-import { collect } from './options.js';
-import { checkCommand, type CheckCommandOptions } from './commands/check.js';
-import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
-import { findCommand, type FindCommandOptions } from './commands/find.js';
-import { DEFAULT_OUT_DIR, proveCommand, type ProveCommandOptions } from './commands/prove.js';
-import { showCommand, type ShowCommandOptions } from './commands/show.js';
+import { DEFAULT_OUT_DIR } from './options.js';
+import type { CheckCommandOptions } from './commands/check.js';
+import type { DemoCommandOptions } from './commands/demo.js';
+import type { FindCommandOptions } from './commands/find.js';
+import type { ProveCommandOptions } from './commands/prove.js';
+import type { ShowCommandOptions } from './commands/show.js';
+
+/** Commander collector for repeatable options. */
+export function collect(value: string, previous: string[] | undefined): string[] {
+  return [...(previous ?? []), value];
+}
 
 export interface RunContext {
   /** Working folder for relative paths (default process.cwd()). */
@@ -21,6 +30,10 @@ export interface RunContext {
 
 const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
 
+/**
+ * Run the command line on `argv` (without `node` and the script) and return what it would print
+ * and its exit code: 0 all proven / verified, 1 something not proven or rejected, 2 bad input, 3 bug.
+ */
 export async function runCli(argv: readonly string[], ctx: RunContext = {}): Promise<CommandResult> {
   const cwd = ctx.cwd ?? process.cwd();
   let out = '';
@@ -54,7 +67,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ShowCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => showCommand(map, o, cwd))();
+      return run(async () => (await import('./commands/show.js')).showCommand(map, o, cwd))();
     });
 
   program
@@ -67,7 +80,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => findCommand(map, o, cwd))();
+      return run(async () => (await import('./commands/find.js')).findCommand(map, o, cwd))();
     });
 
   program
@@ -88,7 +101,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => proveCommand(map, o, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/prove.js')).proveCommand(map, o, cwd, ctx.progress))();
     });
 
   program
@@ -99,7 +112,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => checkCommand(paths, o, cwd))();
+      return run(async () => (await import('./commands/check.js')).checkCommand(paths, o, cwd))();
     });
 
   program
@@ -109,7 +122,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((o: DemoCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => demoCommand(o, cwd))();
+      return run(async () => (await import('./commands/demo.js')).demoCommand(o, cwd))();
     });
 
   try {

@@ -4,6 +4,8 @@
  * callers print `render()`.
  */
 
+import { UserError } from '../errors.js';
+
 export type MapLanguageErrorCode =
   // formula errors (src/expr)
   | 'empty-input'
@@ -52,36 +54,30 @@ export interface MapLanguageErrorInit {
   length?: number;
 }
 
-export class MapLanguageError extends Error {
-  readonly code: MapLanguageErrorCode;
+/**
+ * A mistake in a formula or a map file, with its position (file:line:column or key path), the
+ * offending text and a hint; `render()` draws the source line with a caret under the spot.
+ */
+export class MapLanguageError extends UserError {
+  override name = 'MapLanguageError';
+  declare readonly code: MapLanguageErrorCode;
+  declare readonly text: string;
   readonly line: number;
   readonly column: number;
-  readonly text: string;
-  readonly hint: string;
   readonly file: string | undefined;
   readonly key: string | undefined;
   readonly sourceLine: string | undefined;
   readonly length: number;
 
   constructor(init: MapLanguageErrorInit) {
-    super(init.message);
-    this.name = 'MapLanguageError';
-    this.code = init.code;
+    const text = init.text.length > 200 ? `${init.text.slice(0, 200)}…` : init.text;
+    super(init.code, init.message, init.hint, placeOf(init.file, init.line, init.column), text);
     this.line = init.line;
     this.column = init.column;
-    this.text = init.text.length > 200 ? `${init.text.slice(0, 200)}…` : init.text;
-    this.hint = init.hint;
     this.file = init.file;
     this.key = init.key;
     this.sourceLine = init.sourceLine;
     this.length = Math.max(1, init.length ?? 1);
-  }
-
-  /** `file:line:column`, `line:column` without a file; line 0 means "no position" (only the key is known). */
-  place(): string {
-    const file = this.file ?? '';
-    if (this.line <= 0) return file !== '' ? file : '(map)';
-    return `${file !== '' ? `${file}:` : ''}${this.line}:${this.column}`;
   }
 
   /**
@@ -93,9 +89,9 @@ export class MapLanguageError extends Error {
    *   hint: did you mean 'r'?
    * ```
    */
-  render(): string {
+  override render(): string {
     const where = this.key !== undefined ? ` in ${this.key}` : '';
-    const lines = [`${this.place()}: error [${this.code}]${where}: ${this.message}`];
+    const lines = [`${this.place}: error [${this.code}]${where}: ${this.message}`];
     if (this.sourceLine !== undefined) {
       const shown = clip(this.sourceLine, this.column - 1, 100);
       lines.push(`  ${shown.text}`);
@@ -106,9 +102,10 @@ export class MapLanguageError extends Error {
     return lines.join('\n');
   }
 
-  toJSON(): Record<string, unknown> {
+  override toJSON(): Record<string, unknown> {
     return {
       code: this.code,
+      place: this.place,
       message: this.message,
       file: this.file,
       key: this.key,
@@ -118,6 +115,13 @@ export class MapLanguageError extends Error {
       hint: this.hint,
     };
   }
+}
+
+/** `file:line:column`, `line:column` without a file; line 0 means "no position" (only the key is known). */
+function placeOf(file: string | undefined, line: number, column: number): string {
+  const f = file ?? '';
+  if (line <= 0) return f !== '' ? f : '(map)';
+  return `${f !== '' ? `${f}:` : ''}${line}:${column}`;
 }
 
 /** Shows at most `width` characters of a (possibly huge) line around column `col0` (0-based). */
@@ -134,6 +138,8 @@ function clip(line: string, col0: number, width: number): { text: string; caret:
 /** Quotes user text for a message, shortened and with control characters made visible. */
 export function quoteText(s: string, max = 40): string {
   const short = s.length > max ? `${s.slice(0, max)}…` : s;
+  // control characters are matched on purpose: they are shown as \uXXXX escapes
+  // eslint-disable-next-line no-control-regex
   return `'${short.replace(/[\u0000-\u001f\u007f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`)}'`;
 }
 

@@ -7,9 +7,11 @@ import type { ParsedFormula } from '../expr/ast.js';
 import { MapLanguageError, suggestionHint, type MapLanguageErrorCode } from '../expr/errors.js';
 import { IDENTIFIER, isReservedName } from '../expr/names.js';
 import { checkNames, parseFormula } from '../expr/parser.js';
-import { compareDecimal, normalizeDecimal } from './decimal.js';
+import { compareDecimal } from '../interval/decimal-literal.js';
+import { normalizeDecimal } from './decimal.js';
+import type { MapDefinition, ParamValue } from './types.js';
 import type { Expr } from '../expr/ast.js';
-import type { FlowSpec, MapDefinition, ParamValue } from './types.js';
+import type { FlowSpec } from './types.js';
 
 /**
  * Functions a flow right-hand side may use: those with Taylor-series recurrences in src/flow

@@ -1,15 +1,13 @@
-/** A user mistake in search options: stable code, JSON path of the offending option, hint. */
-export class SearchOptionError extends Error {
-  readonly code: string;
-  readonly path: string;
-  readonly text: string;
-  readonly hint: string;
-  constructor(code: string, path: string, text: string, hint: string) {
-    super(`${code} at ${path}: ${JSON.stringify(text)} — ${hint}`);
-    this.name = 'SearchOptionError';
-    this.code = code;
-    this.path = path;
-    this.text = text;
-    this.hint = hint;
+import { UserError } from '../errors.js';
+
+/** A user mistake in search options: kebab-case code, option path (e.g. `near`), offending text, hint. */
+export class SearchOptionError extends UserError {
+  override name = 'SearchOptionError';
+  constructor(code: string, path: string, text: string, message: string, hint: string) {
+    super(code, message, hint, path, text);
+  }
+  /** The option path (the `place` of UserError). */
+  get path(): string {
+    return this.place;
   }
 }

@@ -19,7 +19,7 @@ describe('ensureDirectory / checkDirectoryUsable', () => {
     expect(writeFileAtomic(join(scratch, 'x', 'y', 'f.txt'), 'hi\n')).toBe(join(scratch, 'x', 'y', 'f.txt'));
   });
 
-  it('a file in the way → CERT_WRITE_FAILED naming it, nothing created', () => {
+  it('a file in the way → cert-write-failed naming it, nothing created', () => {
     const file = join(scratch, 'plain.txt');
     writeFileSync(file, 'x');
     let err: unknown;
@@ -29,7 +29,7 @@ describe('ensureDirectory / checkDirectoryUsable', () => {
       err = e;
     }
     expect(err).toBeInstanceOf(CertificateWriteError);
-    expect((err as CertificateWriteError).code).toBe('CERT_WRITE_FAILED');
+    expect((err as CertificateWriteError).code).toBe('cert-write-failed');
     expect((err as CertificateWriteError).message).toBe(`${file} exists and is not a folder`);
   });
 
@@ -44,7 +44,7 @@ describe('ensureDirectory / checkDirectoryUsable', () => {
     expect(performance.now() - t0).toBeLessThan(2000);
     expect(err).toBeInstanceOf(CertificateWriteError);
     const msg = (err as CertificateWriteError).render();
-    expect(msg).toMatch(/^\/proc\/nope: error \[CERT_WRITE_FAILED\]: cannot create folder \/proc\/nope: E[A-Z]+ \(/);
+    expect(msg).toMatch(/^\/proc\/nope: error \[cert-write-failed\]: cannot create folder \/proc\/nope: E[A-Z]+ \(/);
     expect(msg).not.toMatch(/(E[A-Z]+): \1/);
   });
 });

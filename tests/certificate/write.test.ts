@@ -49,7 +49,7 @@ describe('writeCertificate', () => {
       err = e;
     }
     expect(err).toBeInstanceOf(CertificateWriteError);
-    expect((err as CertificateWriteError).code).toBe('CERT_EXISTS');
+    expect((err as CertificateWriteError).code).toBe('cert-exists');
     expect((err as CertificateWriteError).render()).toMatch(/a\.json.*already exists[\s\S]*--force/);
     expect(readFileSync(path, 'utf8')).toBe('precious');
     expect(readdirSync(dir)).toEqual(['a.json']);
@@ -63,11 +63,11 @@ describe('writeCertificate', () => {
     expect(readdirSync(dir)).toEqual(['a.json']);
   });
 
-  it('reports an unwritable place as CERT_WRITE_FAILED', () => {
+  it('reports an unwritable place as cert-write-failed', () => {
     const blocker = join(dir, 'file');
     writeFileSync(blocker, 'x');
     expect(() => writeCertificate(join(blocker, 'a.json'), cert)).toThrow(
-      expect.objectContaining({ code: 'CERT_WRITE_FAILED' }),
+      expect.objectContaining({ code: 'cert-write-failed' }),
     );
     expect(existsSync(join(blocker, 'a.json'))).toBe(false);
   });

@@ -1,9 +1,11 @@
 import fc from 'fast-check';
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
-import { errorResult, NotAvailableError, UsageError } from '../../src/cli/errors.js';
+import { errorResult, UsageError } from '../../src/cli/errors.js';
 import { formatInterval, shortDown, shortUp, table, widthUp } from '../../src/cli/format.js';
 import { parseNear, parsePeriod } from '../../src/cli/options.js';
+import { SearchOptionError } from '../../src/search/errors.js';
+import { CheckerInternalError, checkCertificate } from '../../src/checker/index.js';
 
 const D = Decimal.clone({ precision: 100 });
 
@@ -69,7 +71,7 @@ describe('option parsing', () => {
 });
 
 describe('error channels', () => {
-  it('user errors exit 2 with their rendering; bugs exit 3 and say so; missing layers exit 3', () => {
+  it('user errors exit 2 with their rendering; bugs exit 3 and say so', () => {
     const u = errorResult(new UsageError('bad-period', '--period', 'x', 'nope', 'write e.g. --period 3'));
     expect(u.exitCode).toBe(2);
     expect(u.stderr).toBe('error [bad-period] in --period "x": nope\n  hint: write e.g. --period 3\n');
@@ -77,9 +79,35 @@ describe('error channels', () => {
     expect(bug.exitCode).toBe(3);
     expect(bug.stderr).toMatch(/internal error \(this is a bug in orbitseal, not in your input\): TypeError/);
     expect(bug.stderr).not.toMatch(/\n\s+at /);
-    expect(errorResult(new NotAvailableError('the prover')).exitCode).toBe(3);
-    // an error from another layer that only looks like a user error by name and code
-    const searchErr = Object.assign(new Error('period must be positive'), { name: 'SearchOptionError', code: 'bad-period', hint: 'use 1 or more' });
-    expect(errorResult(searchErr)).toEqual({ stdout: '', stderr: 'error [bad-period]: period must be positive\n  hint: use 1 or more\n', exitCode: 2 });
+    // a user error from another layer (a UserError subclass): rendered once, code and hint not repeated
+    const searchErr = new SearchOptionError('bad-near', 'near', '[1]', 'expected 2 finite numbers', 'give one number per state variable');
+    expect(errorResult(searchErr)).toEqual({
+      stdout: '',
+      stderr: 'error [bad-near] in near "[1]": expected 2 finite numbers\n  hint: give one number per state variable\n',
+      exitCode: 2,
+    });
+    // only the class counts: an Error that merely carries a user-error name and code is a bug
+    const lookalike = Object.assign(new Error('period must be positive'), { name: 'SearchOptionError', code: 'bad-period', hint: 'use 1 or more' });
+    expect(errorResult(lookalike).exitCode).toBe(3);
+  });
+});
+
+describe('the checker reports its own bugs as internal errors, never as a verdict', () => {
+  it('an exception inside the checker throws CheckerInternalError (exit 3), not REJECTED', () => {
+    // a parsed document whose property access throws: not a property of any certificate text
+    const hostile = {
+      get format(): string {
+        throw new TypeError('boom');
+      },
+    };
+    let thrown: unknown;
+    try {
+      checkCertificate(hostile);
+    } catch (e) {
+      thrown = e;
+    }
+    expect(thrown).toBeInstanceOf(CheckerInternalError);
+    expect(errorResult(thrown).exitCode).toBe(3);
+    expect(errorResult(thrown).stderr).toMatch(/internal error .*internal checker error \(please report\): TypeError: boom/);
   });
 });

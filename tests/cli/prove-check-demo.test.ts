@@ -42,7 +42,7 @@ describe('orbitseal prove', () => {
     expect((await runCli(argv)).exitCode).toBe(0);
     const again = await runCli(argv);
     expect(again.exitCode).toBe(2);
-    expect(again.stderr).toMatch(/CERT_EXISTS[\s\S]*already exists[\s\S]*--force/);
+    expect(again.stderr).toMatch(/cert-exists[\s\S]*already exists[\s\S]*--force/);
     const forced = await runCli([...argv, '--force']);
     expect(forced.exitCode).toBe(0);
   });

@@ -134,7 +134,7 @@ describe('findCandidates on the logistic map (@heuristic)', () => {
     try {
       findCandidates(map, { period: 2.5 });
     } catch (e) {
-      expect((e as SearchOptionError).code).toBe('SEARCH_BAD_PERIOD');
+      expect((e as SearchOptionError).code).toBe('bad-period');
       expect((e as SearchOptionError).path).toBe('period');
     }
     expect(() => findCandidates(map, { period: 2, near: [0.1, 0.2] })).toThrow(SearchOptionError);

@@ -3,8 +3,7 @@ import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
 import { parseDigits } from '../options.js';
-import * as lib from '../library.js';
-import type { CheckReportLike } from '../library.js';
+import { checkPaths, type CheckReport } from '../../checker/index.js';
 
 export interface CheckCommandOptions {
   digits?: string;
@@ -22,8 +21,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const checker = await lib.checker();
-  const reports = (await checker.checkPaths(absolute, digits ? { digits } : {})).map(clarifyReport);
+  const reports = (checkPaths(absolute, digits ? { digits } : {})).map(clarifyReport);
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
@@ -38,7 +36,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
  * A JSON file without a "format" key is no certificate at all: say so instead of the checker's
  * "unknown format undefined". (Rewrites only that one reason; verdicts are never changed.)
  */
-export function clarifyReport(r: CheckReportLike): CheckReportLike {
+export function clarifyReport(r: CheckReport): CheckReport {
   if (r.verdict !== 'VERIFIED' && r.path === '$.format' && /^unknown format undefined\b/.test(r.reason ?? '')) {
     return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
   }
@@ -46,7 +44,7 @@ export function clarifyReport(r: CheckReportLike): CheckReportLike {
 }
 
 /** Pure renderer: one row per certificate, then a count line. */
-export function renderCheck(reports: readonly CheckReportLike[], cwd: string): string {
+export function renderCheck(reports: readonly CheckReport[], cwd: string): string {
   const rows = reports.map((r) => {
     const file = r.file ? relative(cwd, r.file) || r.file : '(input)';
     const detail =
@@ -56,7 +54,7 @@ export function renderCheck(reports: readonly CheckReportLike[], cwd: string): s
     const timing = r.elapsedMs !== undefined ? `${Math.round(r.elapsedMs)} ms` : '';
     return [r.verdict, file.startsWith('..') ? r.file ?? file : file, detail, timing];
   });
-  const n = (v: CheckReportLike['verdict']) => reports.filter((r) => r.verdict === v).length;
+  const n = (v: CheckReport['verdict']) => reports.filter((r) => r.verdict === v).length;
   return [
     table(['verdict', 'certificate', 'detail', 'time'], rows),
     '',

@@ -1,7 +1,8 @@
 import { existsSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import type { CompiledMap, MapDefinition, ParamValue } from '../../model/types.js';
-import * as lib from '../library.js';
+import { compileAnyMap } from '../../flow/compile.js';
+import { parseParamOverride, resolveMap } from '../../model/index.js';
 
 export interface LoadedMap {
   def: MapDefinition;
@@ -20,15 +21,14 @@ export function mapArgFrom(mapArg: string, cwd: string): string {
 }
 
 /** Resolve a catalogue name or map file, apply `--param` overrides, compile. User errors throw. */
-export async function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd = process.cwd()): Promise<LoadedMap> {
-  const model = await lib.model();
+export function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd = process.cwd()): LoadedMap {
   const overrides: Record<string, ParamValue> = {};
   for (const text of paramTexts) {
-    const o = model.parseParamOverride(text);
+    const o = parseParamOverride(text);
     overrides[o.name] = o.value;
   }
-  const def = await model.resolveMap(mapArgFrom(mapArg, cwd));
-  const compiled = model.compileMap(def, overrides);
+  const def = resolveMap(mapArgFrom(mapArg, cwd));
+  const compiled = compileAnyMap(def, overrides); // formula maps and flow maps alike
   return { def, overrides, compiled };
 }
 

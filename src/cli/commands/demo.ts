@@ -1,55 +1,18 @@
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult, type ExitCode } from '../errors.js';
+import { resolve } from 'node:path';
+import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { formatInterval } from '../format.js';
-import * as lib from '../library.js';
-import { certifyOrbits, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
-import { DEMO_SCENARIOS } from '../demo-scenario.js';
+import { statusLabel, type OrbitOutcome } from '../../workflow/certify.js';
+import { runDemo, type DemoReport } from '../../workflow/demo.js';
+import { DEMO_SCENARIOS } from '../../workflow/demo-scenario.js';
 
 export interface DemoCommandOptions {
   out?: string;
   json?: boolean;
 }
 
-export interface DemoRun {
-  scenario: string;
-  story: string;
-  report: CertifyReport;
-}
-
-export interface DemoReport {
-  outDir: string;
-  runs: DemoRun[];
-  elapsedMs: number;
-  exitCode: ExitCode;
-}
-
-/** The demo as a library call: prove the built-in scenarios' orbits into `outDir`. */
-export async function runDemo(outDir?: string): Promise<DemoReport> {
-  const t0 = performance.now();
-  const model = await lib.model();
-  const dir = outDir ?? mkdtempSync(join(tmpdir(), 'orbitseal-demo-'));
-  const runs: DemoRun[] = [];
-  for (const scenario of DEMO_SCENARIOS) {
-    const def = model.parseMapSource(scenario.yaml, scenario.origin);
-    const compiled = model.compileMap(def);
-    for (const task of scenario.tasks) {
-      const report = await certifyOrbits(def, compiled, {
-        period: task.period,
-        outDir: dir,
-        all: true,
-        force: outDir !== undefined,
-      });
-      runs.push({ scenario: def.title, story: task.story, report });
-    }
-  }
-  const ok = runs.every((r) => r.report.exitCode === EXIT_OK);
-  return { outDir: dir, runs, elapsedMs: performance.now() - t0, exitCode: ok ? EXIT_OK : EXIT_NOT_PROVEN };
-}
-
 export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
   const d = await runDemo(o.out !== undefined ? resolve(cwd, o.out) : undefined);
+  const exitCode = d.allProven ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
     const doc = {
       outDir: d.outDir,
@@ -66,11 +29,11 @@ export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): P
           reason: x.reason,
         })),
       })),
-      exitCode: d.exitCode,
+      exitCode,
     };
-    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode: d.exitCode };
+    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
   }
-  return { stdout: renderDemo(d) + '\n', stderr: '', exitCode: d.exitCode };
+  return { stdout: renderDemo(d) + '\n', stderr: '', exitCode };
 }
 
 function orbitText(o: OrbitOutcome, state: string[]): string {

@@ -1,8 +1,7 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
 import { parseNear, parsePeriod } from '../options.js';
-import * as lib from '../library.js';
-import type { CandidateLike } from '../library.js';
+import { findCandidates, type Candidate } from '../../search/index.js';
 import { loadMap, paramsLine } from './common.js';
 
 export interface FindCommandOptions {
@@ -19,10 +18,9 @@ export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
 
 export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
-  const search = await lib.search();
-  const cands = search.findCandidates(compiled, near ? { period, near } : { period });
+  const cands = findCandidates(compiled, near ? { period, near } : { period });
   const exitCode = cands.length > 0 ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
     const doc = {
@@ -49,7 +47,7 @@ function multiplierText(m: unknown): string {
 }
 
 /** Pure renderer for `find`. Numbers here are floats, labelled with ≈. */
-export function renderFind(cands: readonly CandidateLike[], header: string, state: string[], period: number): string {
+export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number): string {
   const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period ${period}`];
   if (cands.length === 0) {
     lines.push('none found in the region. hint: try --near x,... or another --period.');

@@ -1,9 +1,9 @@
 import { relative, resolve } from 'node:path';
-import { UsageError, type CommandResult } from '../errors.js';
+import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, shortDown, table, widthUp } from '../format.js';
-import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
-import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../pipeline.js';
-import { iterateFromStart } from '../start.js';
+import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
+import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
 
 export interface ProveCommandOptions {
@@ -24,7 +24,7 @@ export interface ProveCommandOptions {
 /** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
 export type ProgressSink = (text: string) => void;
 
-export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
+export { DEFAULT_OUT_DIR } from '../options.js';
 
 /** Show at most this many orbit points in the table; the certificate has them all. */
 const MAX_POINTS_SHOWN = 6;
@@ -36,7 +36,7 @@ export async function proveCommand(
   progressSink?: ProgressSink,
 ): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
+  const maxBits = o.maxBits !== undefined ? parseMaxBits(o.maxBits) : undefined;
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
   if (limit !== undefined && o.all) {
@@ -45,9 +45,9 @@ export async function proveCommand(
   if (o.start !== undefined && (o.near !== undefined || o.all || limit !== undefined)) {
     throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
   }
-  const { def, overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
-  const start = o.start !== undefined ? iterateFromStart(compiled, parseStart(o.start, compiled.dim), period) : undefined;
+  const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
   let shown = false;
   const progress = progressSink
@@ -60,7 +60,7 @@ export async function proveCommand(
     period,
     outDir,
     ...(near ? { near } : {}),
-    ...(start ? { start } : {}),
+    ...(startPoint ? { startPoint } : {}),
     ...(limit !== undefined ? { limit } : {}),
     ...(progress ? { progress } : {}),
     all: o.all ?? false,
@@ -71,9 +71,15 @@ export async function proveCommand(
     overrides,
   });
   if (shown) progressSink?.('\r\x1b[K');
-  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode: report.exitCode };
+  const exitCode = proveExitCode(report);
+  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode: report.exitCode };
+  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode };
+}
+
+/** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
+export function proveExitCode(r: CertifyReport): ExitCode {
+  return r.allProven ? EXIT_OK : EXIT_NOT_PROVEN;
 }
 
 /** The `--json` document of a prove run. */
@@ -106,7 +112,7 @@ export function proveJson(r: CertifyReport): Record<string, unknown> {
         ? { check: { verdict: o.check.verdict, reason: o.check.reason, claimsVerified: o.check.claimsVerified } }
         : {}),
     })),
-    exitCode: r.exitCode,
+    exitCode: proveExitCode(r),
   };
 }
 

@@ -11,7 +11,7 @@ export interface ShowCommandOptions {
 }
 
 export async function showCommand(mapArg: string, o: ShowCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
-  const { overrides, compiled } = await loadMap(mapArg, o.param ?? [], cwd);
+  const { overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const description = describeMap(compiled, intervalArithmetic());
   if (o.json) {
     return { stdout: JSON.stringify(description, null, 2) + '\n', stderr: '', exitCode: EXIT_OK };

@@ -1,21 +1,22 @@
 /**
  * The `prove` workflow as a library call (no process I/O): search candidates, prove each, write
  * one certificate per proven orbit, and re-verify each written file with the independent checker.
- * The CLI's `prove` and `demo` commands are this function plus rendering.
+ * The CLI's `prove` and `demo` commands are this function plus rendering and an exit code.
  */
 import { join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
-import type { ProvenOrbit } from '../prove/types.js';
 import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
-import type { CandidateCoordinate } from '../prove/orbit.js';
+import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
-import { EXIT_NOT_PROVEN, EXIT_OK, type ExitCode } from './errors.js';
-import * as lib from './library.js';
-import type { CandidateLike, CheckReportLike } from './library.js';
+import type { CandidateCoordinate } from '../prove/orbit.js';
+import { proveOrbit } from '../prove/index.js';
+import type { ProvenOrbit } from '../prove/types.js';
+import { candidatesByDistance, findCandidates, type Candidate } from '../search/index.js';
+import { iterateFromStart } from './start.js';
 
 export interface CertifyOptions {
   period: number;
-  /** Prove only the candidate nearest this point (unless `all`). */
+  /** Prove only the candidate nearest this point (max-norm, search/nearest.ts; unless `all`). */
   near?: number[];
   /** Prove every candidate: no `limit`, and not only the nearest to `near`. */
   all?: boolean;
@@ -29,6 +30,11 @@ export interface CertifyOptions {
    * taken exactly as the starting point of the prover's refinement).
    */
   start?: CandidateCoordinate[][];
+  /**
+   * Skip the search and prove the orbit through this ONE point (n exact decimal strings): the
+   * other p − 1 points come from `iterateFromStart` (multiprecision). Ignored when `start` is given.
+   */
+  startPoint?: readonly string[];
   /** Called before each proof attempt (1-based `attempt` of `total`); for a progress display. */
   progress?: (attempt: number, total: number) => void;
   /** Folder for certificates; created when missing. */
@@ -52,13 +58,13 @@ export type OrbitStatus = 'verified' | 'prover-only' | 'rejected-by-checker' | '
 export interface OrbitOutcome {
   /** 1-based, in candidate order. */
   index: number;
-  candidate: CandidateLike;
+  candidate: Candidate;
   status: OrbitStatus;
   /** Why not proven / why the checker rejected. */
   reason?: string;
   orbit?: ProvenOrbit;
   certificatePath?: string;
-  check?: CheckReportLike;
+  check?: CheckReport;
 }
 
 export interface CertifyReport {
@@ -77,7 +83,11 @@ export interface CertifyReport {
   outcomes: OrbitOutcome[];
   outDir: string;
   checked: boolean;
-  exitCode: ExitCode;
+  /**
+   * At least one orbit attempted, and every attempted one proven (and re-verified, when the
+   * checker ran) with minimal period `period`. The CLI maps false to exit code 1.
+   */
+  allProven: boolean;
 }
 
 /** The human label for a status; "proven" appears only for orbits the prover proved. */
@@ -110,17 +120,11 @@ function startDrift(start: readonly CandidateCoordinate[], centre: readonly (rea
   return best;
 }
 
-function distance2(a: readonly number[], b: readonly number[]): number {
-  let s = 0;
-  for (let i = 0; i < a.length; i++) s += (a[i]! - b[i]!) ** 2;
-  return s;
-}
-
 /**
  * A user-given starting orbit as a candidate for display: float copies of the points. Not a search
  * result, so there is no residual or multiplier estimate (NaN / empty).
  */
-function startCandidate(period: number, start: readonly (readonly CandidateCoordinate[])[]): CandidateLike {
+function startCandidate(period: number, start: readonly (readonly CandidateCoordinate[])[]): Candidate {
   return {
     period,
     points: start.map((pt) => pt.map((v) => (typeof v === 'number' ? v : Number(v)))),
@@ -128,22 +132,6 @@ function startCandidate(period: number, start: readonly (readonly CandidateCoord
     multipliers: [],
     stabilityGuess: 'neutral',
   };
-}
-
-/** @heuristic the candidate with an orbit point closest (Euclidean, floats) to `near`. */
-export function nearestCandidateIndex(cands: readonly CandidateLike[], near: readonly number[]): number {
-  let best = -1;
-  let bestD = Infinity;
-  cands.forEach((c, i) => {
-    for (const pt of c.points) {
-      const d = distance2(pt, near);
-      if (d < bestD) {
-        bestD = d;
-        best = i;
-      }
-    }
-  });
-  return best;
 }
 
 function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamValue>): string[] {
@@ -157,41 +145,28 @@ export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
-/** @heuristic candidate indices sorted by float distance of their nearest point to `near` (stable). */
-export function candidatesByDistance(cands: readonly CandidateLike[], near: readonly number[]): number[] {
-  const d = cands.map((c) => {
-    let best = Infinity;
-    for (const pt of c.points) best = Math.min(best, distance2(pt, near));
-    return best;
-  });
-  return cands.map((_, i) => i).sort((a, b) => d[a]! - d[b]! || a - b);
-}
-
-/** Search, prove, write and re-check. Throws only user errors (e.g. CERT_EXISTS) and bugs. */
+/** Search, prove, write and re-check. Throws only user errors (e.g. cert-exists) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
   compiled: CompiledMap,
   opts: CertifyOptions,
 ): Promise<CertifyReport> {
-  const search = await lib.search();
-  const prover = await lib.prove();
   const checkOn = opts.check !== false;
-  const checker = checkOn ? await lib.checker() : undefined;
 
   // fail before long work when certificates could not be written
   checkDirectoryUsable(opts.outDir);
 
-  let found: CandidateLike[];
-  let startPoints: CandidateCoordinate[][] | undefined;
-  if (opts.start) {
-    startPoints = opts.start;
-    found = [startCandidate(opts.period, opts.start)];
+  let found: Candidate[];
+  const startPoints: CandidateCoordinate[][] | undefined =
+    opts.start ?? (opts.startPoint ? iterateFromStart(compiled, opts.startPoint, opts.period) : undefined);
+  if (startPoints) {
+    found = [startCandidate(opts.period, startPoints)];
   } else {
-    found = search.findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
+    found = findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
   }
   const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
   const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);
-  const chosen: CandidateLike[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
+  const chosen: Candidate[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
   const outcomes: OrbitOutcome[] = [];
   let k = 0;
@@ -199,7 +174,7 @@ export async function certifyOrbits(
     const index = outcomes.length + 1;
     opts.progress?.(index, chosen.length);
     const points = startPoints ?? candidate.points;
-    const verdict = prover.proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
+    const verdict = proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
       outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
@@ -212,10 +187,10 @@ export async function certifyOrbits(
       force: opts.force ?? false,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
-    if (checker && def.flow !== undefined) {
+    if (checkOn && def.flow !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
-    } else if (checker) {
-      const [report] = await checker.checkPaths([path], opts.digits ? { digits: opts.digits } : {});
+    } else if (checkOn) {
+      const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;
       if (report.verdict === 'VERIFIED') outcome.status = 'verified';
@@ -246,7 +221,7 @@ export async function certifyOrbits(
     map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
     period: opts.period,
     candidatesFound: found.length,
-    source: opts.start ? 'start' : 'search',
+    source: startPoints ? 'start' : 'search',
     intervalParams: intervalParamNames(def, opts.overrides ?? {}),
     unattempted: found.length - chosen.length,
     limit,
@@ -254,6 +229,6 @@ export async function certifyOrbits(
     outcomes,
     outDir: opts.outDir,
     checked: checkOn,
-    exitCode: allGood ? EXIT_OK : EXIT_NOT_PROVEN,
+    allProven: allGood,
   };
 }
