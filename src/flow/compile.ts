@@ -38,6 +38,11 @@ export function compileAnyMap(def: MapDefinition, overrides?: ParamOverrides, op
   return def.flow !== undefined ? compileFlowMap(def, overrides, opts) : compileMap(def, overrides);
 }
 
+/**
+ * Validates a flow definition (`def.flow`), applies `overrides` and returns its time-T map or
+ * return map as a `CompiledMap` (interval image and Jacobian from the validated integrator;
+ * float methods @heuristic). Throws `MapLanguageError` for user mistakes.
+ */
 export function compileFlowMap(def: MapDefinition, overrides?: ParamOverrides, opts: IntegratorOptions = {}): FlowMap {
   const checked = checkedWithOverrides(def, overrides);
   const definition = checked.definition;

@@ -315,7 +315,7 @@ export class ValidatedFlow<T> {
     if (!found) return false;
     this.lastApriori = Y;
     // a priori W for Dφ on [0, h]: I + [0,h]·DF(Y)·W ⊂ int W
-    let W: T[] | null = null;
+    let W: T[];
     const Yd = new Array<Dual<T>>(n);
     if (this.withJac) {
       for (let i = 0; i < n; i++) Yd[i] = D.variable(Y[i]!, i);

@@ -69,10 +69,6 @@ export function paramBounds(v: ParamValue): ParamEnclosure {
 }
 
 /**
- * Validates `def`, applies `overrides` (each must name an existing parameter: `unknown-parameter`
- * otherwise) and compiles. Throws `MapLanguageError` for user mistakes.
- */
-/**
  * Validates `def` and applies `overrides` (each must name an existing parameter:
  * `unknown-parameter` otherwise). Shared by formula maps and flow maps (src/flow).
  */
@@ -88,6 +84,11 @@ export function checkedWithOverrides(def: MapDefinition, overrides?: ParamOverri
   return checked;
 }
 
+/**
+ * Validates `def`, applies `overrides` and compiles a formula map. Throws `MapLanguageError` for
+ * user mistakes, including a definition with a `flow` (compile those with src/flow's
+ * `compileAnyMap` or `compileFlowMap`).
+ */
 export function compileMap(def: MapDefinition, overrides?: ParamOverrides): FormulaMap {
   const checked = checkedWithOverrides(def, overrides);
   const definition = checked.definition;
