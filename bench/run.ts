@@ -3,6 +3,7 @@
  * as FAILED (exit code 1) and the others still run.
  */
 import { runCheckBench } from './check-bench.js';
+import { runCountBench } from './count-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runFlowBench } from './flow-bench.js';
 import { runIntervalBench } from './interval-bench.js';
@@ -25,6 +26,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'candidate search', file: 'bench/search-bench.ts', run: runSearchBench },
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
+  { title: 'orbit counting', file: 'bench/count-bench.ts', run: runCountBench },
   { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
   { title: 'flow integrator', file: 'bench/flow-bench.ts', run: runFlowBench },
