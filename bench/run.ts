@@ -6,6 +6,7 @@ import { runCheckBench } from './check-bench.js';
 import { runEvalBench } from './eval-bench.js';
 import { runCountBench } from './count-bench.js';
 import { runExprBench } from './expr-bench.js';
+import { runFlowBench } from './flow-bench.js';
 import { runIntervalBench } from './interval-bench.js';
 import { runLongBench } from './long-bench.js';
 import { runMathAccuracyBench } from './math-accuracy-bench.js';
@@ -30,6 +31,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'orbit counting', file: 'bench/count-bench.ts', run: runCountBench },
   { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
+  { title: 'flow integrator', file: 'bench/flow-bench.ts', run: runFlowBench },
 ];
 
 async function main(): Promise<void> {

@@ -27,8 +27,18 @@ export interface CertificateMap {
   /** Variable order = vector order. */
   state: string[];
   params: Record<string, CertificateParam>;
-  /** State variable → formula source text (map language). */
+  /** State variable → formula source text (map language); empty for a flow map. */
   step: Record<string, string>;
+  /**
+   * For a map from a flow (kind "flow-periodic-orbit"): right-hand sides, time variable,
+   * duration or section, as source text. The checker does not re-verify flows yet.
+   */
+  flow?: {
+    rhs: Record<string, string>;
+    time?: string;
+    duration?: string;
+    section?: { surface: string; crossing: 'increasing' | 'decreasing' };
+  };
 }
 
 export interface CertificateOrbit {
@@ -80,7 +90,8 @@ export interface CertificateProducer {
 export interface CertificateV1 {
   format: 'orbitseal-certificate';
   formatVersion: 1;
-  kind: 'periodic-orbit';
+  /** 'flow-periodic-orbit': the map is a time-T or return map of an ODE (`map.flow`). */
+  kind: 'periodic-orbit' | 'flow-periodic-orbit';
   producer: CertificateProducer;
   map: CertificateMap;
   period: number;

@@ -10,14 +10,32 @@ export type ParamValue =
   | { kind: 'exact'; value: string }
   | { kind: 'interval'; lo: string; hi: string };
 
+/**
+ * A map that comes from an ODE x' = F(t, x) (DESIGN.md §7): either the time-T map (`duration`)
+ * or the return map to the section {g = 0} crossed in the given direction (`section`).
+ * Formulas are source text, like `step`.
+ */
+export interface FlowSpec {
+  /** State variable → right-hand side of its ODE. */
+  rhs: Record<string, string>;
+  /** Name of the time variable (forced systems); absent for autonomous flows. */
+  time?: string;
+  /** Time-T map: the duration T, a formula of the parameters (e.g. 2*pi/omega). */
+  duration?: string;
+  /** Return map: surface formula g(state) and the sign of g' at the crossings counted. */
+  section?: { surface: string; crossing: 'increasing' | 'decreasing' };
+}
+
 export interface MapDefinition {
   title: string;
   /** State variable names, in vector order. */
   state: string[];
   /** Parameter name → exact value, as decimal source text (never via a double). */
   params: Record<string, ParamValue>;
-  /** State variable → formula source text of its next value. */
+  /** State variable → formula source text of its next value (empty for a flow map). */
   step: Record<string, string>;
+  /** Present when the map is a time-T or return map of an ODE; `step` is then empty. */
+  flow?: FlowSpec;
   /** State variable → [lo, hi] decimal strings: where searches and counts look. */
   region: Record<string, [string, string]>;
   /** Where it came from: a file path, or `catalogue:NAME`. */
@@ -55,14 +73,15 @@ export interface CompiledMap {
    * Float64 interval image of a box, allocation-free: box[2i], box[2i+1] = lo, hi of x_i, and
    * out the same layout for f_i. Encloses f over the box (outward rounding, generated code from the
    * checked tape; the tape evaluator's kernel decides every special case). Returns `BOX_*` flags
-   * (0: continuous on the whole box, no assumption).
+   * (0: continuous on the whole box, no assumption). Absent for maps without generated code
+   * (e.g. flows, src/flow/): use `evaluator(intervalArithmetic())` there.
    */
-  intervalImage(box: Float64Array, out: Float64Array): number;
+  intervalImage?(box: Float64Array, out: Float64Array): number;
   /**
    * `intervalImage` plus jac[2(i·n + j)], jac[2(i·n + j) + 1] = lo, hi of an enclosure of
    * ∂f_i/∂x_j over the whole box (for abs/min/max a slope enclosure, flag `BOX_NONSMOOTH`).
    */
-  intervalJacobian(box: Float64Array, out: Float64Array, jac: Float64Array): number;
+  intervalJacobian?(box: Float64Array, out: Float64Array, jac: Float64Array): number;
 }
 
 /** Flag of `intervalImage`/`intervalJacobian`: some operation left its domain of continuity (or overflowed). */

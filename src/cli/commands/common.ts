@@ -1,7 +1,8 @@
 import { existsSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import type { CompiledMap, MapDefinition, ParamValue } from '../../model/types.js';
-import { compileMap, parseParamOverride, resolveMap } from '../../model/index.js';
+import { compileAnyMap } from '../../flow/compile.js';
+import { parseParamOverride, resolveMap } from '../../model/index.js';
 
 export interface LoadedMap {
   def: MapDefinition;
@@ -27,7 +28,7 @@ export function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd 
     overrides[o.name] = o.value;
   }
   const def = resolveMap(mapArgFrom(mapArg, cwd));
-  const compiled = compileMap(def, overrides);
+  const compiled = compileAnyMap(def, overrides); // formula maps and flow maps alike
   return { def, overrides, compiled };
 }
 
