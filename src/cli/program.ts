@@ -31,6 +31,7 @@ export interface RunContext {
   progress?: (text: string) => void;
 }
 
+const EFFORT_HELP = 'multiply the float search effort by E (default 1; it already grows with the period and the map\'s expansion)';
 const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
 
 /**
@@ -79,6 +80,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'minimal period')
     .option('--near <x,y,...>', 'look near this point')
+    .option('--effort <E>', EFFORT_HELP)
     .option('--param <name=value>', PARAM_HELP, collect)
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
@@ -91,10 +93,12 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .description('prove periodic orbits, write a certificate for each, and re-check each with the independent checker')
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'period of the orbits to prove')
-    .option('--near <x,y,...>', 'prove only the candidate nearest this point (with --limit N: the N nearest)')
-    .option('--limit <N>', 'prove at most N candidates (default 20; nearest to --near first)')
-    .option('--all', 'prove every candidate found (no limit)')
+    .option('--near <x,y,...>', 'prove the orbit through this point, else the candidate nearest it (with --limit N: the N nearest)')
+    .option('--limit <N>', 'prove at most N candidates (default 20; nearest to --near first); the search stops once N exist')
+    .option('--all', 'prove every candidate this search found (not a proof that there are no others)')
+    .option('--effort <E>', EFFORT_HELP)
     .option('--start <x0,y0,...>', 'prove the orbit through this one point (exact decimals, any number of digits); no search')
+    .option('--points <file>', 'prove the orbit approximated by these p points (CSV one point per line, or JSON); no search')
     .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
     .option('--force', 'replace existing certificate files')
     .option('--max-bits <B>', 'highest working precision for precision escalation')
@@ -159,6 +163,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .description('re-verify certificates with the independent checker: VERIFIED / REJECTED / UNREADABLE')
     .argument('<paths...>', 'certificate files or folders (all *.json inside)')
     .option('--digits <D>', 'decimal digits for the checker')
+    .option('--max-work <W>', 'refuse certificates whose estimated work exceeds W units (default 2e8, minutes)')
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;

@@ -2,11 +2,12 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
-import { parseDigits } from '../options.js';
-import { checkPaths, type CheckReport } from '../../checker/index.js';
+import { parseDigits, parseMaxWork } from '../options.js';
+import { checkPathsReporting, type CheckReport, type SkippedEntry } from '../../checker/index.js';
 
 export interface CheckCommandOptions {
   digits?: string;
+  maxWork?: string;
   json?: boolean;
 }
 
@@ -15,21 +16,24 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
+  const maxWork = o.maxWork !== undefined ? parseMaxWork(o.maxWork) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
   absolute.forEach((p, i) => {
     if (!existsSync(p)) {
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const reports = (checkPaths(absolute, digits ? { digits } : {})).map(clarifyReport);
+  const checked = checkPathsReporting(absolute, { ...(digits ? { digits } : {}), ...(maxWork ? { limits: { maxWork } } : {}) });
+  const reports = checked.reports.map(clarifyReport);
+  const skipped = checked.skipped;
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
   const exitCode: ExitCode = reports.every((r) => r.verdict === 'VERIFIED') ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
-    return { stdout: JSON.stringify({ reports, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+    return { stdout: JSON.stringify({ reports, skipped, exitCode }, null, 2) + '\n', stderr: '', exitCode };
   }
-  return { stdout: renderCheck(reports, cwd) + '\n', stderr: '', exitCode };
+  return { stdout: renderCheck(reports, cwd) + renderSkipped(skipped, cwd) + '\n', stderr: '', exitCode };
 }
 
 /**
@@ -41,6 +45,13 @@ export function clarifyReport(r: CheckReport): CheckReport {
     return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
   }
   return r;
+}
+
+/** What a folder held that was not read, one line each ('' when nothing was skipped). */
+export function renderSkipped(skipped: readonly SkippedEntry[], cwd: string): string {
+  if (skipped.length === 0) return '';
+  const lines = skipped.map((s) => `  ${relative(cwd, s.file).startsWith('..') ? s.file : relative(cwd, s.file)}: ${s.reason}`);
+  return `\n${skipped.length} entr${skipped.length === 1 ? 'y' : 'ies'} skipped (not checked):\n${lines.join('\n')}`;
 }
 
 /** Pure renderer: one row per certificate, then a count line. */

@@ -1,6 +1,6 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
-import { parseNear, parsePeriod } from '../options.js';
+import { parseEffort, parseNear, parsePeriod } from '../options.js';
 import { findCandidates, type Candidate } from '../../search/index.js';
 import { loadMap, paramsLine } from './common.js';
 
@@ -9,6 +9,7 @@ export interface FindCommandOptions {
   near?: string;
   json?: boolean;
   param?: string[];
+  effort?: string;
 }
 
 /** The human table lists at most this many candidates; `--json` has them all. */
@@ -20,7 +21,8 @@ export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = p
   const period = parsePeriod(o.period);
   const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
-  const cands = findCandidates(compiled, near ? { period, near } : { period });
+  const effort = o.effort !== undefined ? { effort: parseEffort(o.effort) } : {};
+  const cands = findCandidates(compiled, near ? { period, near, ...effort } : { period, ...effort });
   const exitCode = cands.length > 0 ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
     const doc = {
