@@ -17,7 +17,7 @@
 import { Decimal } from 'decimal.js';
 import { COUNT_ALPHABET } from '../certificate/types.js';
 import { ivCtx } from './elementary.js';
-import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
+import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { DomainViolation, Exact, isDecimalLiteral, type Iv, type IvCtx } from './interval.js';
 import { certificateHash } from './json.js';
 import { image, preconditioner, type Precond, type Shooting } from './krawczyk.js';
@@ -79,7 +79,7 @@ export function checkCount(d: Obj, digits: number, limits: CountCheckLimits): vo
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
-  const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
+  const ident = { test: isValidName }; // one identifier rule for prover and checker
   if (new Set(state).size !== n || state.some((s) => !ident.test(s))) reject('$.map.state', 'bad or repeated state names');
   const c = ivCtx(digits);
   const params = new Map<string, Iv>();

@@ -497,6 +497,11 @@ function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { cla
   if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
   if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
   const digits = opts.digits ?? DEFAULT_DIGITS;
+  // as for orbits: no key the checker does not read (a person could read it as a claim)
+  const common = ['format', 'formatVersion', 'kind', 'producer', 'map', 'period', 'parameter', 'sha256'];
+  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : ['range', 'region', 'condition', 'pieces'];
+  onlyKeys(d, [...common, ...own], '$');
+  onlyKeys(obj(d.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
   if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
   else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
   else checkAbsence(d, digits, limits, reject);
@@ -509,6 +514,8 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     // count certificates: checker/count.ts
     const digits = opts.digits ?? DEFAULT_DIGITS;
     if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+    onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'pieceDepth', 'counts', 'sha256'], '$');
+    onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
     checkCount(top, digits, limits);
     return { claims: ['count'], digits };
   }

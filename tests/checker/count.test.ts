@@ -63,6 +63,11 @@ describe('checker: count certificates', () => {
     badSplit.counts[0]!.pieces[0] = 'H' + badSplit.counts[0]!.pieces[0]!;
     expect(checkCertificate(resign(badSplit)).verdict).toBe('REJECTED');
 
+    // an unknown key a person could read as a claim (the schema forbids it; common practice, no source)
+    const noted = clone() as CountCertificateV1 & { note?: string };
+    noted.note = 'every orbit of every period';
+    expect(checkCertificate(resign(noted)).reason).toMatch(/unknown key "note"/);
+
     // any edit without a new hash
     const unsigned = clone();
     unsigned.counts[0]!.claims.zeros = 9;
