@@ -11,6 +11,7 @@ import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
 import { findCommand, type FindCommandOptions } from './commands/find.js';
 import { DEFAULT_OUT_DIR, proveCommand, type ProveCommandOptions } from './commands/prove.js';
 import { showCommand, type ShowCommandOptions } from './commands/show.js';
+import { DEFAULT_REPORT_FILE, reportCommand, type ReportCommandOptions } from './commands/report.js';
 
 export interface RunContext {
   /** Working folder for relative paths (default process.cwd()). */
@@ -43,7 +44,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .addHelpText(
       'after',
       '\nExit codes: 0 all proven / verified, 1 something not proven or rejected, 2 bad input, 3 internal error.\n' +
-        'Examples:\n  orbitseal demo\n  orbitseal show logistic --param r=3.83\n  orbitseal prove logistic --period 3 --param r=3.83\n  orbitseal check orbitseal-proofs/',
+        'Examples:\n  orbitseal demo\n  orbitseal show logistic --param r=3.83\n  orbitseal prove logistic --period 3 --param r=3.83\n  orbitseal check orbitseal-proofs/\n  orbitseal report orbitseal-proofs/ --out report.html',
     );
 
   program
@@ -100,6 +101,20 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
       return run(() => checkCommand(paths, o, cwd))();
+    });
+
+  program
+    .command('report')
+    .description('re-check certificates and write one self-contained HTML page with their claims and plots (no network, no script)')
+    .argument('<paths...>', 'certificate files or folders (all *.json inside)')
+    .option('--out <file>', 'the HTML file to write (replaced if it exists)', DEFAULT_REPORT_FILE)
+    .option('--svg <dir>', 'also write every plot as a stand-alone SVG file into this folder')
+    .option('--title <text>', 'page title')
+    .option('--digits <D>', 'decimal digits for the checker')
+    .option('--json', 'print one JSON document')
+    .action((paths: string[], o: ReportCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(() => reportCommand(paths, o, cwd))();
     });
 
   program
