@@ -25,12 +25,14 @@ const CSS = `
 body{font-family:system-ui,-apple-system,"Segoe UI",sans-serif;color:#111;background:#fff;margin:0 auto;max-width:1120px;padding:16px;line-height:1.45}
 h1{font-size:1.5rem;margin:.2em 0}h2{font-size:1.2rem;margin:1.6em 0 .4em;border-bottom:2px solid #111}h3{font-size:1.05rem}
 .note{color:#333;font-size:.92rem}
+code,h3,a,p{overflow-wrap:anywhere}
+dl.facts dt{overflow-wrap:anywhere}
 .table-wrap{overflow-x:auto}
 table{border-collapse:collapse;font-size:.9rem;width:100%}th,td{border:1px solid #999;padding:4px 6px;text-align:left;vertical-align:top}th{background:#eee}
 .verdict{font-weight:700;white-space:nowrap}.verdict-VERIFIED{color:#14532d}.verdict-REJECTED,.verdict-UNREADABLE{color:#8b0000}
 .claim{background:#f4f4f4;border-left:4px solid #111;padding:8px 12px}
-dl.facts{display:grid;grid-template-columns:max-content 1fr;gap:2px 12px;font-size:.88rem}dl.facts dt{font-weight:600}dl.facts dd{margin:0;overflow-wrap:anywhere;font-family:ui-monospace,monospace}
-.plots{display:flex;flex-wrap:wrap;gap:16px}figure{margin:0;max-width:100%}figure svg{max-width:100%;height:auto;border:1px solid #ccc}
+dl.facts{display:grid;grid-template-columns:minmax(0,max-content) minmax(0,1fr);gap:2px 12px;font-size:.88rem}dl.facts dt{font-weight:600}dl.facts dd{margin:0;overflow-wrap:anywhere;font-family:ui-monospace,monospace}
+.plots{display:flex;flex-wrap:wrap;gap:16px}figure{margin:0;max-width:100%;min-width:0;flex:0 1 auto}figure svg{max-width:100%;height:auto;border:1px solid #ccc}
 figcaption{font-size:.82rem;max-width:360px;color:#333}figure.wide figcaption{max-width:720px}
 section.certificate{border-top:1px solid #bbb;padding-top:4px}
 @media print{section.certificate{break-inside:avoid}}
