@@ -6,6 +6,7 @@ import { Command, CommanderError } from 'commander';
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
 import { collect } from './options.js';
+import { fitText } from './format.js';
 import { checkCommand, type CheckCommandOptions } from './commands/check.js';
 import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
 import { findCommand, type FindCommandOptions } from './commands/find.js';
@@ -18,12 +19,15 @@ export interface RunContext {
   cwd?: string;
   /** Live progress of long commands (main.ts passes stderr only when it is a terminal). */
   progress?: (text: string) => void;
+  /** Terminal width to fit human-readable output to (main.ts: COLUMNS, the terminal, else 80); default no limit. */
+  columns?: number;
 }
 
 const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
 
 export async function runCli(argv: readonly string[], ctx: RunContext = {}): Promise<CommandResult> {
   const cwd = ctx.cwd ?? process.cwd();
+  const columns = ctx.columns ?? Infinity;
   let out = '';
   let err = '';
   let result: CommandResult | undefined;
@@ -55,7 +59,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ShowCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => showCommand(map, o, cwd))();
+      return run(() => showCommand(map, { ...o, columns }, cwd))();
     });
 
   program
@@ -68,7 +72,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => findCommand(map, o, cwd))();
+      return run(() => findCommand(map, { ...o, columns }, cwd))();
     });
 
   program
@@ -89,7 +93,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => proveCommand(map, o, cwd, ctx.progress))();
+      return run(() => proveCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -100,7 +104,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => checkCommand(paths, o, cwd))();
+      return run(() => checkCommand(paths, { ...o, columns }, cwd))();
     });
 
   program
@@ -144,5 +148,6 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     // no command given
     return { stdout: '', stderr: program.helpInformation(), exitCode: EXIT_USAGE };
   }
+  if (!wantsJson && Number.isFinite(columns)) result = { ...result, stdout: fitText(result.stdout, columns) };
   return result;
 }

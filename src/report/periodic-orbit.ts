@@ -4,7 +4,7 @@
  * n ≥ 3), the multiplier / eigenvalue enclosures against the unit circle, and its marks on the
  * bifurcation diagram of a 1-D map. Only ever called for certificates the checker VERIFIED.
  */
-import { formatInterval, shortPoint } from '../certificate/display.js';
+import { formatInterval, formatModulus, shortPoint } from '../certificate/display.js';
 import type { CertificateV1, DecimalInterval, StabilityClass } from '../certificate/types.js';
 import { floatMap, floatFamily } from './map-eval.js';
 import { cobwebPlot, phasePlot, unitCirclePlot, STABILITY_LEGEND, type FloatBox } from './plots.js';
@@ -27,7 +27,7 @@ function stabilitySentence(cert: CertificateV1): string {
     n === 1 && s.multiplier
       ? `multiplier Λ ∈ ${formatInterval(s.multiplier, 6)}`
       : s.eigenvalueModuli
-        ? `eigenvalue moduli ${s.eigenvalueModuli.map((m) => formatInterval(m, 6)).join(', ')}`
+        ? `eigenvalue moduli ${s.eigenvalueModuli.map((m) => formatModulus(m, 6)).join(', ')}`
         : '';
   const all = n === 1 ? '|Λ|' : 'every modulus';
   switch (s.class) {
@@ -133,7 +133,7 @@ function render(raw: object, entryId: string): EntryView {
   if (s.multiplier) facts.push(['multiplier Λ', formatInterval(s.multiplier, 8)]);
   if (s.trace) facts.push(['trace of the monodromy', formatInterval(s.trace, 8)]);
   if (s.determinant) facts.push(['determinant', formatInterval(s.determinant, 8)]);
-  if (s.eigenvalueModuli) facts.push(['eigenvalue moduli', s.eigenvalueModuli.map((m) => formatInterval(m, 8)).join(', ')]);
+  if (s.eigenvalueModuli) facts.push(['eigenvalue moduli', s.eigenvalueModuli.map((m) => formatModulus(m, 8)).join(', ')]);
   facts.push(['uniqueness radius', cert.claims.uniqueness ? cert.claims.uniqueness.radius : 'not claimed']);
   facts.push(['legend', STABILITY_LEGEND]);
 

@@ -8,6 +8,8 @@ import { checkPaths, type CheckReport } from '../../checker/index.js';
 export interface CheckCommandOptions {
   digits?: string;
   json?: boolean;
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
 export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
@@ -29,7 +31,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   if (o.json) {
     return { stdout: JSON.stringify({ reports, exitCode }, null, 2) + '\n', stderr: '', exitCode };
   }
-  return { stdout: renderCheck(reports, cwd) + '\n', stderr: '', exitCode };
+  return { stdout: renderCheck(reports, cwd, o.columns) + '\n', stderr: '', exitCode };
 }
 
 /**
@@ -44,7 +46,7 @@ export function clarifyReport(r: CheckReport): CheckReport {
 }
 
 /** Pure renderer: one row per certificate, then a count line. */
-export function renderCheck(reports: readonly CheckReport[], cwd: string): string {
+export function renderCheck(reports: readonly CheckReport[], cwd: string, width = Infinity): string {
   const rows = reports.map((r) => {
     const file = r.file ? relative(cwd, r.file) || r.file : '(input)';
     const detail =
@@ -56,7 +58,7 @@ export function renderCheck(reports: readonly CheckReport[], cwd: string): strin
   });
   const n = (v: CheckReport['verdict']) => reports.filter((r) => r.verdict === v).length;
   return [
-    table(['verdict', 'certificate', 'detail', 'time'], rows),
+    table(['verdict', 'certificate', 'detail', 'time'], rows, width),
     '',
     `${n('VERIFIED')} verified, ${n('REJECTED')} rejected, ${n('UNREADABLE')} unreadable (independent checker, decimal interval arithmetic)`,
   ].join('\n');

@@ -1,6 +1,6 @@
 import { resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
-import { formatInterval } from '../format.js';
+import { formatInterval, formatModulus } from '../format.js';
 import { statusLabel, type OrbitOutcome } from '../../workflow/certify.js';
 import { runDemo, type DemoReport } from '../../workflow/demo.js';
 import { DEMO_SCENARIOS } from '../../workflow/demo-scenario.js';
@@ -45,7 +45,7 @@ function orbitText(o: OrbitOutcome, state: string[]): string {
   const stab = s.multiplier
     ? `multiplier Λ ∈ ${formatInterval(s.multiplier, 6)}`
     : s.eigenvalueModuli
-      ? `|eigenvalues| ∈ ${s.eigenvalueModuli.map((m) => formatInterval(m, 6)).join(', ')}`
+      ? `|eigenvalues| ∈ ${s.eigenvalueModuli.map((m) => formatModulus(m, 6)).join(', ')}`
       : '';
   return `${state.length === 1 ? state[0] + ' ∈ ' : `(${state.join(', ')}) ∈ `}${pts.join(' → ')}${stab ? `, ${stab}` : ''}, ${s.class}`;
 }

@@ -9,6 +9,8 @@ export interface FindCommandOptions {
   near?: string;
   json?: boolean;
   param?: string[];
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
 /** The human table lists at most this many candidates; `--json` has them all. */
@@ -34,7 +36,7 @@ export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = p
     return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
   }
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderFind(cands, header, def.state, period) + '\n', stderr: '', exitCode };
+  return { stdout: renderFind(cands, header, def.state, period, o.columns) + '\n', stderr: '', exitCode };
 }
 
 function multiplierText(m: unknown): string {
@@ -47,7 +49,7 @@ function multiplierText(m: unknown): string {
 }
 
 /** Pure renderer for `find`. Numbers here are floats, labelled with ≈. */
-export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number): string {
+export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number, width = Infinity): string {
   const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period ${period}`];
   if (cands.length === 0) {
     lines.push('none found in the region. hint: try --near x,... or another --period.');
@@ -67,7 +69,7 @@ export function renderFind(cands: readonly Candidate[], header: string, state: s
     c.residual.toExponential(1),
   ]);
   lines.push('');
-  lines.push(table(['#', `points (${state.join(', ')})`, 'multipliers ≈', 'stability', 'residual'], rows));
+  lines.push(table(['#', `points (${state.join(', ')})`, 'multipliers ≈', 'stability', 'residual'], rows, width));
   if (cands.length > listed.length) lines.push(`… ${cands.length - listed.length} more; use --json for all`);
   lines.push('');
   lines.push('These are float approximations. Run `orbitseal prove` to turn them into proofs.');

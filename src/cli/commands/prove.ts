@@ -1,6 +1,6 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
-import { formatInterval, shortDown, table, widthUp } from '../format.js';
+import { formatInterval, formatModulus, shortDown, table, widthUp } from '../format.js';
 import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { loadMap, paramsLine } from './common.js';
@@ -18,6 +18,8 @@ export interface ProveCommandOptions {
   digits?: string;
   limit?: string;
   start?: string;
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
 /** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
@@ -73,7 +75,7 @@ export async function proveCommand(
   const exitCode = proveExitCode(report);
   if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode };
+  return { stdout: renderProve(report, header, cwd, o.columns) + '\n', stderr: '', exitCode };
 }
 
 /** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
@@ -147,12 +149,12 @@ export function stabilityCell(orbit: OrbitOutcome['orbit']): string {
   const s = orbit.stability;
   const lines: string[] = [];
   if (s.multiplier) lines.push(`Λ ∈ ${formatInterval(s.multiplier, 8)}`);
-  if (s.eigenvalueModuli) s.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatInterval(m, 8)}`));
+  if (s.eigenvalueModuli) s.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatModulus(m, 8)}`));
   if (s.trace) lines.push(`tr M ∈ ${formatInterval(s.trace, 8)}`);
   if (s.determinant) lines.push(`det M ∈ ${formatInterval(s.determinant, 8)}`);
   if (s.proverOnly) {
     lines.push('fast engine only, not re-verified:');
-    s.proverOnly.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatInterval(m, 8)}`));
+    s.proverOnly.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatModulus(m, 8)}`));
   }
   return lines.join('\n');
 }
@@ -171,7 +173,7 @@ function displayPath(p: string, cwd: string): string {
 }
 
 /** Pure renderer for the human-readable prove output. */
-export function renderProve(r: CertifyReport, header: string, cwd: string): string {
+export function renderProve(r: CertifyReport, header: string, cwd: string, width = Infinity): string {
   const out: string[] = [header];
   out.push(
     r.source === 'start'
@@ -194,7 +196,7 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
     o.certificatePath ? displayPath(o.certificatePath, cwd) : '',
   ]);
   out.push('');
-  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within', 'bits', 'certificate'], rows));
+  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within', 'bits', 'certificate'], rows, width));
   out.push('');
   for (const o of r.outcomes) {
     if (o.check && o.status === 'verified') {
