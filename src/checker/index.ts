@@ -94,6 +94,8 @@ export interface CheckOptions {
   /** Working precision in significant digits (default 30); hints may raise it. */
   digits?: number;
   limits?: Partial<CheckLimits>;
+  /** checkPaths: called after each file with its report, its 1-based index and the file count. */
+  onReport?: (report: CheckReport, index: number, total: number) => void;
 }
 
 export const DEFAULT_DIGITS = 30;
@@ -408,7 +410,9 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
 /** Check files and directories (every *.json inside, recursively, symlinked directories not followed). */
 export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckReport[] {
   const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
-  const out: CheckReport[] = [];
+  // first the list of work (files to check, or their refusal), then the checks: a progress
+  // display knows the total before the slow part starts
+  const out: (CheckReport | (() => CheckReport))[] = [];
   const unreadable = (file: string, reason: string): CheckReport => ({
     verdict: 'UNREADABLE', file, reason, claimsVerified: [], digits: opts.digits ?? DEFAULT_DIGITS, elapsedMs: 0,
   });
@@ -436,17 +440,22 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
       out.push(unreadable(p, `file is ${st.size} bytes, larger than the limit of ${limits.maxFileBytes} bytes`));
       return;
     }
-    let text: string;
-    try {
-      text = readFileSync(p, 'utf8');
-    } catch (e) {
-      out.push(unreadable(p, `cannot read: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`));
-      return;
-    }
-    out.push({ ...checkCertificate(text, opts), file: p });
+    out.push(() => {
+      let text: string;
+      try {
+        text = readFileSync(p, 'utf8');
+      } catch (e) {
+        return unreadable(p, `cannot read: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+      }
+      return { ...checkCertificate(text, opts), file: p };
+    });
   };
   for (const p of paths) visit(p, true);
-  return out;
+  return out.map((item, i) => {
+    const report = typeof item === 'function' ? item() : item;
+    opts.onReport?.(report, i + 1, out.length);
+    return report;
+  });
 }
 
 export { canonicalJson, certificateHash } from './json.js';

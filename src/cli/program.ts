@@ -72,7 +72,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => findCommand(map, { ...o, columns }, cwd))();
+      return run(() => findCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -104,7 +104,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => checkCommand(paths, { ...o, columns }, cwd))();
+      return run(() => checkCommand(paths, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -118,7 +118,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: ReportCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => reportCommand(paths, o, cwd))();
+      return run(() => reportCommand(paths, o, cwd, ctx.progress))();
     });
 
   program

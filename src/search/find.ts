@@ -276,9 +276,17 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const point = new Float64Array(n);
   const image = new Float64Array(n);
   const start = new Float64Array(n);
+  const gridTotal = grid > 0 ? Math.pow(grid, n) : 0;
+  const seedTotal = gridTotal + randomSeeds + attractorSeeds;
+  let seedsDone = 0;
+  const progress = opts.progress;
   const attempt = (): void => {
     const result = newton.refine(buf, maxIterations);
     if (result !== null) collector.offer(result);
+  };
+  const seedDone = (): void => {
+    seedsDone++;
+    if (progress) progress(seedsDone, seedTotal);
   };
 
   // Grid seeds.
@@ -292,6 +300,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
         start[c] = seedLo[c]! + ((k + 0.5) / grid) * (seedHi[c]! - seedLo[c]!);
       }
       if (fillIterated(map, start, p, buf, escapeBound, point, image)) attempt();
+      seedDone();
     }
   }
 
@@ -308,6 +317,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
       uniformInto(start, 0, seedLo, seedHi, rng);
       if (fillIterated(map, start, p, buf, escapeBound, point, image)) attempt();
     }
+    seedDone();
   }
 
   // Attractor seeds: near-returns of a long float orbit.
@@ -317,9 +327,11 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
       for (const k of nearReturnStarts(orbit, n, p, attractorSeeds, collector.tolerance())) {
         buf.set(orbit.subarray(k * n, (k + p) * n));
         attempt();
+        seedDone();
       }
     }
   }
+  if (progress && seedsDone < seedTotal) progress(seedTotal, seedTotal);
   return collector.sorted();
 }
 

@@ -37,6 +37,8 @@ export interface CertifyOptions {
   startPoint?: readonly string[];
   /** Called before each proof attempt (1-based `attempt` of `total`); for a progress display. */
   progress?: (attempt: number, total: number) => void;
+  /** Called after each seed of the float search (`done` of `total`); for a progress display. */
+  searchProgress?: (done: number, total: number) => void;
   /** Folder for certificates; created when missing. */
   outDir: string;
   /** Replace existing certificate files. */
@@ -175,7 +177,11 @@ export async function certifyOrbits(
   if (startPoints) {
     found = [startCandidate(opts.period, startPoints)];
   } else {
-    found = findCandidates(compiled, opts.near ? { period: opts.period, near: opts.near } : { period: opts.period });
+    found = findCandidates(compiled, {
+      period: opts.period,
+      ...(opts.near ? { near: opts.near } : {}),
+      ...(opts.searchProgress ? { progress: opts.searchProgress } : {}),
+    });
   }
   const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
   const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);

@@ -3,6 +3,7 @@ import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
 import { parseDigits } from '../options.js';
+import { createProgress, type ProgressSink } from '../progress.js';
 import { checkPaths, type CheckReport } from '../../checker/index.js';
 
 export interface CheckCommandOptions {
@@ -12,7 +13,7 @@ export interface CheckCommandOptions {
   columns?: number;
 }
 
-export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd = process.cwd(), progressSink?: ProgressSink): Promise<CommandResult> {
   if (paths.length === 0) {
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
@@ -23,7 +24,11 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const reports = (checkPaths(absolute, digits ? { digits } : {})).map(clarifyReport);
+  const bar = createProgress(progressSink, o.columns);
+  const onReport = (r: CheckReport, i: number, total: number) =>
+    bar.update('check', i, total, 'certificates', `${r.verdict} ${r.file ? shownPath(r.file, cwd) : ''}`);
+  const reports = checkPaths(absolute, { ...(digits ? { digits } : {}), ...(progressSink ? { onReport } : {}) }).map(clarifyReport);
+  bar.finish();
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
@@ -43,6 +48,12 @@ export function clarifyReport(r: CheckReport): CheckReport {
     return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
   }
   return r;
+}
+
+/** A path relative to `cwd` when it lies below it, else as given. */
+function shownPath(file: string, cwd: string): string {
+  const rel = relative(cwd, file);
+  return rel && !rel.startsWith('..') ? rel : file;
 }
 
 /** Pure renderer: one row per certificate, then a count line. */

@@ -3,6 +3,7 @@ import { table } from '../format.js';
 import { parseNear, parsePeriod } from '../options.js';
 import { findCandidates, type Candidate } from '../../search/index.js';
 import { loadMap, paramsLine } from './common.js';
+import { createProgress, type ProgressSink } from '../progress.js';
 
 export interface FindCommandOptions {
   period: string;
@@ -18,11 +19,17 @@ export const MAX_CANDIDATES_SHOWN = 50;
 
 export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
 
-export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd(), progressSink?: ProgressSink): Promise<CommandResult> {
   const period = parsePeriod(o.period);
   const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
-  const cands = findCandidates(compiled, near ? { period, near } : { period });
+  const bar = createProgress(progressSink, o.columns);
+  const cands = findCandidates(compiled, {
+    period,
+    ...(near ? { near } : {}),
+    ...(progressSink ? { progress: (done: number, total: number) => bar.update('search', done, total, 'seeds') } : {}),
+  });
+  bar.finish();
   const exitCode = cands.length > 0 ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
     const doc = {

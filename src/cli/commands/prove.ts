@@ -4,6 +4,7 @@ import { formatInterval, formatModulus, shortDown, table, widthUp } from '../for
 import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { loadMap, paramsLine } from './common.js';
+import { createProgress, type ProgressSink } from '../progress.js';
 
 export interface ProveCommandOptions {
   period: string;
@@ -22,8 +23,7 @@ export interface ProveCommandOptions {
   columns?: number;
 }
 
-/** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
-export type ProgressSink = (text: string) => void;
+export type { ProgressSink } from '../progress.js';
 
 export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
 
@@ -50,20 +50,19 @@ export async function proveCommand(
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
-  let shown = false;
-  const progress = progressSink
-    ? (attempt: number, total: number) => {
-        shown = true;
-        progressSink(`\rproving ${attempt}/${total} …`);
-      }
-    : undefined;
+  const bar = createProgress(progressSink, o.columns);
   const report = await certifyOrbits(def, compiled, {
     period,
     outDir,
     ...(near ? { near } : {}),
     ...(startPoint ? { startPoint } : {}),
     ...(limit !== undefined ? { limit } : {}),
-    ...(progress ? { progress } : {}),
+    ...(progressSink
+      ? {
+          searchProgress: (done: number, total: number) => bar.update('search', done, total, 'seeds'),
+          progress: (attempt: number, total: number) => bar.update('prove', attempt - 1, total, 'orbits'),
+        }
+      : {}),
     all: o.all ?? false,
     force: o.force ?? false,
     check: o.check !== false,
@@ -71,7 +70,7 @@ export async function proveCommand(
     ...(digits ? { digits } : {}),
     overrides,
   });
-  if (shown) progressSink?.('\r\x1b[K');
+  bar.finish();
   const exitCode = proveExitCode(report);
   if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;

@@ -5,6 +5,8 @@ import { writeFileAtomic } from '../../certificate/write.js';
 import { collectEntries, renderReportHtml } from '../../report/index.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { parseDigits } from '../options.js';
+import { createProgress, type ProgressSink } from '../progress.js';
+import type { CheckReport } from '../../checker/index.js';
 
 export const DEFAULT_REPORT_FILE = 'orbitseal-report.html';
 export const REPORT_JSON_KIND = 'report';
@@ -22,7 +24,7 @@ export interface ReportCommandOptions {
  * `orbitseal report DIR|FILES`: re-check every certificate, write one self-contained HTML page
  * (and with --svg the plots alone). Exit 0 when every file was VERIFIED, 1 otherwise.
  */
-export async function reportCommand(paths: string[], o: ReportCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+export async function reportCommand(paths: string[], o: ReportCommandOptions, cwd = process.cwd(), progressSink?: ProgressSink): Promise<CommandResult> {
   if (paths.length === 0) {
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal report proofs/ --out report.html');
   }
@@ -33,7 +35,10 @@ export async function reportCommand(paths: string[], o: ReportCommandOptions, cw
       throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
     }
   });
-  const entries = collectEntries(absolute, cwd, digits ? { digits } : {});
+  const bar = createProgress(progressSink);
+  const onReport = (r: CheckReport, i: number, total: number) => bar.update('check', i, total, 'certificates', `${r.verdict} ${r.file ?? ''}`);
+  const entries = collectEntries(absolute, cwd, { ...(digits ? { digits } : {}), ...(progressSink ? { onReport } : {}) });
+  bar.finish();
   if (entries.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
