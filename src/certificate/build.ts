@@ -7,15 +7,18 @@
 import type { MapDefinition, ParamValue } from '../model/types.js';
 import { certificateHash } from './canonical.js';
 import { PRODUCER_NAME, packageVersion } from './producer.js';
-import type {
-  CertificateMap,
-  CertificateParam,
-  CertificateStability,
-  CertificateV1,
-  DecimalInterval,
-  DecimalString,
-  StabilityClass,
-  UnsignedCertificateV1,
+import {
+  CERTIFICATE_FORMAT,
+  CERTIFICATE_FORMAT_VERSION,
+  CERTIFICATE_KIND_PERIODIC_ORBIT,
+  type CertificateMap,
+  type CertificateParam,
+  type CertificateStability,
+  type CertificateV1,
+  type DecimalInterval,
+  type DecimalString,
+  type StabilityClass,
+  type UnsignedCertificateV1,
 } from './types.js';
 
 /**
@@ -116,9 +119,9 @@ export function buildCertificate(
     throw new CertificateBuildError(`minimalPeriod ${orbit.minimalPeriod} differs from period ${p}`);
   }
   const unsigned: UnsignedCertificateV1 = {
-    format: 'orbitseal-certificate',
-    formatVersion: 1,
-    kind: 'periodic-orbit',
+    format: CERTIFICATE_FORMAT,
+    formatVersion: CERTIFICATE_FORMAT_VERSION,
+    kind: CERTIFICATE_KIND_PERIODIC_ORBIT,
     producer: { name: PRODUCER_NAME, version: opts.producerVersion ?? packageVersion() },
     map: certificateMap(def, opts.overrides),
     period: p,

@@ -17,3 +17,5 @@ export const MAX_FORMULA_LENGTH = 10_000;
 export const MAX_DIGITS = 2000;
 /** Longest decimal number string in a certificate. */
 export const MAX_NUMBER_LENGTH = 2000;
+/** Highest working precision of the multiprecision kernel and of `--max-bits`, in bits. */
+export const MAX_BITS = 100_000;

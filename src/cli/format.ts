@@ -2,7 +2,8 @@
  * Pure formatting helpers for human-readable output. Shortened intervals are rounded OUTWARD
  * (lower end down, upper end up) so a displayed enclosure never claims more than was proven.
  */
-export { formatInterval, formatModulus, shortDown, shortPoint, shortUp, widthUp } from '../certificate/display.js';
+export { formatInterval, formatModulus, shortDown, shortUp, widthUp } from '../certificate/display.js';
+export { terminalWidth } from './terminal.js';
 
 /** Split a cell into its lines (explicit newlines). */
 function cellLines(cell: string): string[] {
@@ -69,17 +70,6 @@ export function fitText(text: string, width: number): string {
     .split('\n')
     .flatMap((l) => wrapLine(l, width, 4))
     .join('\n');
-}
-
-/**
- * The terminal width to lay out for: COLUMNS when it is a positive number, else the terminal's
- * columns, else 80 (pipes and files get 80-column output too). Pure: the caller passes the values.
- */
-export function terminalWidth(env: string | undefined, ttyColumns: number | undefined): number {
-  const fromEnv = env !== undefined && /^\s*\d+\s*$/.test(env) ? Number(env) : NaN;
-  if (fromEnv >= 20) return fromEnv;
-  if (ttyColumns !== undefined && ttyColumns >= 20) return ttyColumns;
-  return 80;
 }
 
 /** Width below which tables are stacked (one block per row) rather than wrapped. */
@@ -173,13 +163,4 @@ function stacked(headers: string[], rows: string[][], width: number): string {
     }
   });
   return out.join('\n');
-}
-
-/** Indent every line of `text` by `n` spaces. */
-export function indent(text: string, n = 2): string {
-  const pad = ' '.repeat(n);
-  return text
-    .split('\n')
-    .map((l) => (l === '' ? l : pad + l))
-    .join('\n');
 }

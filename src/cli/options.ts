@@ -1,22 +1,78 @@
 /** Validation of command-line option values (user mistakes become UsageError, exit 2). */
-import { DEFAULT_LIMITS } from '../checker/index.js';
-import { UsageError } from './errors.js';
+import { MAX_BITS, MAX_DIGITS, MAX_PERIOD } from '../certificate/limits.js';
+import { DECIMAL_LITERAL } from '../interval/decimal-literal.js';
+import { UsageError, type UsageErrorCode } from './errors.js';
 
-const MAX_PERIOD = 100_000;
+/** Where `prove` writes certificates without --out. */
+export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
 
-/** `--period P`: an integer 1 ≤ P ≤ 100000. */
-export function parsePeriod(text: string): number {
-  if (!/^\s*\+?\d+\s*$/.test(text)) {
-    throw new UsageError('bad-period', '--period', text, 'the period must be a positive whole number', 'write e.g. --period 3');
-  }
-  const p = Number(text.trim());
-  if (!Number.isSafeInteger(p) || p < 1 || p > MAX_PERIOD) {
-    throw new UsageError('bad-period', '--period', text, `the period must be between 1 and ${MAX_PERIOD}`, 'write e.g. --period 3');
-  }
-  return p;
+/** Where `orbitseal report` writes its page unless --out says otherwise. */
+export const DEFAULT_REPORT_FILE = 'orbitseal-report.html';
+
+/** How one whole-number option is checked and explained. */
+export interface WholeNumberSpec {
+  /** The option, e.g. `--period`. */
+  option: string;
+  code: UsageErrorCode;
+  min: number;
+  /** Default: no upper bound. */
+  max?: number;
+  /** The message for text that is not a whole number (default: the range message). */
+  notANumber?: string;
+  /** The message for a whole number outside [min, max] (default: "expected a whole number from min to max"). */
+  outOfRange?: string;
+  hint: string;
 }
 
-const FLOAT_RE = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+/** The one parser of whole-number options: digits (an optional '+', blanks around), min ≤ value ≤ max. */
+export function parseWholeNumber(text: string, spec: WholeNumberSpec): number {
+  const max = spec.max ?? Number.MAX_SAFE_INTEGER;
+  const range =
+    spec.outOfRange ??
+    (spec.max === undefined ? `expected a whole number of at least ${spec.min}` : `expected a whole number from ${spec.min} to ${max}`);
+  if (!/^\s*\+?\d+\s*$/.test(text)) throw new UsageError(spec.code, spec.option, text, spec.notANumber ?? range, spec.hint);
+  const v = Number(text.trim());
+  if (!Number.isSafeInteger(v) || v < spec.min || v > max) throw new UsageError(spec.code, spec.option, text, range, spec.hint);
+  return v;
+}
+
+/** `--period P`: an integer 1 ≤ P ≤ MAX_PERIOD. */
+export function parsePeriod(text: string): number {
+  return parseWholeNumber(text, {
+    option: '--period',
+    code: 'bad-period',
+    min: 1,
+    max: MAX_PERIOD,
+    notANumber: 'the period must be a positive whole number',
+    outOfRange: `the period must be between 1 and ${MAX_PERIOD}`,
+    hint: 'write e.g. --period 3',
+  });
+}
+
+/** `--max-bits B`: 53 ≤ B ≤ the multiprecision kernel's ceiling (MAX_BITS). */
+export function parseMaxBits(text: string): number {
+  return parseWholeNumber(text, { option: '--max-bits', code: 'bad-max-bits', min: 53, max: MAX_BITS, hint: 'write e.g. --max-bits 106' });
+}
+
+/** Fewest checker digits accepted on the command line. */
+export const MIN_DIGITS = 10;
+
+/** `--digits D`: MIN_DIGITS ≤ D ≤ the checker's limit (MAX_DIGITS). */
+export function parseDigits(text: string): number {
+  return parseWholeNumber(text, {
+    option: '--digits',
+    code: 'bad-digits',
+    min: MIN_DIGITS,
+    max: MAX_DIGITS,
+    outOfRange: `expected a whole number from ${MIN_DIGITS} to ${MAX_DIGITS} (the independent checker works with at most ${MAX_DIGITS} digits)`,
+    hint: 'write e.g. --digits 60, or leave --digits out to use the precision the certificate asks for',
+  });
+}
+
+/** `--limit N`: a whole number N ≥ 1. */
+export function parseLimit(text: string): number {
+  return parseWholeNumber(text, { option: '--limit', code: 'bad-limit', min: 1, hint: 'write e.g. --limit 5, or --all for no limit' });
+}
 
 /**
  * `--near x,y,...`: a float point (a search hint only, @heuristic; never a parameter, so a
@@ -24,7 +80,7 @@ const FLOAT_RE = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
  */
 export function parseNear(text: string, dim?: number): number[] {
   const parts = text.split(',').map((s) => s.trim());
-  const values = parts.map((s) => (FLOAT_RE.test(s) ? Number(s) : Number.NaN));
+  const values = parts.map((s) => (DECIMAL_LITERAL.test(s) ? Number(s) : Number.NaN));
   if (parts.length === 0 || values.some((v) => !Number.isFinite(v))) {
     throw new UsageError('bad-near', '--near', text, 'expected comma-separated numbers', 'write e.g. --near 0.5 or --near 0.6,0.2');
   }
@@ -40,66 +96,13 @@ export function parseNear(text: string, dim?: number): number[] {
   return values;
 }
 
-/** A positive integer option in [min, max] (e.g. --digits, --max-bits). */
-export function parseBoundedInt(
-  text: string,
-  option: string,
-  code: 'bad-digits' | 'bad-max-bits',
-  min: number,
-  max: number,
-): number {
-  const ok = /^\s*\+?\d+\s*$/.test(text);
-  const v = ok ? Number(text.trim()) : Number.NaN;
-  if (!Number.isSafeInteger(v) || v < min || v > max) {
-    throw new UsageError(code, option, text, `expected a whole number from ${min} to ${max}`, `write e.g. ${option} ${min * 2 <= max ? min * 2 : min}`);
-  }
-  return v;
-}
-
-/** Commander collector for repeatable options. */
-export function collect(value: string, previous: string[] | undefined): string[] {
-  return [...(previous ?? []), value];
-}
-
-/** Fewest checker digits accepted on the command line. */
-export const MIN_DIGITS = 10;
-
-/** `--digits D`: 10 ≤ D ≤ the checker's own limit (DEFAULT_LIMITS.maxDigits). */
-export function parseDigits(text: string): number {
-  const max = DEFAULT_LIMITS.maxDigits;
-  const ok = /^\s*\+?\d+\s*$/.test(text);
-  const v = ok ? Number(text.trim()) : Number.NaN;
-  if (!Number.isSafeInteger(v) || v < MIN_DIGITS || v > max) {
-    throw new UsageError(
-      'bad-digits',
-      '--digits',
-      text,
-      `expected a whole number from ${MIN_DIGITS} to ${max} (the independent checker works with at most ${max} digits)`,
-      'write e.g. --digits 60, or leave --digits out to use the precision the certificate asks for',
-    );
-  }
-  return v;
-}
-
-/** `--limit N`: a whole number N ≥ 1. */
-export function parseLimit(text: string): number {
-  const ok = /^\s*\+?\d+\s*$/.test(text);
-  const v = ok ? Number(text.trim()) : Number.NaN;
-  if (!Number.isSafeInteger(v) || v < 1) {
-    throw new UsageError('bad-limit', '--limit', text, 'expected a whole number of at least 1', 'write e.g. --limit 5, or --all for no limit');
-  }
-  return v;
-}
-
-const DECIMAL_RE = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
 /**
  * `--start x0,y0,...`: ONE point as exact decimal strings (any number of digits), `dim`
  * coordinates. Kept as strings: never rounded to doubles.
  */
 export function parseStart(text: string, dim: number): string[] {
   const parts = text.split(',').map((s) => s.trim());
-  if (parts.some((s) => !DECIMAL_RE.test(s))) {
+  if (parts.some((s) => !DECIMAL_LITERAL.test(s))) {
     throw new UsageError('bad-start', '--start', text, 'expected comma-separated decimal numbers', 'write e.g. --start 0.2 or --start 0.6,0.2 (as many digits as you like)');
   }
   if (parts.length !== dim) {

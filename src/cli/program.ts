@@ -1,18 +1,26 @@
 /**
  * The command line as a pure function: `runCli(argv)` → {stdout, stderr, exitCode}. No process
  * I/O here (main.ts does that), so tests run every command in-process.
+ *
+ * Startup: each command's module (and with it the prover, the checker, decimal.js) is imported
+ * only when that command runs, so `orbitseal --version` and `--help` load commander and little
+ * else. Keep the static imports below light (no command modules, nothing that loads decimal.js).
  */
 import { Command, CommanderError } from 'commander';
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
-import { collect } from './options.js';
-import { fitText } from './format.js';
-import { checkCommand, type CheckCommandOptions } from './commands/check.js';
-import { demoCommand, type DemoCommandOptions } from './commands/demo.js';
-import { findCommand, type FindCommandOptions } from './commands/find.js';
-import { DEFAULT_OUT_DIR, proveCommand, type ProveCommandOptions } from './commands/prove.js';
-import { showCommand, type ShowCommandOptions } from './commands/show.js';
-import { DEFAULT_REPORT_FILE, reportCommand, type ReportCommandOptions } from './commands/report.js';
+import { DEFAULT_OUT_DIR, DEFAULT_REPORT_FILE } from './options.js';
+import type { CheckCommandOptions } from './commands/check.js';
+import type { DemoCommandOptions } from './commands/demo.js';
+import type { FindCommandOptions } from './commands/find.js';
+import type { ProveCommandOptions } from './commands/prove.js';
+import type { ShowCommandOptions } from './commands/show.js';
+import type { ReportCommandOptions } from './commands/report.js';
+
+/** Commander collector for repeatable options. */
+export function collect(value: string, previous: string[] | undefined): string[] {
+  return [...(previous ?? []), value];
+}
 
 export interface RunContext {
   /** Working folder for relative paths (default process.cwd()). */
@@ -59,7 +67,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ShowCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => showCommand(map, { ...o, columns }, cwd))();
+      return run(async () => (await import('./commands/show.js')).showCommand(map, { ...o, columns }, cwd))();
     });
 
   program
@@ -72,7 +80,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => findCommand(map, { ...o, columns }, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/find.js')).findCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -93,7 +101,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => proveCommand(map, { ...o, columns }, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/prove.js')).proveCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -104,7 +112,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => checkCommand(paths, { ...o, columns }, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/check.js')).checkCommand(paths, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -118,7 +126,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: ReportCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => reportCommand(paths, o, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/report.js')).reportCommand(paths, o, cwd, ctx.progress))();
     });
 
   program
@@ -128,7 +136,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((o: DemoCommandOptions) => {
       wantsJson = !!o.json;
-      return run(() => demoCommand(o, cwd))();
+      return run(async () => (await import('./commands/demo.js')).demoCommand(o, cwd))();
     });
 
   try {
@@ -148,6 +156,9 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     // no command given
     return { stdout: '', stderr: program.helpInformation(), exitCode: EXIT_USAGE };
   }
-  if (!wantsJson && Number.isFinite(columns)) result = { ...result, stdout: fitText(result.stdout, columns) };
+  if (!wantsJson && Number.isFinite(columns)) {
+    const { fitText } = await import('./format.js');
+    result = { ...result, stdout: fitText(result.stdout, columns) };
+  }
   return result;
 }

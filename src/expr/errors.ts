@@ -134,6 +134,8 @@ function clip(line: string, col0: number, width: number): { text: string; caret:
 /** Quotes user text for a message, shortened and with control characters made visible. */
 export function quoteText(s: string, max = 40): string {
   const short = s.length > max ? `${s.slice(0, max)}…` : s;
+  // control characters are matched on purpose: they are shown as \uXXXX escapes
+  // eslint-disable-next-line no-control-regex
   return `'${short.replace(/[\u0000-\u001f\u007f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`)}'`;
 }
 

@@ -44,6 +44,7 @@
  * arithmetic and stored in registers by `newRegisters()` (and in the captured constant array).
  */
 import * as flatOps from '../interval/flat.js';
+import { EPS, PHI } from '../interval/flat.js';
 import { intervalArithmetic } from '../interval/interval-arith.js';
 import { TapeEvaluator, type ParamEnclosure } from './evaluate.js';
 import { Op, type Tape } from './tape.js';
@@ -80,9 +81,6 @@ const OP_FUNCTIONS = [...new Set([...BINARY.values(), ...UNARY.values(), 'fPown'
 
 /** Largest pown exponent written inline (larger ones call the kernel's tight power). */
 export const MAX_INLINE_POWN = 8;
-
-const PHI = 2 ** -53 * (1 + 2 ** -52);
-const EPS = 2 ** -1000;
 
 /** Our three rounding constants as exact numeric literals (shortest round-trip form, checked). */
 const LITERALS: Readonly<Record<string, string>> = { PHI: String(PHI), EPS: String(EPS), MAX: String(Number.MAX_VALUE) };
@@ -301,7 +299,8 @@ function buildImage(prog: Program, constStatus: { continuous: boolean; assumed: 
     if (typeof f !== 'function') throw new Error(`internal: src/interval/flat.ts has no ${name}`);
     return f;
   });
-  // code generated from the checked tape only (see the header)
+  // code generated from the checked tape only (see the header): the one place allowed to compile code
+  // eslint-disable-next-line no-new-func
   const factory = new Function(
     ...OP_FUNCTIONS, 'K', 'abs', 'min', 'max',
     `"use strict";\nfunction slow(R) {\n${slowBody}\n}\nreturn function flatImage(R) {\n${fastBody}\n};`,

@@ -1,5 +1,8 @@
 /**
- * Exact decimal literals ↔ doubles, decided with BigInt rational arithmetic.
+ * Exact decimal literals — the one home of the concept (STYLE.md "One concept, one home"): the
+ * literal syntax (`DECIMAL_LITERAL`), exact comparison (`compareDecimal`), the bits ↔ digits rule
+ * (`digitsForBits`, `bitsForDigits`), and literals ↔ doubles decided with BigInt rational arithmetic.
+ * (The independent checker keeps its own copy of the syntax: it imports nothing from here.)
  *
  * A literal "3.83" means the rational 383/100, never the nearest double (DESIGN.md §5).
  * `encloseDecimal` gives the tightest double interval containing that rational; `decimalOfDouble`
@@ -15,11 +18,65 @@ export interface DecimalParts {
   exp10: number;
 }
 
-const LITERAL = /^([+-]?)(\d+\.?\d*|\.\d+)(?:[eE]([+-]?\d+))?$/;
+/**
+ * A finite decimal literal: optional sign, digits with an optional point (`5.`, `.5` allowed),
+ * optional exponent; no blanks, hex, inf, nan or underscores. Groups: 1 sign, 2 mantissa,
+ * 3 exponent digits (with their sign). The only copy of this pattern outside the checker.
+ */
+export const DECIMAL_LITERAL = /^([+-]?)(\d+\.?\d*|\.\d+)(?:[eE]([+-]?\d+))?$/;
 
-/** True when s is a decimal literal accepted by `encloseDecimal`. */
+/** True when s (blanks around it ignored) is a decimal literal accepted by `encloseDecimal`. */
 export function isDecimalLiteral(s: string): boolean {
-  return LITERAL.test(s.trim());
+  return DECIMAL_LITERAL.test(s.trim());
+}
+
+/** Sign, significant digits (no leading/trailing zeros), and E with value = ±0.d1d2… × 10^E. */
+function splitLiteral(text: string): { sign: number; digits: string; e: number } {
+  const m = DECIMAL_LITERAL.exec(text.trim());
+  if (m === null) throw new Error(`internal: not a decimal literal: ${text}`);
+  const [intPart, fracPart = ''] = m[2]!.split('.') as [string, string?];
+  let digits = intPart + fracPart;
+  let e = intPart.length + (m[3] !== undefined ? Number(m[3]) : 0);
+  const lead = digits.search(/[1-9]/);
+  if (lead < 0) return { sign: 0, digits: '', e: 0 };
+  digits = digits.slice(lead);
+  e -= lead;
+  digits = digits.replace(/0+$/, '');
+  return { sign: m[1] === '-' ? -1 : 1, digits, e };
+}
+
+/**
+ * Exact comparison of two decimal literals: −1, 0 or 1 (no rounding, no doubles, any length).
+ * Throws on text that is not a decimal literal (callers validate user text first).
+ */
+export function compareDecimal(a: string, b: string): number {
+  const x = splitLiteral(a);
+  const y = splitLiteral(b);
+  if (x.sign !== y.sign) return x.sign < y.sign ? -1 : 1;
+  if (x.sign === 0) return 0;
+  let mag: number;
+  if (x.e !== y.e) mag = x.e < y.e ? -1 : 1;
+  else {
+    const len = Math.max(x.digits.length, y.digits.length);
+    const dx = x.digits.padEnd(len, '0');
+    const dy = y.digits.padEnd(len, '0');
+    mag = dx === dy ? 0 : dx < dy ? -1 : 1;
+  }
+  return x.sign * mag;
+}
+
+/**
+ * The bits ↔ digits rule, used everywhere a binary precision becomes a decimal one or back:
+ * `digits = ⌈bits·log10 2⌉ + 2` — the significant decimal digits that hold `bits` binary digits,
+ * with two guard digits (one for the ceiling, one for the rounding of the last digit).
+ */
+export function digitsForBits(bits: number): number {
+  return Math.ceil(bits * Math.log10(2)) + 2;
+}
+
+/** The inverse rule: `bits = ⌈digits·log2 10⌉ + 8` binary digits hold `digits` decimal digits, 8 guard bits. */
+export function bitsForDigits(digits: number): number {
+  return Math.ceil(digits * Math.log2(10)) + 8;
 }
 
 /**
@@ -28,7 +85,7 @@ export function isDecimalLiteral(s: string): boolean {
  * and report it with a position).
  */
 export function parseDecimal(s: string): DecimalParts {
-  const m = LITERAL.exec(s.trim());
+  const m = DECIMAL_LITERAL.exec(s.trim());
   if (m === null) throw new Error(`not a decimal literal: ${JSON.stringify(s)}`);
   const mant = m[2]!;
   const dot = mant.indexOf('.');

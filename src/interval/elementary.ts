@@ -92,10 +92,8 @@ function scaleUp(v: number, k: number): number {
   return mulUp(v, pow2(k));
 }
 
-let hornerHi = 0;
-
-/** Range of Σ_{j ≤ 16} r^j/j! over r ∈ [rl, rh] (interval Horner); returns lo, upper in hornerHi. */
-function expPoly(rl: number, rh: number): number {
+/** Range of Σ_{j ≤ 16} r^j/j! over r ∈ [rl, rh] (interval Horner), written to out[o], out[o + 1]. */
+function expPoly(rl: number, rh: number, out: Float64Array, o: number): void {
   let tl = INV_FACT_LO[DEGREE_EXP]!;
   let th = INV_FACT_HI[DEGREE_EXP]!;
   for (let j = DEGREE_EXP - 1; j >= 0; j--) {
@@ -114,32 +112,27 @@ function expPoly(rl: number, rh: number): number {
       th = addUp(INV_FACT_HI[j]!, mh);
     }
   }
-  hornerHi = th;
-  return tl;
+  out[o] = tl;
+  out[o + 1] = th;
 }
 
 const EXP_OVER = 709.7827128933841; // > ln(MAX) = 709.782712893383996…: e^x > MAX beyond
 const EXP_UNDER = -745.1332191019412; // < ln(2^-1075): e^x < 2^-1075 below
 
+/** Writes [lo, hi] to out[o], out[o + 1]. */
+function putPair(out: Float64Array, o: number, lo: number, hi: number): void {
+  out[o] = lo;
+  out[o + 1] = hi;
+}
+
 /**
- * Proven bounds of e^x for a double x: returns the lower bound and sets `expHi` (read with
- * expUpper()). Special cases: −∞ → [0, 0]; +∞ → [+∞, +∞]... (callers handle infinities); 0 → [1, 1];
- * x > 709.79 → [MAX, +∞]; x < −745.14 → [0, 2^-1074].
+ * Proven bounds [lo, hi] of e^x for a double x, written to out[o], out[o + 1]. Special cases:
+ * 0 → [1, 1]; x > 709.79 → [MAX, +∞]; x < −745.14 → [0, 2^-1074] (callers handle infinities).
  */
-let expHi = 0;
-export function expBounds(x: number): number {
-  if (x === 0) {
-    expHi = 1;
-    return 1;
-  }
-  if (x >= EXP_OVER) {
-    expHi = Infinity;
-    return Number.MAX_VALUE;
-  }
-  if (x <= EXP_UNDER) {
-    expHi = 2 ** -1074;
-    return 0;
-  }
+export function expEnclose(x: number, out: Float64Array, o = 0): void {
+  if (x === 0) return putPair(out, o, 1, 1);
+  if (x >= EXP_OVER) return putPair(out, o, Number.MAX_VALUE, Infinity);
+  if (x <= EXP_UNDER) return putPair(out, o, 0, 2 ** -1074);
   const k = Math.round(x * 1.4426950408889634); // any integer is correct; this one makes |r| small
   const kh = k * LN2_HEAD; // exact: |k| ≤ 1075 < 2^11 and LN2_HEAD has 32 significant bits
   const aL = subDown(x, kh);
@@ -149,15 +142,10 @@ export function expBounds(x: number): number {
   const rl = subDown(aL, tH);
   const rh = subUp(aH, tL);
   if (!(rl >= -R_LIMIT && rh <= R_LIMIT)) throw new Error(`internal: exp reduction out of range at ${x}`);
-  const pl = expPoly(rl, rh);
-  const ph = hornerHi;
-  expHi = scaleUp(addUp(ph, EXP_REMAINDER), k);
-  return scaleDown(Math.max(0, subDown(pl, EXP_REMAINDER)), k);
-}
-
-/** Upper bound from the last expBounds call. */
-export function expUpper(): number {
-  return expHi;
+  expPoly(rl, rh, out, o);
+  const pl = out[o]!;
+  const ph = out[o + 1]!;
+  putPair(out, o, scaleDown(Math.max(0, subDown(pl, EXP_REMAINDER)), k), scaleUp(addUp(ph, EXP_REMAINDER), k));
 }
 
 const f64 = new Float64Array(1);
@@ -166,17 +154,12 @@ const LITTLE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 const HI_WORD = LITTLE ? 1 : 0;
 const SQRT_HALF = 0.7071067811865476; // only a split point: any value in (0.5, 1) keeps |s| < 1/3
 
-let logHi = 0;
-
 /**
- * Proven bounds of ln x for a finite double x > 0: returns the lower bound, upper via logUpper().
+ * Proven bounds [lo, hi] of ln x for a finite double x > 0, written to out[o], out[o + 1].
  * ln 1 = 0 exactly.
  */
-export function logBounds(x: number): number {
-  if (x === 1) {
-    logHi = 0;
-    return 0;
-  }
+export function logEnclose(x: number, out: Float64Array, o = 0): void {
+  if (x === 1) return putPair(out, o, 0, 0);
   let e = 0;
   let m = x;
   if (m < 2 ** -1022) {
@@ -249,13 +232,7 @@ export function logBounds(x: number): number {
     tl = addDown(tl, e > 0 ? mulDown(e, LN2_TAIL_LO) : mulDown(e, LN2_TAIL_HI));
     th = addUp(th, e > 0 ? mulUp(e, LN2_TAIL_HI) : mulUp(e, LN2_TAIL_LO));
   }
-  logHi = addUp(hd, th);
-  return addDown(hd, tl);
-}
-
-/** Upper bound from the last logBounds call. */
-export function logUpper(): number {
-  return logHi;
+  putPair(out, o, addDown(hd, tl), addUp(hd, th));
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -304,20 +281,13 @@ const SIN_REL_REM = 3e-25;
 const COS_REM = 1e-23;
 const TRIG_R_LIMIT = 0.8;
 
-let redLo = 0;
-let redHi = 0;
-
 /**
- * Enclosure [redLo, redHi] of x − m·π/2 for integers |m| ≤ 2^40, |x| ≤ 2^41: m·P1 = p + e and
- * m·P2 = q + f (TwoProduct, exact), x − p = s + t (TwoSum, exact), so
+ * Enclosure of x − m·π/2, written to out[o], out[o + 1], for integers |m| ≤ 2^40, |x| ≤ 2^41:
+ * m·P1 = p + e and m·P2 = q + f (TwoProduct, exact), x − p = s + t (TwoSum, exact), so
  * x − m·π/2 = s + (t − e − q − f − m·t3), the small part summed with directed rounding.
  */
-export function reduceHalfPi(x: number, m: number): void {
-  if (m === 0) {
-    redLo = x;
-    redHi = x;
-    return;
-  }
+export function reduceHalfPi(x: number, m: number, out: Float64Array, o = 0): void {
+  if (m === 0) return putPair(out, o, x, x);
   const p = m * HALF_PI_1;
   const e = twoProductError(m, HALF_PI_1, p);
   const q = m * HALF_PI_2;
@@ -328,19 +298,11 @@ export function reduceHalfPi(x: number, m: number): void {
   const m3Hi = m > 0 ? mulUp(m, HALF_PI_3_HI) : mulUp(m, HALF_PI_3_LO);
   const smallLo = subDown(subDown(subDown(subDown(t, e), q), f), m3Hi);
   const smallHi = subUp(subUp(subUp(subUp(t, e), q), f), m3Lo);
-  redLo = addDown(s, smallLo);
-  redHi = addUp(s, smallHi);
-}
-export function reducedLo(): number {
-  return redLo;
-}
-export function reducedHi(): number {
-  return redHi;
+  putPair(out, o, addDown(s, smallLo), addUp(s, smallHi));
 }
 
-let polyHi = 0;
-/** Interval Horner of Σ c_k z^(k−1) over z ∈ [zl, zh] with enclosed coefficients; upper in polyHi. */
-function hornerZ(zl: number, zh: number, cl: Float64Array, ch: Float64Array): number {
+/** Interval Horner of Σ c_k z^(k−1) over z ∈ [zl, zh] with enclosed coefficients, written to out[o], out[o + 1]. */
+function hornerZ(zl: number, zh: number, cl: Float64Array, ch: Float64Array, out: Float64Array, o: number): void {
   let tl = cl[K_TRIG - 1]!;
   let th = ch[K_TRIG - 1]!;
   for (let k = K_TRIG - 2; k >= 0; k--) {
@@ -349,8 +311,7 @@ function hornerZ(zl: number, zh: number, cl: Float64Array, ch: Float64Array): nu
     tl = addDown(cl[k]!, ml);
     th = addUp(ch[k]!, mh);
   }
-  polyHi = th;
-  return tl;
+  putPair(out, o, tl, th);
 }
 
 function mulIntervalLo(al: number, ah: number, bl: number, bh: number): number {
@@ -360,29 +321,26 @@ function mulIntervalHi(al: number, ah: number, bl: number, bh: number): number {
   return Math.max(mulUp(al, bl), mulUp(al, bh), mulUp(ah, bl), mulUp(ah, bh));
 }
 
-let sinLo = 0;
-let sinHi = 0;
-let cosLo = 0;
-let cosHi = 0;
-
 /**
- * Proven enclosures of sin x and cos x for a double |x| ≤ 2^40 (results via trigSinLo() …).
- * Returns false when the reduction is out of range (the caller then uses [−1, 1]).
+ * Proven enclosures of sin x and cos x for a double |x| ≤ 2^40, written to out[o..o + 3] as
+ * [sin lo, sin hi, cos lo, cos hi]. Returns false (out unspecified) when the reduction is out of
+ * range (the caller then uses [−1, 1]).
  */
-export function sinCosBounds(x: number): boolean {
+export function sinCosEnclose(x: number, out: Float64Array, o = 0): boolean {
   if (!(Math.abs(x) <= 2 ** 40)) return false;
   const m = Math.round(x / HALF_PI_1);
-  reduceHalfPi(x, m);
-  const rl = redLo;
-  const rh = redHi;
+  reduceHalfPi(x, m, out, o);
+  const rl = out[o]!;
+  const rh = out[o + 1]!;
   if (!(rl >= -TRIG_R_LIMIT && rh <= TRIG_R_LIMIT)) return false;
   const amin = rl > 0 ? rl : rh < 0 ? -rh : 0;
   const amax = Math.max(-rl, rh);
   const zl = Math.max(0, mulDown(amin, amin));
   const zh = mulUp(amax, amax);
   // sin r ∈ r + r·(z·S) ± amax·SIN_REL_REM
-  const sl0 = hornerZ(zl, zh, S_LO, S_HI);
-  const sh0 = polyHi;
+  hornerZ(zl, zh, S_LO, S_HI, out, o);
+  const sl0 = out[o]!;
+  const sh0 = out[o + 1]!;
   const wl = mulIntervalLo(zl, zh, sl0, sh0);
   const wh = mulIntervalHi(zl, zh, sl0, sh0);
   const rwl = mulIntervalLo(rl, rh, wl, wh);
@@ -392,10 +350,15 @@ export function sinCosBounds(x: number): boolean {
   const sinRl = addDown(rl, subDown(rwl, rem));
   const sinRh = addUp(rh, addUp(rwh, rem));
   // cos r ∈ 1 + z·C ± COS_REM
-  const cl0 = hornerZ(zl, zh, C_LO, C_HI);
-  const ch0 = polyHi;
+  hornerZ(zl, zh, C_LO, C_HI, out, o);
+  const cl0 = out[o]!;
+  const ch0 = out[o + 1]!;
   const cosRl = addDown(1, subDown(mulIntervalLo(zl, zh, cl0, ch0), COS_REM));
   const cosRh = addUp(1, addUp(mulIntervalHi(zl, zh, cl0, ch0), COS_REM));
+  let sinLo: number;
+  let sinHi: number;
+  let cosLo: number;
+  let cosHi: number;
   switch (((m % 4) + 4) % 4) {
     case 0:
       sinLo = sinRl; sinHi = sinRh; cosLo = cosRl; cosHi = cosRh;
@@ -409,21 +372,9 @@ export function sinCosBounds(x: number): boolean {
     default:
       sinLo = -cosRh; sinHi = -cosRl; cosLo = sinRl; cosHi = sinRh;
   }
-  sinLo = Math.max(-1, sinLo);
-  sinHi = Math.min(1, sinHi);
-  cosLo = Math.max(-1, cosLo);
-  cosHi = Math.min(1, cosHi);
+  out[o] = Math.max(-1, sinLo);
+  out[o + 1] = Math.min(1, sinHi);
+  out[o + 2] = Math.max(-1, cosLo);
+  out[o + 3] = Math.min(1, cosHi);
   return true;
-}
-export function trigSinLo(): number {
-  return sinLo;
-}
-export function trigSinHi(): number {
-  return sinHi;
-}
-export function trigCosLo(): number {
-  return cosLo;
-}
-export function trigCosHi(): number {
-  return cosHi;
 }

@@ -22,25 +22,21 @@
 
 import * as K from './kernel.js';
 
-const PHI = 2 ** -53 * (1 + 2 ** -52);
+/** Relative term φ = 2^-53·(1 + 2^-52) of the fast-path rounding c ± (φ|c| + ε) (Rump et al.). */
+export const PHI = 2 ** -53 * (1 + 2 ** -52);
 /**
  * Absolute term of the fast-path rounding. Rump et al. use η = 2^-1074; any larger ε is also
  * valid (fl(φ|c| + ε) ≥ fl(φ|c| + η) and rounding is monotone, so c + fl(φ|c| + ε) still rounds to
  * ≥ succ(c)). ε = 2^-1000 is a normal number: an operation with the subnormal η as operand takes a
  * microcode assist on x86 (≈10× slower). Cost: for |c| < 2^-947 the step is ε instead of one ulp.
  */
-const EPS = 2 ** -1000;
+export const EPS = 2 ** -1000;
 const MAXV = Number.MAX_VALUE;
 
 /** Record kernel flags in the status register. */
 function flag(R: Float64Array, f: number): void {
   if (f & K.F_NOT_CONTINUOUS) R[0] = 0;
   if (f & K.F_ASSUMED) R[1] = 1;
-}
-
-/** Number of doubles needed for n registers (register 0 included). */
-export function registerFileSize(registers: number): number {
-  return 2 * registers;
 }
 
 /** Reset the status register: continuous, no assumption. */

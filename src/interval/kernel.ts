@@ -21,20 +21,7 @@
  * assumption that V8's Math.* (fdlibm ports) is within 1 ulp — those set F_ASSUMED.
  */
 
-import {
-  expBounds,
-  expUpper,
-  logBounds,
-  logUpper,
-  reduceHalfPi,
-  reducedHi,
-  reducedLo,
-  sinCosBounds,
-  trigCosHi,
-  trigCosLo,
-  trigSinHi,
-  trigSinLo,
-} from './elementary.js';
+import { expEnclose, logEnclose, reduceHalfPi, sinCosEnclose } from './elementary.js';
 import {
   MAX,
   TINY,
@@ -250,35 +237,39 @@ export function kSqr(out: Out, o: number, alo: number, ahi: number): number {
   return ovf1(lo, hi, alo, ahi);
 }
 
-let powHi = 0;
+/**
+ * Scratch for the enclosures that the elementary functions write (elementary.ts): each caller
+ * writes and reads it within one call, never across calls, so it carries no state between them.
+ */
+const PAIR = new Float64Array(4);
 
 /**
  * Enclosure of x^n for x > 0, 2 ≤ n ≤ 64 with a double-double style tail: the invariant
  * x^i ∈ h + [tlo, thi] is kept with h·x = q + f exact (TwoProduct) and only the tail rounded
- * outward, so the final [h + tlo]↓, [h + thi]↑ is within 1 ulp of x^n. Returns the lower bound
- * (the upper in powHi), or NaN if a partial product leaves the TwoProduct range [2^-969, 2^995].
+ * outward, so the final [h + tlo]↓, [h + thi]↑ is within 1 ulp of x^n. Writes [lo, hi] to
+ * out[o], out[o + 1]; returns false if a partial product leaves the TwoProduct range [2^-969, 2^995].
  */
-function powTight(x: number, n: number): number {
+function powTight(x: number, n: number, out: Float64Array, o: number): boolean {
   let h = x;
   let tlo = 0;
   let thi = 0;
   for (let i = 1; i < n; i++) {
     const q = h * x;
-    if (!(q >= 2 ** -969 && q <= 2 ** 995)) return NaN;
+    if (!(q >= 2 ** -969 && q <= 2 ** 995)) return false;
     const f = twoProductError(h, x, q);
     tlo = addDown(f, mulDown(tlo, x));
     thi = addUp(f, mulUp(thi, x));
     h = q;
   }
-  powHi = addUp(h, thi);
-  return addDown(h, tlo);
+  out[o] = addDown(h, tlo);
+  out[o + 1] = addUp(h, thi);
+  return true;
 }
 
 /** Lower bound of x^n for x ≥ 0, n ≥ 1 (tight tail method, else binary powering with mulDown). */
 export function powNonnegDown(x: number, n: number): number {
   if (x > 0 && x <= 2 ** 995 && n <= 64) {
-    const lo = powTight(x, n);
-    if (lo === lo) return Math.max(0, lo);
+    if (powTight(x, n, PAIR, 0)) return Math.max(0, PAIR[0]!);
   }
   let r = 1;
   let b = x;
@@ -294,8 +285,7 @@ export function powNonnegDown(x: number, n: number): number {
 /** Upper bound of x^n for x ≥ 0, n ≥ 1. */
 export function powNonnegUp(x: number, n: number): number {
   if (x > 0 && x <= 2 ** 995 && n <= 64) {
-    const lo = powTight(x, n);
-    if (lo === lo) return powHi;
+    if (powTight(x, n, PAIR, 0)) return PAIR[1]!;
   }
   let r = 1;
   let b = x;
@@ -453,11 +443,15 @@ export function widenUp(y: number, steps: number): number {
  */
 export function kExp(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
-  const lo = alo === -Infinity ? 0 : expBounds(alo);
+  let lo = 0;
+  if (alo !== -Infinity) {
+    expEnclose(alo, PAIR, 0);
+    lo = PAIR[0]!;
+  }
   let hi = Infinity;
   if (ahi !== Infinity) {
-    expBounds(ahi);
-    hi = expUpper();
+    expEnclose(ahi, PAIR, 0);
+    hi = PAIR[1]!;
   }
   put(out, o, lo, hi);
   return ovf1(lo, hi, alo, ahi);
@@ -473,11 +467,15 @@ export function kLog(out: Out, o: number, alo: number, ahi: number): number {
     put(out, o, Infinity, -Infinity);
     return F_UNDEF;
   }
-  const lo = alo <= 0 ? -Infinity : logBounds(alo);
+  let lo = -Infinity;
+  if (alo > 0) {
+    logEnclose(alo, PAIR, 0);
+    lo = PAIR[0]!;
+  }
   let hi = Infinity;
   if (ahi !== Infinity) {
-    logBounds(ahi);
-    hi = logUpper();
+    logEnclose(ahi, PAIR, 0);
+    hi = PAIR[1]!;
   }
   put(out, o, lo, hi);
   return alo <= 0 ? F_UNDEF : 0;
@@ -505,8 +503,8 @@ const HALF_PI_UP = nextUp(HALF_PI_HEAD);
  */
 export function cmpMultipleOfHalfPi(x: number, m: number): number {
   if (m === 0) return x > 0 ? 1 : x < 0 ? -1 : 0;
-  reduceHalfPi(x, m);
-  return reducedLo() > 0 ? 1 : reducedHi() < 0 ? -1 : 0;
+  reduceHalfPi(x, m, PAIR, 0);
+  return PAIR[0]! > 0 ? 1 : PAIR[1]! < 0 ? -1 : 0;
 }
 
 const TRIG_LIMIT = 2 ** 40;
@@ -526,19 +524,19 @@ export function halfPiResidues(lo: number, hi: number): number {
   return mask;
 }
 
-// Endpoint values of sin / cos / tan are PROVEN (elementary.ts sinCosBounds: reduction by the
+// Endpoint values of sin / cos / tan are PROVEN (elementary.ts sinCosEnclose: reduction by the
 // double-double π/2, Taylor polynomials with remainder). |x| > 2^40 → [−1, 1].
 function sinDown(x: number): number {
-  return x === 0 ? 0 : sinCosBounds(x) ? trigSinLo() : -1;
+  return x === 0 ? 0 : sinCosEnclose(x, PAIR, 0) ? PAIR[0]! : -1;
 }
 function sinUp(x: number): number {
-  return x === 0 ? 0 : sinCosBounds(x) ? trigSinHi() : 1;
+  return x === 0 ? 0 : sinCosEnclose(x, PAIR, 0) ? PAIR[1]! : 1;
 }
 function cosDown(x: number): number {
-  return x === 0 ? 1 : sinCosBounds(x) ? trigCosLo() : -1;
+  return x === 0 ? 1 : sinCosEnclose(x, PAIR, 0) ? PAIR[2]! : -1;
 }
 function cosUp(x: number): number {
-  return x === 0 ? 1 : sinCosBounds(x) ? trigCosHi() : 1;
+  return x === 0 ? 1 : sinCosEnclose(x, PAIR, 0) ? PAIR[3]! : 1;
 }
 
 /**
@@ -576,20 +574,24 @@ export function kCos(out: Out, o: number, alo: number, ahi: number): number {
   return 0;
 }
 
-const tanScratch = new Float64Array(2);
+/** Scratch for kTan's two end enclosures (written and read within one call). */
+const TAN_ENDS = new Float64Array(4);
 
-/** Enclosure of tan x at a double (sin x / cos x from the proven enclosures); false if undecided. */
-function tanAt(x: number): boolean {
+/**
+ * Enclosure of tan x at a double (sin x / cos x from the proven enclosures), written to out[o],
+ * out[o + 1]; false if undecided.
+ */
+function tanAt(x: number, out: Float64Array, o: number): boolean {
   if (x === 0) {
-    tanScratch[0] = 0;
-    tanScratch[1] = 0;
+    out[o] = 0;
+    out[o + 1] = 0;
     return true;
   }
-  if (!sinCosBounds(x)) return false;
-  const cl = trigCosLo();
-  const ch = trigCosHi();
+  if (!sinCosEnclose(x, PAIR, 0)) return false;
+  const cl = PAIR[2]!;
+  const ch = PAIR[3]!;
   if (!(cl > 0 || ch < 0)) return false;
-  kDiv(tanScratch, 0, trigSinLo(), trigSinHi(), cl, ch);
+  kDiv(out, o, PAIR[0]!, PAIR[1]!, cl, ch);
   return true;
 }
 
@@ -601,16 +603,11 @@ function tanAt(x: number): boolean {
 export function kTan(out: Out, o: number, alo: number, ahi: number): number {
   if (!(alo <= ahi)) return bad1(out, o, alo, ahi);
   const mask = halfPiResidues(alo, ahi);
-  if (mask & 10 || !tanAt(alo)) {
+  if (mask & 10 || !tanAt(alo, TAN_ENDS, 0) || !tanAt(ahi, TAN_ENDS, 2)) {
     put(out, o, -Infinity, Infinity);
     return F_UNDEF;
   }
-  const lo = tanScratch[0]!;
-  if (!tanAt(ahi)) {
-    put(out, o, -Infinity, Infinity);
-    return F_UNDEF;
-  }
-  put(out, o, lo, tanScratch[1]!);
+  put(out, o, TAN_ENDS[0]!, TAN_ENDS[3]!);
   return 0;
 }
 
@@ -642,17 +639,19 @@ export function kCosh(out: Out, o: number, alo: number, ahi: number): number {
   const mag = Math.max(-alo, ahi);
   let lo = 1;
   if (mig !== 0) {
-    const p = expBounds(mig);
-    const q = expBounds(-mig);
+    expEnclose(mig, PAIR, 0);
+    expEnclose(-mig, PAIR, 2);
+    const p = PAIR[0]!;
+    const q = PAIR[2]!;
     lo = Math.max(1, 0.5 * addDown(p, q)); // halving is exact except in the subnormal range (not reached: ≥ 1)
   }
   let hi = 1;
   if (mag === Infinity) hi = Infinity;
   else if (mag !== 0) {
-    expBounds(mag);
-    const p = expUpper();
-    expBounds(-mag);
-    const q = expUpper();
+    expEnclose(mag, PAIR, 0);
+    expEnclose(-mag, PAIR, 2);
+    const p = PAIR[1]!;
+    const q = PAIR[3]!;
     hi = 0.5 * addUp(p, q);
   }
   put(out, o, lo, hi);
@@ -669,9 +668,9 @@ export function kTanh(out: Out, o: number, alo: number, ahi: number): number {
 }
 
 /**
- * Bounds of x^y at a corner (x ≥ 0, x, y endpoints, possibly infinite), taking limits at the
- * boundary of the domain: 0^y = 0 (y > 0), 1 (y = 0, the limit along x → 0+ is 1 only on y = 0,
- * which is enough for a hull), +Inf (y < 0). Writes [down, up] to scratch.
+ * A bound of x^y at a corner (x ≥ 0, x, y endpoints, possibly infinite): the lower bound, or the
+ * upper one when `toUpper`. Limits at the boundary of the domain: 0^y = 0 (y > 0), 1 (y = 0, the
+ * limit along x → 0+ is 1 only on y = 0, which is enough for a hull), +Inf (y < 0).
  */
 function powCorner(x: number, y: number, toUpper: boolean): number {
   if (x === 0) return y > 0 ? 0 : y === 0 ? 1 : Infinity;
@@ -702,8 +701,8 @@ export function kPow(out: Out, o: number, alo: number, ahi: number, blo: number,
     put(out, o, 0, 0);
     return flags;
   }
-  // When x = 0 is in the box and y straddles 0, the y = 0 corner value 1 is already present from (ahi, 0)?
-  // Not necessarily — include the x→0+ limits at y = blo, bhi, which bound the hull (monotone in y).
+  // x^y is monotone in y for fixed x, so the four corners — with the x → 0+ limits at y = blo, bhi
+  // when 0 is in the box — bound the hull.
   const lo = Math.min(
     powCorner(xlo, blo, false),
     powCorner(xlo, bhi, false),

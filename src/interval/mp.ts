@@ -59,7 +59,9 @@
  * clamped into the box (0, or twice the finite end, for unbounded boxes).
  */
 import { Decimal } from 'decimal.js';
+import { MAX_BITS } from '../certificate/limits.js';
 import type { EvalStatus, IntervalArithmetic } from './arithmetic.js';
+import { DECIMAL_LITERAL, digitsForBits } from './decimal-literal.js';
 import { decimalValueOfDouble, doubleDown, doubleUp } from './mp-convert.js';
 import {
   atanPoint,
@@ -84,17 +86,10 @@ export interface MpInterval {
 
 /** Smallest and largest supported working precisions in bits. */
 export const MP_MIN_BITS = 24;
-export const MP_MAX_BITS = 100_000;
+export const MP_MAX_BITS = MAX_BITS;
 
 /** Arguments above this make exp/sinh/cosh report overflow (upper end +Infinity). */
 const EXP_LIMIT = new Decimal('1e15');
-
-const DECIMAL_LITERAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-/** Number of significant decimal digits used for `bits` binary digits. */
-export function mpDigitsForBits(bits: number): number {
-  return Math.ceil(bits * Math.log10(2)) + 2;
-}
 
 /**
  * Multiprecision interval arithmetic with `bits` binary digits of working precision
@@ -104,7 +99,7 @@ export function mpIntervalArithmetic(bits: number): IntervalArithmetic<MpInterva
   if (!Number.isInteger(bits) || bits < MP_MIN_BITS || bits > MP_MAX_BITS) {
     throw new RangeError(`mpIntervalArithmetic: bits must be an integer in [${MP_MIN_BITS}, ${MP_MAX_BITS}], got ${bits}`);
   }
-  const digits = mpDigitsForBits(bits);
+  const digits = digitsForBits(bits);
   const { Dn, Up, Nr } = contextFor(digits);
   // Products of two working-precision numbers are exact at 2·digits + 2 (sqrt check).
   const Wide = contextFor(2 * digits + 2).Nr;

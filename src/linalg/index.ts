@@ -1,7 +1,9 @@
 /**
- * @heuristic Float64 linear algebra (non-rigorous): dense LU / solve / inverse / products, the
- * structured multiple-shooting solvers, monodromy products and approximate eigenvalues.
- * Used by the float search and for Krawczyk preconditioners (any C is admissible there).
+ * Linear algebra. @heuristic (non-rigorous) float64 and decimal point algebra: dense LU / solve /
+ * inverse / products, the structured multiple-shooting solvers, monodromy products, approximate
+ * eigenvalues and eigenvectors — used by the float search and for Krawczyk preconditioners (any C
+ * is admissible there). Rigorous: the interval matrix helpers (interval-matrix.ts) and complex
+ * interval magnitudes (complex.ts), over any outward-rounding `IntervalArithmetic`.
  */
 export {
   type LuFactorization,
@@ -36,3 +38,13 @@ export {
   characteristicPolynomial,
   polynomialRoots,
 } from './eigen.js';
+export { type CMat, complexInverse, approxEigenvectors, cmagUp, cmigDown } from './complex.js';
+export { intervalMatMul, orthogonalInverseEnclosure, orthonormalColumns } from './interval-matrix.js';
+export {
+  type DecimalCtor,
+  type DecimalLu,
+  decimalContext,
+  decimalLuFactor,
+  decimalLuSolve,
+  decimalShootingJacobian,
+} from './decimal.js';

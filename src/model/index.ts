@@ -5,5 +5,5 @@ export { parseParamOverride, type ParamOverride } from './params.js';
 export { catalogueNames, getCatalogueMap, resolveMap } from './catalogue.js';
 export { describeMap, type MapDescription } from './describe.js';
 export { validateDefinition, type ValidatedMap, type Locator, type Place } from './validate.js';
-export { compareDecimal, normalizeDecimal } from './decimal.js';
+export { normalizeDecimal } from './decimal.js';
 export { MapLanguageError, type MapLanguageErrorCode } from '../expr/errors.js';

@@ -10,7 +10,7 @@ import { isAlias, isMap, isScalar, isSeq, parseDocument, type Node, type Scalar 
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { locate } from '../expr/lexer.js';
 import type { MapDefinition, ParamValue } from './types.js';
-import { definitionError, validateDefinition, type Locator, type Place } from './validate.js';
+import { validateDefinition, type Locator, type Place } from './validate.js';
 
 const TOP_KEYS = ['title', 'description', 'state', 'params', 'step', 'region'];
 
@@ -43,7 +43,7 @@ class FileLocator implements Locator {
     while (k !== undefined) {
       const e = this.entries.get(k);
       if (e !== undefined) {
-        const node = which === 'key' || e.valueNode == null ? e.keyNode ?? e.valueNode : e.valueNode;
+        const node = which === 'key' || e.valueNode === null || e.valueNode === undefined ? e.keyNode ?? e.valueNode : e.valueNode;
         const p = this.nodePlace(node);
         if (p !== undefined) return p;
       }

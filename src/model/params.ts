@@ -1,7 +1,8 @@
 /** Command-line parameter overrides: `r=3.83` or `r=[3.83,3.84]`. */
 import { MapLanguageError } from '../expr/errors.js';
 import { IDENTIFIER } from '../expr/names.js';
-import { compareDecimal, normalizeDecimal } from './decimal.js';
+import { compareDecimal } from '../interval/decimal-literal.js';
+import { normalizeDecimal } from './decimal.js';
 import type { ParamValue } from './types.js';
 
 export interface ParamOverride {

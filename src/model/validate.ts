@@ -7,7 +7,8 @@ import type { ParsedFormula } from '../expr/ast.js';
 import { MapLanguageError, suggestionHint, type MapLanguageErrorCode } from '../expr/errors.js';
 import { IDENTIFIER, isReservedName } from '../expr/names.js';
 import { checkNames, parseFormula } from '../expr/parser.js';
-import { compareDecimal, normalizeDecimal } from './decimal.js';
+import { compareDecimal } from '../interval/decimal-literal.js';
+import { normalizeDecimal } from './decimal.js';
 import type { MapDefinition, ParamValue } from './types.js';
 
 export interface Place {

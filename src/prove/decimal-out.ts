@@ -1,17 +1,16 @@
 /**
  * Decimal strings written by the prover: outward rounding to a number of significant digits,
- * the small relative widening of reported enclosures, exact comparisons and exact ± on decimal
- * strings. All arithmetic here is decimal.js with an explicit rounding mode per operation.
+ * the small relative widening of reported enclosures, |a − b| rounded up. All arithmetic here is
+ * decimal.js with an explicit rounding mode per operation; exact comparison is `compareDecimal`
+ * (src/interval/decimal-literal.ts).
  */
 import { Decimal } from 'decimal.js';
+import { compareDecimal } from '../interval/decimal-literal.js';
 
 /** Exact work on short decimals: 2000 significant digits, directed modes set per call. */
 const Exact = Decimal.clone({ precision: 2000, rounding: Decimal.ROUND_HALF_EVEN });
 const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
 const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
-function ctorOf(m: RoundMode): typeof Decimal {
-  return m === 'floor' ? ExactFloor : m === 'ceil' ? ExactCeil : Exact;
-}
 
 export type RoundMode = 'floor' | 'ceil' | 'nearest';
 
@@ -24,21 +23,6 @@ export function roundDecimal(s: string, digits: number, mode: RoundMode): string
   const d = new Exact(s);
   if (d.isZero()) return '0';
   return d.toSignificantDigits(digits, modeOf(mode)).toString();
-}
-
-/** Exact comparison of two decimal literals: −1, 0, 1. */
-export function compareDecimal(a: string, b: string): number {
-  return new Exact(a).cmp(new Exact(b));
-}
-
-/** a + b (or a − b) rounded in the given direction at 2000 digits (exact for ordinary inputs). */
-export function addDecimal(a: string, b: string, mode: RoundMode): string {
-  const D = ctorOf(mode);
-  return new D(a).add(new D(b)).toString();
-}
-export function subDecimal(a: string, b: string, mode: RoundMode): string {
-  const D = ctorOf(mode);
-  return new D(a).sub(new D(b)).toString();
 }
 
 /** |a − b| rounded up. */

@@ -8,7 +8,8 @@
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import type { MapEvaluator } from '../model/types.js';
-import { absDiffUp, compareDecimal, roundDecimal } from './decimal-out.js';
+import { compareDecimal } from '../interval/decimal-literal.js';
+import { absDiffUp, roundDecimal } from './decimal-out.js';
 import {
   krawczykPlanned,
   prepareKrawczyk,

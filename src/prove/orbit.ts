@@ -13,10 +13,10 @@ import { Decimal } from 'decimal.js';
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import type { CompiledMap } from '../model/types.js';
 import { floatPreconditioner, pointPreconditioner } from './krawczyk.js';
-import { decimalContext } from './mp-point.js';
+import { decimalContext } from '../linalg/decimal.js';
 import { attempt, type AttemptClaims } from './orbit-core.js';
 import { floatShootingInverse, refineFloat, refineMp, type MpRefinement } from './refine.js';
-import { decimalOfDouble } from '../interval/decimal-literal.js';
+import { DECIMAL_LITERAL, decimalOfDouble, digitsForBits } from '../interval/decimal-literal.js';
 import { intervalArithmetic } from '../interval/interval-arith.js';
 import { mpIntervalArithmetic } from '../interval/mp.js';
 import type { NotProvenReason, OrbitVerdict, PrecisionAttempt, ProvenOrbit } from './types.js';
@@ -64,8 +64,6 @@ export function precisionLadder(maxBits: number): number[] {
  * more digits than a double holds (the multiprecision refinement then starts from it exactly).
  */
 export type CandidateCoordinate = number | string;
-
-const DECIMAL_LITERAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 function validate(map: CompiledMap, points: ReadonlyArray<ReadonlyArray<CandidateCoordinate>>): string | null {
   if (!Array.isArray(points) || points.length < 1) return 'the candidate needs at least one point';
@@ -125,7 +123,7 @@ export function proveOrbitWith(
   let best: { claims: AttemptClaims; bits: number } | null = null;
   let lastFailure: { reason: NotProvenReason; detail: string } = { reason: 'undecided', detail: 'not attempted' };
   let mpStart: Decimal[] | null = null;
-  let mpStartOf: () => Decimal[] = () => [];
+  let mpStartOf: () => Decimal[];
 
   // float64 attempt
   {
@@ -207,7 +205,7 @@ export function proveOrbitWith(
         dim: n,
         centre,
         C: pointPreconditioner(Centries, N),
-        digits: Math.ceil(bits * 0.30103) + 4,
+        digits: digitsForBits(bits),
         uniqueness,
         maxInflations,
       });

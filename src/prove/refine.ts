@@ -9,7 +9,7 @@ import { resetStatus } from '../interval/arithmetic.js';
 import { luFactorInPlace, luSolveInto } from '../linalg/dense.js';
 import { ShootingSolver } from '../linalg/shooting.js';
 import type { CompiledMap, MapEvaluator } from '../model/types.js';
-import { decimalLuFactor, decimalLuSolve, decimalShootingJacobian, type DecimalCtor } from './mp-point.js';
+import { decimalLuFactor, decimalLuSolve, decimalShootingJacobian, type DecimalCtor } from '../linalg/decimal.js';
 
 export interface FloatRefinement {
   /** Refined shooting vector (length p·n). */

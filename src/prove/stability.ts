@@ -23,9 +23,9 @@
  * class is decided from the widened enclosures only.
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
-import { compareDecimal as cmp, pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
-import { decimalOfDouble } from '../interval/decimal-literal.js';
-import { addUp, divUp, mulUp, subDown } from '../interval/round.js';
+import { pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
+import { compareDecimal as cmp, decimalOfDouble } from '../interval/decimal-literal.js';
+import { intervalMatMul, orthogonalInverseEnclosure, orthonormalColumns } from '../linalg/interval-matrix.js';
 import { gershgorinDiscs } from './gershgorin.js';
 import type { DecimalPair, ProvenStability, StabilityClass } from './types.js';
 
@@ -153,66 +153,8 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
 }
 
 function compareLo(x: DecimalPair, y: DecimalPair): number {
-  // Decimal strings: compare numerically through the exact comparator in decimal-out.
+  // Decimal strings: compare numerically and exactly (compareDecimal, interval/decimal-literal.ts).
   return cmp(x[0], y[0]);
-}
-
-/** @heuristic float modified Gram–Schmidt: Q (n×n, row-major, orthonormal columns) of b; null if rank-deficient. */
-function floatQ(b: Float64Array, n: number): Float64Array | null {
-  const q = Float64Array.from(b);
-  for (let j = 0; j < n; j++) {
-    for (let k = 0; k < j; k++) {
-      let dot = 0;
-      for (let i = 0; i < n; i++) dot += q[i * n + k]! * q[i * n + j]!;
-      for (let i = 0; i < n; i++) q[i * n + j] = q[i * n + j]! - dot * q[i * n + k]!;
-    }
-    let norm = 0;
-    for (let i = 0; i < n; i++) norm = Math.hypot(norm, q[i * n + j]!);
-    if (!(norm > 0) || !Number.isFinite(norm)) return null;
-    for (let i = 0; i < n; i++) q[i * n + j] = q[i * n + j]! / norm;
-  }
-  return q;
-}
-
-function matMulT<T>(a: IntervalArithmetic<T>, x: readonly T[], y: readonly T[], n: number): T[] {
-  const out: T[] = new Array<T>(n * n);
-  const zero = a.fromNumber(0);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      let s = zero;
-      for (let k = 0; k < n; k++) s = a.add(s, a.mul(x[i * n + k]!, y[k * n + j]!));
-      out[i * n + j] = s;
-    }
-  }
-  return out;
-}
-
-/**
- * Enclosure of Q^{-1} for a float matrix Q with QᵀQ ≈ I: with E = I − QᵀQ (intervals) and
- * δ = ‖E‖∞ < 1, Q^{-1} = (I − E)^{-1}Qᵀ = Qᵀ + G·Qᵀ with ‖G‖∞ ≤ δ/(1 − δ), so entry (i, j) lies in
- * Qᵀ_ij ± δ/(1 − δ)·max_l |Qᵀ_lj| (Neumann series, from memory). Null when δ ≥ 1.
- */
-function orthogonalInverse<T>(a: IntervalArithmetic<T>, q: Float64Array, n: number): T[] | null {
-  let delta = 0;
-  for (let i = 0; i < n; i++) {
-    let row = 0;
-    for (let j = 0; j < n; j++) {
-      let s = a.fromNumber(i === j ? 1 : 0);
-      for (let k = 0; k < n; k++) s = a.sub(s, a.mul(a.fromNumber(q[k * n + i]!), a.fromNumber(q[k * n + j]!)));
-      row = addUp(row, a.magUp(s));
-    }
-    delta = Math.max(delta, row);
-  }
-  if (!(delta < 1)) return null;
-  const g = divUp(delta, subDown(1, delta));
-  const out: T[] = new Array<T>(n * n);
-  for (let j = 0; j < n; j++) {
-    let colMax = 0;
-    for (let l = 0; l < n; l++) colMax = Math.max(colMax, Math.abs(q[j * n + l]!)); // column j of Qᵀ = row j of Q
-    const e = mulUp(g, colMax);
-    for (let i = 0; i < n; i++) out[i * n + j] = a.inflate(a.fromNumber(q[j * n + i]!), e);
-  }
-  return out;
 }
 
 function stabilityN<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
@@ -233,18 +175,18 @@ function stabilityN<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number
         bF[i * n + j] = s;
       }
     }
-    let qF: Float64Array = floatQ(bF, n) ?? identity;
-    let qInv = orthogonalInverse(a, qF, n);
+    let qF: Float64Array = orthonormalColumns(bF, n) ?? identity;
+    let qInv = orthogonalInverseEnclosure(a, qF, n);
     if (qInv === null) {
       qF = identity;
       qInv = Array.from(identity, (v) => a.fromNumber(v));
     }
     const q = Array.from(qF, (v) => a.fromNumber(v));
-    prod = matMulT(a, matMulT(a, qInv, matMulT(a, blk, qPrev, n), n), prod, n);
+    prod = intervalMatMul(a, intervalMatMul(a, qInv, intervalMatMul(a, blk, qPrev, n), n), prod, n);
     qPrevF = qF;
     qPrev = q;
   }
-  const S = matMulT(a, prod, qPrev, n);
+  const S = intervalMatMul(a, prod, qPrev, n);
   for (const x of S) if (!isBounded(a, x)) return undecided('the monodromy enclosure is unbounded (overflow)');
   const discs = gershgorinDiscs(a, S, n);
   if (discs === null) return undecided('no Gershgorin enclosure (approximate eigenbasis too ill-conditioned)');

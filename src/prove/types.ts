@@ -4,11 +4,13 @@
  * `ProvenOrbit` maps 1:1 onto the certificate v1 `orbit` / `claims` / `hints` sections
  * (docs/certificate-format.md; structurally equal to `ProvenOrbitData` in src/certificate/build.ts).
  */
+import type { StabilityClass } from '../certificate/types.js';
 
 /** A closed interval of exact decimal strings, lo <= hi. */
 export type DecimalPair = [string, string];
 
-export type StabilityClass = 'attracting' | 'repelling' | 'saddle' | 'undecided';
+/** The stability classes of the certificate format (declared once, in certificate/types.ts). */
+export type { StabilityClass };
 
 export interface ProvenStability {
   /** Stated only when proven from the (widened) enclosures below; otherwise 'undecided'. */

@@ -475,22 +475,3 @@ export function findOrbitsFromLongOrbit(map: CompiledMap, opts: LongOrbitOptions
   }
   return collector.sorted();
 }
-
-/**
- * The candidate with a point nearest to `point` (max-norm), with that point's index and the
- * distance; null for an empty list.
- */
-export function nearestCandidate(
-  candidates: readonly Candidate[],
-  point: ArrayLike<number>,
-): { candidate: Candidate; pointIndex: number; distance: number } | null {
-  let best: { candidate: Candidate; pointIndex: number; distance: number } | null = null;
-  for (const candidate of candidates) {
-    candidate.points.forEach((q, pointIndex) => {
-      let d = 0;
-      for (let c = 0; c < q.length; c++) d = Math.max(d, Math.abs(q[c]! - point[c]!));
-      if (best === null || d < best.distance) best = { candidate, pointIndex, distance: d };
-    });
-  }
-  return best;
-}

@@ -8,11 +8,11 @@ export {
   findCandidates,
   findOrbitFromSeed,
   findOrbitsFromLongOrbit,
-  nearestCandidate,
   searchRegion,
   type SearchRegion,
   type LongOrbitOptions,
 } from './find.js';
+export { candidateDistance, candidatesByDistance, maxNormDistance, nearestCandidate } from './nearest.js';
 export { ShootingNewton, type ShootingNewtonResult } from './newton.js';
 export {
   minimalPeriodApprox,

@@ -11,12 +11,12 @@ import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
 import { proveOrbit } from '../prove/index.js';
 import type { ProvenOrbit } from '../prove/types.js';
-import { findCandidates, type Candidate } from '../search/index.js';
+import { candidatesByDistance, findCandidates, type Candidate } from '../search/index.js';
 import { iterateFromStart } from './start.js';
 
 export interface CertifyOptions {
   period: number;
-  /** Prove only the candidate nearest this point (unless `all`). */
+  /** Prove only the candidate nearest this point (max-norm, search/nearest.ts; unless `all`). */
   near?: number[];
   /** Prove every candidate: no `limit`, and not only the nearest to `near`. */
   all?: boolean;
@@ -122,12 +122,6 @@ function startDrift(start: readonly CandidateCoordinate[], centre: readonly (rea
   return best;
 }
 
-function distance2(a: readonly number[], b: readonly number[]): number {
-  let s = 0;
-  for (let i = 0; i < a.length; i++) s += (a[i]! - b[i]!) ** 2;
-  return s;
-}
-
 /**
  * A user-given starting orbit as a candidate for display: float copies of the points. Not a search
  * result, so there is no residual or multiplier estimate (NaN / empty).
@@ -149,16 +143,6 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
 
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
-
-/** @heuristic candidate indices sorted by float distance of their nearest point to `near` (stable). */
-export function candidatesByDistance(cands: readonly Candidate[], near: readonly number[]): number[] {
-  const d = cands.map((c) => {
-    let best = Infinity;
-    for (const pt of c.points) best = Math.min(best, distance2(pt, near));
-    return best;
-  });
-  return cands.map((_, i) => i).sort((a, b) => d[a]! - d[b]! || a - b);
-}
 
 /** Search, prove, write and re-check. Throws only user errors (e.g. cert-exists) and bugs. */
 export async function certifyOrbits(

@@ -4,6 +4,7 @@
  * kept, enclosures dropped); the prover decides. Needed where a float search cannot reach: orbits
  * passing near a critical point need about 2p bits (DESIGN.md §5, precision escalation).
  */
+import { bitsForDigits } from '../interval/decimal-literal.js';
 import { mpIntervalArithmetic } from '../interval/mp.js';
 import type { CompiledMap } from '../model/types.js';
 
@@ -21,7 +22,7 @@ export function startDigits(period: number): number {
  * left the domain come back as "NaN"-free best guesses (the prover then reports not proven).
  */
 export function iterateFromStart(map: CompiledMap, start: readonly string[], period: number, digits = startDigits(period)): string[][] {
-  const bits = Math.ceil(digits * Math.log2(10)) + 8;
+  const bits = bitsForDigits(digits);
   const arith = mpIntervalArithmetic(bits);
   const ev = map.evaluator(arith);
   const n = map.dim;

@@ -8,7 +8,7 @@ interface Rat { n: bigint; d: bigint }
 function rat(s: string): Rat {
   const m = /^([+-]?)(\d*)\.?(\d*)(?:e([+-]?\d+))?$/i.exec(s)!;
   const digits = BigInt((m[2] || '0') + (m[3] || ''));
-  let e = Number(m[4] ?? 0) - (m[3] ?? '').length;
+  const e = Number(m[4] ?? 0) - (m[3] ?? '').length;
   const sign = m[1] === '-' ? -1n : 1n;
   if (e >= 0) return { n: sign * digits * 10n ** BigInt(e), d: 1n };
   return { n: sign * digits, d: 10n ** BigInt(-e) };

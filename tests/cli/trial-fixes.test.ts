@@ -94,8 +94,10 @@ describe('prove --limit / --all and progress', () => {
     expect(doc.orbits.length).toBe(20);
     expect(doc.unattempted).toBe(10);
     expect(doc.limit).toBe(20);
-    expect(progress[0]).toBe('\rproving 1/20 …');
-    expect(progress).toContain('\rproving 20/20 …');
+    // cli/progress.ts: the search (seeds), then the proofs (orbits), on one overwritten line
+    const clear = '\r\x1b[K';
+    expect(progress[0]!.startsWith(clear) && /^search {2}1\/\d+ seeds/.test(progress[0]!.slice(clear.length))).toBe(true);
+    expect(progress.some((t) => t.startsWith(clear) && /^prove {2}\d+\/20 orbits/.test(t.slice(clear.length)))).toBe(true);
     expect(progress[progress.length - 1]).toBe('\r\x1b[K');
     expect(r.stderr).toBe('');
   }, 30_000);

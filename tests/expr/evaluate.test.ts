@@ -5,18 +5,17 @@ import { resetStatus } from '../../src/interval/arithmetic.js';
 import { createFloatArithmetic } from '../../src/interval/float-arith.js';
 import { intervalArithmetic } from '../../src/interval/interval-arith.js';
 import type { Interval } from '../../src/interval/interval.js';
-import { compareDecimal } from '../../src/model/decimal.js';
+import { compareDecimal } from '../../src/interval/decimal-literal.js';
 
 /** Exact rational p/q (q > 0) vs decimal literal d: sign of d − p/q, with BigInt. */
 function cmpDecimalRational(d: string, p: bigint, q: bigint): number {
   const m = /^(-?)(\d+)(?:\.(\d*))?(?:e([+-]?\d+))?$/i.exec(d)!;
   const digits = BigInt(m[2]! + (m[3] ?? ''));
-  let e = (m[4] !== undefined ? Number(m[4]) : 0) - (m[3] ?? '').length;
+  const e = (m[4] !== undefined ? Number(m[4]) : 0) - (m[3] ?? '').length;
   let num = m[1] === '-' ? -digits : digits;
   let den = 1n;
   if (e >= 0) num *= 10n ** BigInt(e);
   else den = 10n ** BigInt(-e);
-  e = 0;
   const lhs = num * q;
   const rhs = p * den;
   return lhs < rhs ? -1 : lhs > rhs ? 1 : 0;

@@ -14,7 +14,8 @@ import { Decimal } from 'decimal.js';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { resetStatus } from '../../src/interval/arithmetic.js';
-import { mpDigitsForBits, mpIntervalArithmetic, type MpInterval } from '../../src/interval/mp.js';
+import { digitsForBits } from '../../src/interval/decimal-literal.js';
+import { mpIntervalArithmetic, type MpInterval } from '../../src/interval/mp.js';
 import {
   doubleDown,
   doubleUp,
@@ -27,7 +28,7 @@ const EXACT = Decimal.clone({ precision: 1_000_000, rounding: Decimal.ROUND_HALF
 const exact = (x: Decimal.Value): Decimal => new EXACT(x);
 
 const BITS = 200;
-const DIGITS = mpDigitsForBits(BITS);
+const DIGITS = digitsForBits(BITS);
 const ORACLE = Decimal.clone({ precision: 3 * DIGITS, rounding: Decimal.ROUND_HALF_EVEN });
 
 /** Random decimal literal with up to `maxDigits` significant digits and a moderate exponent. */
@@ -388,7 +389,7 @@ describe('elementary functions against decimal.js at 3× the working digits', ()
         decimalLiteral(25, -6, 2).filter((t) => !exact(t).isZero()),
         (bits, name, t) => {
           const B = mpIntervalArithmetic(bits);
-          const digits = mpDigitsForBits(bits);
+          const digits = digitsForBits(bits);
           const O = Decimal.clone({ precision: 2 * digits + 10 }); // error ~1e−(2d+10), below tol
           const arg = name === 'log' || name === 'sqrt' ? exact(t).abs() : exact(t);
           const r = B[name](B.fromDecimal(arg.toString()));
@@ -493,7 +494,7 @@ describe('π and e', () => {
   it('π contains decimal.js acos(−1) at high precision and is at most 2 units wide, at several precisions', () => {
     for (const bits of [53, 200, 400, 1000]) {
       const A = mpIntervalArithmetic(bits);
-      const digits = mpDigitsForBits(bits);
+      const digits = digitsForBits(bits);
       const pi = A.pi();
       const ref = Decimal.clone({ precision: 3 * digits + 10 }).acos(-1);
       expect(contains(pi, exact(ref))).toBe(true);

@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { MapLanguageError } from '../../src/expr/errors.js';
-import { compareDecimal, normalizeDecimal } from '../../src/model/decimal.js';
+import { compareDecimal } from '../../src/interval/decimal-literal.js';
+import { normalizeDecimal } from '../../src/model/decimal.js';
 import { parseParamOverride } from '../../src/model/params.js';
 
 describe('parseParamOverride', () => {

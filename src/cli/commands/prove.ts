@@ -1,8 +1,9 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, formatModulus, shortDown, table, widthUp } from '../format.js';
-import { parseBoundedInt, parseDigits, parseLimit, parseNear, parsePeriod, parseStart } from '../options.js';
+import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
+import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine } from './common.js';
 import { createProgress, type ProgressSink } from '../progress.js';
 
@@ -25,7 +26,7 @@ export interface ProveCommandOptions {
 
 export type { ProgressSink } from '../progress.js';
 
-export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
+export { DEFAULT_OUT_DIR } from '../options.js';
 
 /** Show at most this many orbit points in the table; the certificate has them all. */
 const MAX_POINTS_SHOWN = 6;
@@ -37,7 +38,7 @@ export async function proveCommand(
   progressSink?: ProgressSink,
 ): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const maxBits = o.maxBits !== undefined ? parseBoundedInt(o.maxBits, '--max-bits', 'bad-max-bits', 53, 100_000) : undefined;
+  const maxBits = o.maxBits !== undefined ? parseMaxBits(o.maxBits) : undefined;
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
   if (limit !== undefined && o.all) {

@@ -4,11 +4,11 @@ import { packageVersion } from '../../certificate/producer.js';
 import { writeFileAtomic } from '../../certificate/write.js';
 import { collectEntries, renderReportHtml } from '../../report/index.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
-import { parseDigits } from '../options.js';
+import { DEFAULT_REPORT_FILE, parseDigits } from '../options.js';
 import { createProgress, type ProgressSink } from '../progress.js';
 import type { CheckReport } from '../../checker/index.js';
 
-export const DEFAULT_REPORT_FILE = 'orbitseal-report.html';
+export { DEFAULT_REPORT_FILE };
 export const REPORT_JSON_KIND = 'report';
 export const REPORT_JSON_VERSION = 1;
 

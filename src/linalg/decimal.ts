@@ -1,5 +1,5 @@
 /**
- * @heuristic Multiprecision POINT linear algebra on decimal.js numbers for precision escalation:
+ * @heuristic Decimal (multiprecision) POINT linear algebra on decimal.js numbers for precision escalation:
  * the Newton refinement of a candidate and the preconditioner C ≈ J(m)^{-1} in more than 53 bits.
  * Nothing here is rigorous and nothing needs to be (any C is admissible in Krawczyk; the
  * refined centre is only a candidate). Rounding: the Decimal constructor's own (half-even).
@@ -9,12 +9,13 @@
  * row and column) factorisation costs O(n·N²) operations instead of O(N³).
  */
 import { Decimal } from 'decimal.js';
+import { digitsForBits } from '../interval/decimal-literal.js';
 
 export type DecimalCtor = typeof Decimal;
 
-/** A Decimal constructor working with about `bits` binary digits (plus guard digits). */
+/** A Decimal constructor working with about `bits` binary digits (`digitsForBits`, with its guard digits). */
 export function decimalContext(bits: number): DecimalCtor {
-  const precision = Math.ceil(bits * 0.30103) + 6;
+  const precision = digitsForBits(bits);
   return Decimal.clone({ precision, rounding: Decimal.ROUND_HALF_EVEN, toExpNeg: -9e15, toExpPos: 9e15, minE: -9e15, maxE: 9e15 });
 }
 
