@@ -16,6 +16,7 @@ import type { FindCommandOptions } from './commands/find.js';
 import type { ProveCommandOptions } from './commands/prove.js';
 import type { ShowCommandOptions } from './commands/show.js';
 import type { ReportCommandOptions } from './commands/report.js';
+import type { CatalogueCommandOptions } from './commands/catalogue.js';
 
 /** Commander collector for repeatable options. */
 export function collect(value: string, previous: string[] | undefined): string[] {
@@ -77,6 +78,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .requiredOption('--period <P>', 'minimal period')
     .option('--near <x,y,...>', 'look near this point')
     .option('--param <name=value>', PARAM_HELP, collect)
+    .option('--limit <N>', 'list at most N candidates (the number found is always given)')
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
@@ -127,6 +129,15 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .action((paths: string[], o: ReportCommandOptions) => {
       wantsJson = !!o.json;
       return run(async () => (await import('./commands/report.js')).reportCommand(paths, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('catalogue')
+    .description('list the published maps that can be named instead of a map file: formulas, default parameters, region, source')
+    .option('--json', 'print one JSON document')
+    .action((o: CatalogueCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/catalogue.js')).catalogueCommand(o))();
     });
 
   program

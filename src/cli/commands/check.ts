@@ -2,6 +2,7 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
+import { jsonResult } from '../json.js';
 import { parseDigits } from '../options.js';
 import { createProgress, type ProgressSink } from '../progress.js';
 import { checkPaths, type CheckReport } from '../../checker/index.js';
@@ -19,11 +20,10 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   }
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
-  absolute.forEach((p, i) => {
-    if (!existsSync(p)) {
-      throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
-    }
-  });
+  // a missing path among others is reported as UNREADABLE and the rest is still checked
+  if (!absolute.some((p) => existsSync(p))) {
+    throw new UsageError('no-input', 'arguments', paths.join(' '), 'no such file or folder', 'give certificate files (*.json) or folders holding them');
+  }
   const bar = createProgress(progressSink, o.columns);
   const onReport = (r: CheckReport, i: number, total: number) =>
     bar.update('check', i, total, 'certificates', `${r.verdict} ${r.file ? shownPath(r.file, cwd) : ''}`);
@@ -34,18 +34,19 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   }
   const exitCode: ExitCode = reports.every((r) => r.verdict === 'VERIFIED') ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
-    return { stdout: JSON.stringify({ reports, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+    return jsonResult('check', { items: reports, reports }, exitCode);
   }
   return { stdout: renderCheck(reports, cwd, o.columns) + '\n', stderr: '', exitCode };
 }
 
 /**
- * A JSON file without a "format" key is no certificate at all: say so instead of the checker's
- * "unknown format undefined". (Rewrites only that one reason; verdicts are never changed.)
+ * A JSON file without a "format" key is no certificate at all: UNREADABLE with a plain reason
+ * instead of the checker's REJECTED "unknown format undefined" (never turns anything VERIFIED).
  */
 export function clarifyReport(r: CheckReport): CheckReport {
   if (r.verdict !== 'VERIFIED' && r.path === '$.format' && /^unknown format undefined\b/.test(r.reason ?? '')) {
-    return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
+    // JSON, but no certificate at all: unreadable as a certificate (README "check")
+    return { ...r, verdict: 'UNREADABLE', reason: "not an orbitseal certificate (no 'format' key)" };
   }
   return r;
 }

@@ -2,6 +2,7 @@ import { existsSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import type { CompiledMap, MapDefinition, ParamValue } from '../../model/types.js';
 import { compileMap, parseParamOverride, resolveMap } from '../../model/index.js';
+import { UsageError } from '../errors.js';
 
 export interface LoadedMap {
   def: MapDefinition;
@@ -24,6 +25,9 @@ export function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd 
   const overrides: Record<string, ParamValue> = {};
   for (const text of paramTexts) {
     const o = parseParamOverride(text);
+    if (o.name in overrides) {
+      throw new UsageError('bad-param-override', '--param', text, `parameter '${o.name}' is given twice`, `give each parameter once (the other value was ${paramText(overrides[o.name]!)})`);
+    }
     overrides[o.name] = o.value;
   }
   const def = resolveMap(mapArgFrom(mapArg, cwd));

@@ -1,8 +1,9 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
-import { parseNear, parsePeriod } from '../options.js';
+import { jsonResult } from '../json.js';
+import { parseLimit, parseNear, parsePeriod } from '../options.js';
 import { findCandidates, type Candidate } from '../../search/index.js';
-import { loadMap, paramsLine } from './common.js';
+import { loadMap, paramsLine, paramText } from './common.js';
 import { createProgress, type ProgressSink } from '../progress.js';
 
 export interface FindCommandOptions {
@@ -10,6 +11,8 @@ export interface FindCommandOptions {
   near?: string;
   json?: boolean;
   param?: string[];
+  /** At most this many candidates in the output (the count found is always given). */
+  limit?: string;
   /** Terminal width for the table (default no limit). */
   columns?: number;
 }
@@ -31,19 +34,24 @@ export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = p
   });
   bar.finish();
   const exitCode = cands.length > 0 ? EXIT_OK : EXIT_NOT_PROVEN;
+  const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
+  const listed = limit !== undefined ? cands.slice(0, limit) : cands;
   if (o.json) {
+    const params: Record<string, string> = {};
+    for (const [k, v] of Object.entries({ ...def.params, ...overrides })) params[k] = paramText(v);
     const doc = {
-      kind: 'candidates',
       note: 'float search results, not proofs',
-      map: { title: def.title, state: def.state, origin: def.origin },
+      map: { title: def.title, state: def.state, ...(def.origin !== undefined ? { origin: def.origin } : {}), params },
       period,
-      candidates: cands,
-      exitCode,
+      found: cands.length,
+      ...(limit !== undefined ? { limit } : {}),
+      // multipliers always as {re, im} (a real one has im = 0)
+      candidates: listed.map((c) => ({ ...c, multipliers: c.multipliers.map((m) => (typeof m === 'number' ? { re: m, im: 0 } : m)) })),
     };
-    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
+    return jsonResult('candidates', doc, exitCode);
   }
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderFind(cands, header, def.state, period, o.columns) + '\n', stderr: '', exitCode };
+  return { stdout: renderFind(listed, header, def.state, period, o.columns, cands.length) + '\n', stderr: '', exitCode };
 }
 
 function multiplierText(m: unknown): string {
@@ -56,8 +64,8 @@ function multiplierText(m: unknown): string {
 }
 
 /** Pure renderer for `find`. Numbers here are floats, labelled with ≈. */
-export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number, width = Infinity): string {
-  const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period ${period}`];
+export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number, width = Infinity, found = cands.length): string {
+  const lines = [header, `${CANDIDATES_LABEL}: ${found} of minimal period ${period}${found > cands.length ? ` (--limit: the first ${cands.length} listed)` : ''}`];
   if (cands.length === 0) {
     lines.push('none found in the region. hint: try --near x,... or another --period.');
     return lines.join('\n');

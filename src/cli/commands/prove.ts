@@ -4,7 +4,9 @@ import { formatInterval, formatModulus, shortDown, table, widthUp } from '../for
 import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
-import { loadMap, paramsLine } from './common.js';
+import { loadMap, paramsLine, paramText } from './common.js';
+import { jsonResult } from '../json.js';
+import type { MapDefinition, ParamValue } from '../../model/types.js';
 import { createProgress, type ProgressSink } from '../progress.js';
 
 export interface ProveCommandOptions {
@@ -73,7 +75,7 @@ export async function proveCommand(
   });
   bar.finish();
   const exitCode = proveExitCode(report);
-  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
+  if (o.json) return jsonResult('proofs', proveJson(report, def, overrides), exitCode);
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
   return { stdout: renderProve(report, header, cwd, o.columns) + '\n', stderr: '', exitCode };
 }
@@ -84,9 +86,11 @@ export function proveExitCode(r: CertifyReport): ExitCode {
 }
 
 /** The `--json` document of a prove run. */
-export function proveJson(r: CertifyReport): Record<string, unknown> {
+export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Record<string, ParamValue> = {}): Record<string, unknown> {
+  const params: Record<string, string> = {};
+  if (def) for (const [k, v] of Object.entries({ ...def.params, ...overrides })) params[k] = paramText(v);
   return {
-    map: r.map,
+    map: def ? { ...r.map, params } : r.map,
     period: r.period,
     candidatesFound: r.candidatesFound,
     limit: r.limit,

@@ -5,12 +5,11 @@ import { writeFileAtomic } from '../../certificate/write.js';
 import { collectEntries, renderReportHtml } from '../../report/index.js';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { DEFAULT_REPORT_FILE, parseDigits } from '../options.js';
+import { jsonResult } from '../json.js';
 import { createProgress, type ProgressSink } from '../progress.js';
 import type { CheckReport } from '../../checker/index.js';
 
 export { DEFAULT_REPORT_FILE };
-export const REPORT_JSON_KIND = 'report';
-export const REPORT_JSON_VERSION = 1;
 
 export interface ReportCommandOptions {
   out?: string;
@@ -58,15 +57,12 @@ export async function reportCommand(paths: string[], o: ReportCommandOptions, cw
   };
   if (o.json) {
     const doc = {
-      kind: REPORT_JSON_KIND,
-      formatVersion: REPORT_JSON_VERSION,
       out: outPath,
       svg: svgFiles,
       items: entries.map((e) => ({ file: e.file, verdict: e.verdict, ...(e.reason !== undefined ? { reason: e.reason } : {}) })),
       plots: plots.length,
-      exitCode,
     };
-    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
+    return jsonResult('report', doc, exitCode);
   }
   const lines = [
     `wrote ${show(outPath)}: ${entries.length} file${entries.length === 1 ? '' : 's'} (${n('VERIFIED')} verified, ${n('REJECTED')} rejected, ${n('UNREADABLE')} unreadable), ${plots.length} plots`,

@@ -1,5 +1,6 @@
 import { EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
+import { jsonResult } from '../json.js';
 import { intervalArithmetic } from '../../interval/interval-arith.js';
 import { describeMap, type MapDescription } from '../../model/index.js';
 import type { ParamValue } from '../../model/types.js';
@@ -16,7 +17,7 @@ export async function showCommand(mapArg: string, o: ShowCommandOptions, cwd = p
   const { overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
   const description = describeMap(compiled, intervalArithmetic());
   if (o.json) {
-    return { stdout: JSON.stringify(description, null, 2) + '\n', stderr: '', exitCode: EXIT_OK };
+    return jsonResult('map', { map: description }, EXIT_OK);
   }
   return { stdout: renderShow(description, overrides, o.columns) + '\n', stderr: '', exitCode: EXIT_OK };
 }
