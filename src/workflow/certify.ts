@@ -144,6 +144,13 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
+/** Command-line parameter values as text for file names (exact "3.83" or [lo, hi]). */
+function overrideTexts(o: Record<string, ParamValue> | undefined): Record<string, string | [string, string]> {
+  const out: Record<string, string | [string, string]> = {};
+  for (const [k, v] of Object.entries(o ?? {})) out[k] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
+  return out;
+}
+
 /** Search, prove, write and re-check. Throws only user errors (e.g. cert-exists) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
@@ -186,7 +193,7 @@ export async function certifyOrbits(
     const orbit = verdict.orbit;
     const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
     k++;
-    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k)), cert, {
+    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
       force: opts.force ?? false,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };

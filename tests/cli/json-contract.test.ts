@@ -86,4 +86,18 @@ describe('small findings of issue 13', () => {
     expect(r.stdout).toMatch(/henon — Hénon map\n {2}x' = 1 - a\*x\^2 \+ y\n {2}y' = b\*x\n {2}parameters: a = 1\.4, b = 0\.3/); // Hénon 1976
     expect(Math.max(...r.stdout.split('\n').map((l) => l.length))).toBeLessThanOrEqual(80);
   });
+
+  it('certificate names carry the --param values; an identical re-run is not an error; a different one is', async () => {
+    const out = join(work, 'runs');
+    const run = (r: string) => runCli(['prove', 'logistic', '--param', `r=${r}`, '--period', '2', '--out', out], { cwd: work });
+    expect((await run('3.2')).exitCode).toBe(0);
+    expect((await run('3.2')).exitCode).toBe(0); // same command, same bytes: fine
+    expect((await run('3.3')).exitCode).toBe(0); // another r: another name, no collision
+    const { readdirSync } = await import('node:fs');
+    expect(readdirSync(out).sort()).toEqual(['logistic-map-r3.2-p2-1.json', 'logistic-map-r3.3-p2-1.json']);
+    writeFileSync(join(out, 'logistic-map-r3.2-p2-1.json'), '{}\n'); // a different file is still never replaced
+    const clash = await run('3.2');
+    expect(clash.exitCode).toBe(2);
+    expect(clash.stderr).toMatch(/cert-exists/);
+  }, 60_000);
 });

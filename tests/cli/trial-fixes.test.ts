@@ -185,7 +185,7 @@ describe('prove --start: one exact point, iterated in multiprecision (precision-
     expect(r.exitCode).toBe(0);
     expect(r.stdout).toMatch(/candidate \(not a proof\): the 50 points from --start/);
     const row = r.stdout.split('\n').find((l) => l.startsWith('1  proven, re-verified'))!;
-    const bits = /\s(\d+)\s+\S+logistic-map-p50-1\.json$/.exec(row)!;
+    const bits = /\s(\d+)\s+\S+logistic-map-r4-p50-1\.json$/.exec(row)!;
     expect(Number(bits[1])).toBeGreaterThan(53);
   }, 60_000);
 
