@@ -100,4 +100,16 @@ describe('small findings of issue 13', () => {
     expect(clash.exitCode).toBe(2);
     expect(clash.stderr).toMatch(/cert-exists/);
   }, 60_000);
+
+  it('a parameter no formula uses is warned about on stderr; catalogue maps and examples have none', async () => {
+    writeFileSync(join(work, 'unused.yaml'), 'title: Unused\nstate: [x]\nparams:\n  r: 3.5\n  K: 2\nstep:\n  x: r*x*(1 - x)\nregion:\n  x: [0, 1]\n');
+    const r = await runCli(['show', 'unused.yaml', '--param', 'K=3'], { cwd: work });
+    expect(r.exitCode).toBe(0);
+    expect(r.stderr).toBe("warning: parameter 'K' is not used by any step formula (its --param changes nothing)\n");
+    const names = JSON.parse((await runCli(['catalogue', '--json'])).stdout).maps.map((m: { name: string }) => m.name);
+    for (const m of [...names, join(root, 'examples/meadow-beetles.yaml'), join(root, 'examples/harvested-fishery.yaml')]) {
+      expect((await runCli(['show', m], { cwd: work })).stderr, m).toBe('');
+    }
+  });
 });
+

@@ -8,6 +8,14 @@ export interface LoadedMap {
   def: MapDefinition;
   overrides: Record<string, ParamValue>;
   compiled: CompiledMap;
+  /** Lines for stderr, e.g. a parameter that no step formula uses (each ends with a newline). */
+  warnings: string;
+}
+
+/** Parameters that no step formula mentions (a likely typo, or a --param that changes nothing). */
+export function unusedParameters(def: MapDefinition, names: readonly string[]): string[] {
+  const formulas = def.state.map((s) => def.step[s] ?? '').join('\n');
+  return names.filter((n) => !new RegExp(`(^|[^A-Za-z0-9_])${n.replace(/[^A-Za-z0-9_]/g, '')}([^A-Za-z0-9_(]|$)`).test(formulas));
 }
 
 /**
@@ -32,7 +40,10 @@ export function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd 
   }
   const def = resolveMap(mapArgFrom(mapArg, cwd));
   const compiled = compileMap(def, overrides);
-  return { def, overrides, compiled };
+  const warnings = unusedParameters(def, [...new Set([...Object.keys(def.params), ...Object.keys(overrides)])])
+    .map((n) => `warning: parameter '${n}' is not used by any step formula${n in overrides ? ' (its --param changes nothing)' : ''}\n`)
+    .join('');
+  return { def, overrides, compiled, warnings };
 }
 
 /** Parameter value as text: "3.83" or "[3.83, 3.84]". */

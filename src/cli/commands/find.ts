@@ -24,7 +24,7 @@ export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
 
 export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd(), progressSink?: ProgressSink): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const bar = createProgress(progressSink, o.columns);
   const cands = findCandidates(compiled, {
@@ -48,10 +48,10 @@ export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = p
       // multipliers always as {re, im} (a real one has im = 0)
       candidates: listed.map((c) => ({ ...c, multipliers: c.multipliers.map((m) => (typeof m === 'number' ? { re: m, im: 0 } : m)) })),
     };
-    return jsonResult('candidates', doc, exitCode);
+    return jsonResult('candidates', doc, exitCode, warnings);
   }
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderFind(listed, header, def.state, period, o.columns, cands.length) + '\n', stderr: '', exitCode };
+  return { stdout: renderFind(listed, header, def.state, period, o.columns, cands.length) + '\n', stderr: warnings, exitCode };
 }
 
 function multiplierText(m: unknown): string {

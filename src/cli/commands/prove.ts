@@ -49,7 +49,7 @@ export async function proveCommand(
   if (o.start !== undefined && (o.near !== undefined || o.all || limit !== undefined)) {
     throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
   }
-  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
@@ -75,9 +75,9 @@ export async function proveCommand(
   });
   bar.finish();
   const exitCode = proveExitCode(report);
-  if (o.json) return jsonResult('proofs', proveJson(report, def, overrides), exitCode);
+  if (o.json) return jsonResult('proofs', proveJson(report, def, overrides), exitCode, warnings);
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderProve(report, header, cwd, o.columns) + '\n', stderr: '', exitCode };
+  return { stdout: renderProve(report, header, cwd, o.columns) + '\n', stderr: warnings, exitCode };
 }
 
 /** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */

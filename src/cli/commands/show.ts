@@ -14,12 +14,12 @@ export interface ShowCommandOptions {
 }
 
 export async function showCommand(mapArg: string, o: ShowCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
-  const { overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  const { overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   const description = describeMap(compiled, intervalArithmetic());
   if (o.json) {
-    return jsonResult('map', { map: description }, EXIT_OK);
+    return jsonResult('map', { map: description }, EXIT_OK, warnings);
   }
-  return { stdout: renderShow(description, overrides, o.columns) + '\n', stderr: '', exitCode: EXIT_OK };
+  return { stdout: renderShow(description, overrides, o.columns) + '\n', stderr: warnings, exitCode: EXIT_OK };
 }
 
 /** Pure renderer for `show`: the map as understood, with exact enclosures. */
