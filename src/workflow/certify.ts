@@ -3,9 +3,10 @@
  * one certificate per proven orbit, and re-verify each written file with the independent checker.
  * The CLI's `prove` and `demo` commands are this function plus rendering and an exit code.
  */
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 import { buildCertificate } from '../certificate/build.js';
-import { certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
+import { certificateFileName, checkDirectoryUsable, writeCertificate, writeFileAtomic } from '../certificate/write.js';
+import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
@@ -49,6 +50,26 @@ export interface CertifyOptions {
   /** Digits for the checker (default: the certificate's hint). */
   digits?: number;
   overrides?: Record<string, ParamValue>;
+  /**
+   * The command line to record in the run manifest (`<certificate stem>.run` in `outDir`, JSON),
+   * rewritten after every orbit so an interrupted run leaves a record of what it finished.
+   * Absent: no manifest.
+   */
+  manifestCommand?: string;
+}
+
+/** The run manifest: what was asked, by which version, and which orbits finished. */
+export interface RunManifest {
+  kind: 'run-manifest';
+  formatVersion: 1;
+  command: string;
+  producer: string;
+  map: { title: string; state: string[]; params: Record<string, string | [string, string]> };
+  period: number;
+  candidatesFound: number;
+  toAttempt: number;
+  finished: { index: number; status: OrbitStatus; certificate?: string }[];
+  complete: boolean;
 }
 
 /**
@@ -180,6 +201,28 @@ export async function certifyOrbits(
 
   const outcomes: OrbitOutcome[] = [];
   let k = 0;
+  const manifestPath = opts.manifestCommand !== undefined
+    ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, overrideTexts(opts.overrides)).replace(/-0\.json$/, '.run'))
+    : undefined;
+  const writeManifest = (complete: boolean): void => {
+    if (manifestPath === undefined) return;
+    const params: Record<string, string | [string, string]> = {};
+    for (const [name, v] of Object.entries({ ...def.params, ...(opts.overrides ?? {}) })) params[name] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
+    const manifest: RunManifest = {
+      kind: 'run-manifest',
+      formatVersion: 1,
+      command: opts.manifestCommand!,
+      producer: `${PRODUCER_NAME} ${packageVersion()}`,
+      map: { title: def.title, state: [...def.state], params },
+      period: opts.period,
+      candidatesFound: found.length,
+      toAttempt: chosen.length,
+      finished: outcomes.map((o) => ({ index: o.index, status: o.status, ...(o.certificatePath ? { certificate: basename(o.certificatePath) } : {}) })),
+      complete,
+    };
+    writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + '\n', { force: true });
+  };
+  writeManifest(false);
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
     opts.progress?.(index, chosen.length);
@@ -188,6 +231,7 @@ export async function certifyOrbits(
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
       outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
+      writeManifest(false);
       continue;
     }
     const orbit = verdict.orbit;
@@ -215,7 +259,9 @@ export async function certifyOrbits(
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
     outcomes.push(outcome);
+    writeManifest(false);
   }
+  writeManifest(true);
 
   // Asked for minimal period P: a solution of the period-P system whose boxes overlap (a fixed
   // point, a shorter cycle run several times) is proven as stated, but not what was asked for.

@@ -94,7 +94,7 @@ describe('small findings of issue 13', () => {
     expect((await run('3.2')).exitCode).toBe(0); // same command, same bytes: fine
     expect((await run('3.3')).exitCode).toBe(0); // another r: another name, no collision
     const { readdirSync } = await import('node:fs');
-    expect(readdirSync(out).sort()).toEqual(['logistic-map-r3.2-p2-1.json', 'logistic-map-r3.3-p2-1.json']);
+    expect(readdirSync(out).filter((f) => f.endsWith('.json')).sort()).toEqual(['logistic-map-r3.2-p2-1.json', 'logistic-map-r3.3-p2-1.json']);
     writeFileSync(join(out, 'logistic-map-r3.2-p2-1.json'), '{}\n'); // a different file is still never replaced
     const clash = await run('3.2');
     expect(clash.exitCode).toBe(2);
@@ -111,5 +111,35 @@ describe('small findings of issue 13', () => {
       expect((await runCli(['show', m], { cwd: work })).stderr, m).toBe('');
     }
   });
+
+  it('a run manifest records the command, version, parameters and finished orbits, also when interrupted', async () => {
+    const out = join(work, 'manifest');
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--out', out], { cwd: work });
+    expect(r.exitCode).toBe(0);
+    const m = JSON.parse(readFileSync(join(out, 'logistic-map-r3.83-p3.run'), 'utf8'));
+    expect(m).toMatchObject({ kind: 'run-manifest', formatVersion: 1, period: 3, complete: true, map: { params: { r: '3.83' } } });
+    expect(m.command).toBe(`orbitseal prove logistic --period 3 --param r=3.83 --out ${out}`);
+    // two period-3 orbits at r = 3.83 (C. Zhang, arXiv:1204.0546)
+    expect(m.finished.map((f: { certificate: string }) => f.certificate)).toEqual(['logistic-map-r3.83-p3-1.json', 'logistic-map-r3.83-p3-2.json']);
+
+    // interrupted before the second orbit (a progress callback that throws stands for Ctrl-C)
+    const { certifyOrbits } = await import('../../src/workflow/certify.js');
+    const { compileMap, getCatalogueMap } = await import('../../src/model/index.js');
+    const def = getCatalogueMap('logistic')!;
+    const overrides = { r: { kind: 'exact' as const, value: '3.83' } };
+    const cut = join(work, 'cut');
+    await expect(
+      certifyOrbits(def, compileMap(def, overrides), {
+        period: 3, outDir: cut, all: true, overrides, manifestCommand: 'test',
+        progress: (attempt) => {
+          if (attempt === 2) throw new Error('interrupted');
+        },
+      }),
+    ).rejects.toThrow('interrupted');
+    const c = JSON.parse(readFileSync(join(cut, 'logistic-map-r3.83-p3.run'), 'utf8'));
+    expect(c.complete).toBe(false);
+    expect(c.toAttempt).toBe(2);
+    expect(c.finished).toHaveLength(1);
+  }, 60_000);
 });
 

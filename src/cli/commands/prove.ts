@@ -72,12 +72,28 @@ export async function proveCommand(
     ...(maxBits ? { maxBits } : {}),
     ...(digits ? { digits } : {}),
     overrides,
+    manifestCommand: proveCommandLine(mapArg, o),
   });
   bar.finish();
   const exitCode = proveExitCode(report);
   if (o.json) return jsonResult('proofs', proveJson(report, def, overrides), exitCode, warnings);
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
   return { stdout: renderProve(report, header, cwd, o.columns) + '\n', stderr: warnings, exitCode };
+}
+
+/** The command as typed (options in a fixed order), for the run manifest. */
+export function proveCommandLine(mapArg: string, o: ProveCommandOptions): string {
+  const parts = ['orbitseal', 'prove', mapArg, '--period', o.period];
+  for (const p of o.param ?? []) parts.push('--param', p);
+  if (o.near !== undefined) parts.push('--near', o.near);
+  if (o.start !== undefined) parts.push('--start', o.start);
+  if (o.limit !== undefined) parts.push('--limit', o.limit);
+  if (o.all) parts.push('--all');
+  if (o.maxBits !== undefined) parts.push('--max-bits', o.maxBits);
+  if (o.check === false) parts.push('--no-check');
+  if (o.digits !== undefined) parts.push('--digits', o.digits);
+  parts.push('--out', o.out ?? DEFAULT_OUT_DIR);
+  return parts.map((p) => (/^[\w.,=/:+-]+$/.test(p) ? p : JSON.stringify(p))).join(' ');
 }
 
 /** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
