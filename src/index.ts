@@ -1,14 +1,20 @@
 /**
- * orbitseal — the library's public API. The CLI (src/cli/) is a thin layer over exactly these
- * functions, so research code can do everything the command line does.
+ * orbitseal — the library's public API, chosen deliberately: the workflows (what the command line
+ * runs, as functions that return reports) and the stable pieces under them. Internals of each
+ * layer are not exported; what is here is documented in the API reference (`npm run docs`).
  *
  * Typical use:
  * ```ts
- * import { resolveMap, compileMap, findCandidates, proveOrbit, buildCertificate,
- *          writeCertificate, checkPaths } from 'orbitseal';
+ * import { resolveMap, compileMap, certifyOrbits } from 'orbitseal';
  * const def = resolveMap('logistic');
  * const overrides = { r: { kind: 'exact', value: '3.83' } } as const;
  * const map = compileMap(def, overrides);
+ * const report = await certifyOrbits(def, map, { period: 3, outDir: 'out', overrides });
+ * // report.outcomes: one per attempted candidate; report.allProven: every one proven and re-verified
+ * ```
+ * or step by step:
+ * ```ts
+ * import { findCandidates, proveOrbit, buildCertificate, writeCertificate, checkPaths } from 'orbitseal';
  * findCandidates(map, { period: 3 }).forEach((c, k) => {
  *   const v = proveOrbit(map, c.points);
  *   if (v.status === 'proven') {
@@ -17,67 +23,64 @@
  * });
  * const reports = checkPaths(['out']);   // the independent checker
  * ```
- * or in one call: `await certifyOrbits(def, map, { period: 3, outDir: 'out', overrides })`.
- *
- * Every layer is also available as a namespace (`interval`, `expr`, `model`, `linalg`, `search`,
- * `prove`, `certificate`, `checker`) for the less common functions.
  */
+
+// workflows: search → prove → write → check, returning reports (src/workflow/)
+export {
+  certifyOrbits,
+  statusLabel,
+  DEFAULT_PROVE_LIMIT,
+  type CertifyOptions,
+  type CertifyReport,
+  type OrbitOutcome,
+  type OrbitStatus,
+} from './workflow/certify.js';
+export { runDemo, type DemoReport, type DemoRun } from './workflow/demo.js';
+export { iterateFromStart, startDigits } from './workflow/start.js';
 
 // shared contracts
 export type { Arithmetic, EvalStatus, IntervalArithmetic } from './interval/arithmetic.js';
 export type { CompiledMap, MapDefinition, MapEvaluator, ParamValue } from './model/types.js';
 
-// interval kernel
+// user errors: one base class, a subclass per layer
+export { UserError } from './errors.js';
+export { MapLanguageError, type MapLanguageErrorCode } from './expr/errors.js';
+export { SearchOptionError } from './search/errors.js';
+export { CertificateWriteError, type CertificateWriteErrorCode } from './certificate/write.js';
+
+// limits shared by the prover, the CLI and the checker
+export { MAX_BITS, MAX_DIGITS, MAX_DIMENSION, MAX_PERIOD } from './certificate/limits.js';
+
+// interval kernel and exact decimal literals
 export { Interval } from './interval/interval.js';
 export { intervalArithmetic } from './interval/interval-arith.js';
 export { floatArithmetic } from './interval/float-arith.js';
-export { mpIntervalArithmetic } from './interval/mp.js';
-export { encloseDecimal, decimalOfDouble } from './interval/decimal-literal.js';
+export { mpIntervalArithmetic, type MpInterval } from './interval/mp.js';
+export { compareDecimal, decimalOfDouble, encloseDecimal, isDecimalLiteral } from './interval/decimal-literal.js';
 
 // map language and models
-export { MapLanguageError, parseFormula } from './expr/index.js';
-export {
-  compileMap,
-  resolveMap,
-  loadMapFile,
-  parseMapSource,
-  parseParamOverride,
-  catalogueNames,
-  getCatalogueMap,
-  describeMap,
-  type MapDescription,
-  type ParamOverride,
-} from './model/index.js';
+export { parseFormula } from './expr/parser.js';
+export { compileMap } from './model/compile.js';
+export { loadMapFile, parseMapSource } from './model/load.js';
+export { parseParamOverride, type ParamOverride } from './model/params.js';
+export { catalogueNames, getCatalogueMap, resolveMap } from './model/catalogue.js';
+export { describeMap, type MapDescription } from './model/describe.js';
 
-// float search (@heuristic) and the prover
-export { findCandidates, findOrbitFromSeed, nearestCandidate, type Candidate, type SearchOptions } from './search/index.js';
-export { proveOrbit, type ProveOrbitOptions, type OrbitVerdict, type ProvenOrbit, type ProvenStability, type NotProvenReason } from './prove/index.js';
+// float search (@heuristic: candidates, not results)
+export { findCandidates, findOrbitFromSeed } from './search/find.js';
+export { candidatesByDistance, nearestCandidate } from './search/nearest.js';
+export type { Candidate, SearchOptions } from './search/types.js';
+
+// the prover
+export { proveOrbit, type CandidateCoordinate, type ProveOrbitOptions } from './prove/orbit.js';
+export type { NotProvenReason, OrbitVerdict, ProvenOrbit, ProvenStability, StabilityClass } from './prove/types.js';
 
 // certificates and the independent checker
-export {
-  buildCertificate,
-  writeCertificate,
-  serializeCertificate,
-  certificateFileName,
-  certificateHash,
-  canonicalJson,
-  CertificateWriteError,
-  type CertificateV1,
-} from './certificate/index.js';
-export { checkCertificate, checkPaths, type CheckReport, type CheckOptions } from './checker/index.js';
+export { buildCertificate } from './certificate/build.js';
+export { certificateFileName, serializeCertificate, writeCertificate } from './certificate/write.js';
+export { canonicalJson, certificateHash } from './certificate/canonical.js';
+export type { CertificateV1 } from './certificate/types.js';
+export { checkCertificate, checkPaths, CheckerInternalError, type CheckOptions, type CheckReport, type Verdict } from './checker/index.js';
 
-// workflows (search → prove → write → check, as data) and the CLI as a function
-export { certifyOrbits, type CertifyOptions, type CertifyReport, type OrbitOutcome, type OrbitStatus } from './workflow/certify.js';
-export { runDemo, type DemoReport, type DemoRun } from './workflow/demo.js';
-export { iterateFromStart, startDigits } from './workflow/start.js';
+// the command line as a function: argv → { stdout, stderr, exitCode }
 export { runCli } from './cli/program.js';
-
-// layer namespaces
-export * as interval from './interval/index.js';
-export * as expr from './expr/index.js';
-export * as model from './model/index.js';
-export * as linalg from './linalg/index.js';
-export * as search from './search/index.js';
-export * as prove from './prove/index.js';
-export * as certificate from './certificate/index.js';
-export * as checker from './checker/index.js';

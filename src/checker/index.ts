@@ -17,7 +17,7 @@
  *     and Machin's formula for π (elementary.ts), X_i ∩ X_{i+p/q} = ∅ for every prime q | p ⇒
  *     minimal period p (weaker than, and implied by, pairwise disjointness),
  *     eigenvalues of a 2×2 matrix from trace and determinant.
- *  4. This code (~1,750 lines, ~1,490 without comments: interval.ts, elementary.ts, formula.ts,
+ *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
  * C is valid; it is computed non-rigorously), hints (they only choose the precision).
@@ -29,15 +29,20 @@
  * Deliberate choice: a stability class "undecided" is always accepted (it claims nothing).
  *
  * Limits (CheckLimits, configurable through `opts.limits`) keep hostile input fast and bounded.
+ *
+ * Reading order: `readCertificate` (the schema, every field checked) → `runCheck`, which builds the
+ * boxes and calls one function per claim: `verifyExistence`, `verifyUniqueness`,
+ * `verifyMinimalPeriod`, `verifyStability`.
  */
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
+import { MAX_DIGITS } from '../certificate/limits.js';
 import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type Precond, type Shooting } from './krawczyk.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
@@ -84,7 +89,7 @@ export const DEFAULT_LIMITS: CheckLimits = {
   maxUnknowns: 2500,
   maxNumberLength: 2000,
   maxExponent: 100_000,
-  maxDigits: 2000,
+  maxDigits: MAX_DIGITS,
   maxFormulaLength: 10_000,
   maxDecimalPrecondUnknowns: 600,
 };
@@ -136,7 +141,35 @@ function int(v: unknown, path: string, min: number, max: number): number {
   return x;
 }
 
-function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+/** A certificate as read from its document: the schema checked, nothing computed yet. */
+interface ReadCertificate {
+  p: number;
+  n: number;
+  step: Node[];
+  /** Parameter name → [lo, hi] decimal text (lo = hi for an exact value). */
+  paramText: Map<string, [string, string]>;
+  centreTxt: string[][];
+  boxTxt: [string, string][][];
+  /** Claimed uniqueness radius, or null (no claim). */
+  radius: string | null;
+  /** Claimed minimal period, or null (no claim). */
+  minimal: number | null;
+  stability: StabilityClaim | null;
+  /** Working precision (digits) from the options and the hints. */
+  digits: number;
+}
+
+/** The stability claim as text: the class and the enclosures the certificate states. */
+interface StabilityClaim {
+  cls: string;
+  multiplier?: [string, string];
+  trace?: [string, string];
+  determinant?: [string, string];
+  eigenvalueModuli?: [string, string][];
+}
+
+/** Schema reading: every field of the document checked (types, ranges, limits), or a Refusal. */
+function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits): ReadCertificate {
   const dec = (v: unknown, path: string): string => {
     const s = str(v, path);
     if (s.length > limits.maxNumberLength) reject(path, `number at ${path} has ${s.length} characters (limit ${limits.maxNumberLength})`);
@@ -219,11 +252,21 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (minimal !== p) reject('$.claims.minimalPeriod', `minimalPeriod ${minimal} differs from period ${p}; only minimalPeriod = period can be verified`);
   }
   const stab = claims.stability === undefined || claims.stability === null ? null : obj(claims.stability, '$.claims.stability');
+  let stability: StabilityClaim | null = null;
   if (stab) {
     for (const k of Object.keys(stab)) {
       if (!['class', 'multiplier', 'trace', 'determinant', 'eigenvalueModuli'].includes(k)) reject(`$.claims.stability.${k}`, `unknown stability field "${k}"`);
     }
     if (!['attracting', 'repelling', 'saddle', 'undecided'].includes(stab.class as string)) reject('$.claims.stability.class', `unknown stability class ${JSON.stringify(stab.class)}`);
+    stability = { cls: stab.class as string };
+    for (const key of ['multiplier', 'trace', 'determinant'] as const) {
+      if (stab[key] !== undefined && stab[key] !== null) stability[key] = ivl(stab[key], `$.claims.stability.${key}`);
+    }
+    if (stab.eigenvalueModuli !== undefined && stab.eigenvalueModuli !== null) {
+      stability.eigenvalueModuli = arr(stab.eigenvalueModuli, '$.claims.stability.eigenvalueModuli', n).map((m, i) =>
+        ivl(m, `$.claims.stability.eigenvalueModuli[${i}]`),
+      );
+    }
   }
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
@@ -232,39 +275,30 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits };
+}
 
+/** The boxes as intervals of the working context, their exact ends, and the centres. */
+interface Boxes {
+  M: Iv[];
+  X: Iv[];
+  Xexact: Iv[];
+}
 
-  // ---- the mathematics ----
-  const c = ivCtx(digits);
-  const params = new Map<string, Iv>();
-  for (const [k, [lo, hi]] of paramText) params.set(k, c.literal(lo, hi));
-  const s: Shooting = { c, ev: new Evaluator(c, params), step, p, n };
-  const N = p * n;
-  const M: Iv[] = [];
-  const X: Iv[] = [];
-  const Xexact: Iv[] = [];
-  for (let i = 0; i < p; i++) {
-    for (let a = 0; a < n; a++) {
-      const [lo, hi] = boxTxt[i]![a]!;
-      const ex = { lo: new Exact(lo), hi: new Exact(hi) };
-      const m = new Exact(centreTxt[i]![a]!);
-      if (m.lt(ex.lo) || m.gt(ex.hi)) reject(`$.orbit.centre[${i}][${a}]`, `centre of point ${i}, component ${a} lies outside its box ${fmt(ex)}`);
-      Xexact.push(ex);
-      X.push(c.literal(lo, hi));
-      M.push(c.literal(centreTxt[i]![a]!));
-    }
-  }
-  const hintedHigh = digits > (opts.digits ?? DEFAULT_DIGITS) || digits > 40;
+/** Existence: Krawczyk on the boxes (decimal preconditioner when the float one fails). Returns C and D = J(X). */
+function verifyExistence(r: ReadCertificate, s: Shooting, b: Boxes, opts: CheckOptions, limits: CheckLimits): { C: Precond; D: Iv[][] } {
+  const N = r.p * r.n;
+  const hintedHigh = r.digits > (opts.digits ?? DEFAULT_DIGITS) || r.digits > 40;
   const withDecimalC = (): ReturnType<typeof preconditioner> =>
-    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, X, true) : null;
-  let C = hintedHigh ? withDecimalC() : preconditioner(s, X, false);
+    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, b.X, true) : null;
+  let C = hintedHigh ? withDecimalC() : preconditioner(s, b.X, false);
   if (!C && !hintedHigh) C = withDecimalC();
   if (!C) reject('$.orbit.centre', 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner');
-  let kx = krawczyk(s, C!, M, X, Xexact, 'existence');
+  let kx = krawczyk(s, C!, b.M, b.X, b.Xexact, 'existence');
   if (!kx.ok && !hintedHigh && N <= limits.maxDecimalPrecondUnknowns) {
     const C2 = withDecimalC();
     if (C2) {
-      const k2 = krawczyk(s, C2, M, X, Xexact, 'existence');
+      const k2 = krawczyk(s, C2, b.M, b.X, b.Xexact, 'existence');
       if (k2.ok) {
         C = C2;
         kx = k2;
@@ -272,76 +306,114 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     }
   }
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  const verified: ClaimName[] = ['existence'];
-  const D = (kx as { jacobians: Iv[][] }).jacobians;
-  const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
+  return { C: C!, D: (kx as { jacobians: Iv[][] }).jacobians };
+}
 
-  if (radius !== null) {
-    const Yout: Iv[] = [];
-    const Yin: Iv[] = [];
-    const r = new Exact(radius);
-    for (let i = 0; i < N; i++) {
-      const m = new Exact(centreTxt[Math.floor(i / n)]![i % n]!);
-      Yout.push({ lo: c.Down.sub(m, r), hi: c.Up.add(m, r) });
-      const yin = { lo: c.Up.sub(m, r), hi: c.Down.add(m, r) };
-      Yin.push(yin);
-      if (!isSubset(Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
+/** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
+function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, C: Precond, radius: string): void {
+  const { c } = s;
+  const n = r.n;
+  const Yout: Iv[] = [];
+  const Yin: Iv[] = [];
+  const rad = new Exact(radius);
+  for (let i = 0; i < r.p * n; i++) {
+    const m = new Exact(r.centreTxt[Math.floor(i / n)]![i % n]!);
+    Yout.push({ lo: c.Down.sub(m, rad), hi: c.Up.add(m, rad) });
+    const yin = { lo: c.Up.sub(m, rad), hi: c.Down.add(m, rad) };
+    Yin.push(yin);
+    if (!isSubset(b.Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
+  }
+  const ky = krawczyk(s, C, b.M, Yout, Yin, 'uniqueness');
+  if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
+}
+
+/**
+ * Minimal period p: a minimal period d < p would force x_i = x_{i+d} for some proper divisor d of
+ * p, hence X_i ∩ X_{i+d} ≠ ∅ for d = p/q, q a prime factor of p. Disjointness of those pairs
+ * excludes it.
+ */
+function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
+  const disjoint = (i: number, j: number): boolean => {
+    for (let a = 0; a < n; a++) {
+      const u = Xexact[i * n + a]!;
+      const v = Xexact[j * n + a]!;
+      if (u.hi.lt(v.lo) || v.hi.lt(u.lo)) return true;
     }
-    const ky = krawczyk(s, C!, M, Yout, Yin, 'uniqueness');
-    if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
+    return false;
+  };
+  for (let q = 2, rest = p; q <= rest; q++) {
+    if (rest % q !== 0) continue;
+    while (rest % q === 0) rest /= q;
+    const dd = p / q;
+    for (let i = 0; i < p; i++) {
+      if (!disjoint(i, (i + dd) % p)) reject('$.claims.minimalPeriod', `boxes of points ${i} and ${(i + dd) % p} overlap: minimal period ${p} not shown`);
+    }
+  }
+}
+
+/** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
+function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+  const st = stability(s.c, D, n);
+  const claimed = claim.cls;
+  // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
+  if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
+  if (claimed !== 'undecided' && claimed !== st.cls) reject('$.claims.stability.class', `claimed class "${claimed}" but the checker derives "${st.cls}"${st.multiplier ? ` (multiplier ${fmt(st.multiplier)})` : ''}${st.moduli ? ` (moduli ${st.moduli.map((m) => fmt(m)).join(', ')})` : ''}`);
+  const contains = (key: 'multiplier' | 'trace' | 'determinant', mine: Iv | undefined): void => {
+    const stated = claim[key];
+    if (stated === undefined) return;
+    const path = `$.claims.stability.${key}`;
+    const [lo, hi] = stated;
+    if (!mine) reject(path, `the checker cannot re-derive ${key} for dimension ${n}`);
+    if (!isSubset(mine!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed ${key} [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(mine!, 20)}`);
+  };
+  contains('multiplier', st.multiplier);
+  contains('trace', st.trace);
+  contains('determinant', st.determinant);
+  if (claim.eigenvalueModuli !== undefined) {
+    if (!st.moduli) reject('$.claims.stability.eigenvalueModuli', 'the checker cannot re-derive the eigenvalue moduli (discriminant of the monodromy straddles 0, or n ≥ 3)');
+    claim.eigenvalueModuli.forEach(([lo, hi], i) => {
+      const path = `$.claims.stability.eigenvalueModuli[${i}]`;
+      if (!isSubset(st.moduli![i]!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed modulus [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(st.moduli![i]!, 20)}`);
+    });
+  }
+}
+
+/** Schema reading, then the mathematics: each stated claim re-derived, or a Refusal. */
+function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+  const r = readCertificate(doc, opts, limits);
+  const { p, n } = r;
+  const c = ivCtx(r.digits);
+  const params = new Map<string, Iv>();
+  for (const [k, [lo, hi]] of r.paramText) params.set(k, c.literal(lo, hi));
+  const s: Shooting = { c, ev: new Evaluator(c, params), step: r.step, p, n };
+  const b: Boxes = { M: [], X: [], Xexact: [] };
+  for (let i = 0; i < p; i++) {
+    for (let a = 0; a < n; a++) {
+      const [lo, hi] = r.boxTxt[i]![a]!;
+      const ex = { lo: new Exact(lo), hi: new Exact(hi) };
+      const m = new Exact(r.centreTxt[i]![a]!);
+      if (m.lt(ex.lo) || m.gt(ex.hi)) reject(`$.orbit.centre[${i}][${a}]`, `centre of point ${i}, component ${a} lies outside its box ${fmt(ex)}`);
+      b.Xexact.push(ex);
+      b.X.push(c.literal(lo, hi));
+      b.M.push(c.literal(r.centreTxt[i]![a]!));
+    }
+  }
+  const { C, D } = verifyExistence(r, s, b, opts, limits);
+  const verified: ClaimName[] = ['existence'];
+  const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
+  if (r.radius !== null) {
+    verifyUniqueness(r, s, b, C, r.radius);
     verified.push('uniqueness');
   }
-
-  if (minimal !== null) {
-    // minimal period d < p would force x_i = x_{i+d} for some proper divisor d of p, hence
-    // X_i ∩ X_{i+d} ≠ ∅ for d = p/q, q a prime factor of p. Disjointness of those pairs excludes it.
-    const disjoint = (i: number, j: number): boolean => {
-      for (let a = 0; a < n; a++) {
-        const u = Xexact[i * n + a]!;
-        const v = Xexact[j * n + a]!;
-        if (u.hi.lt(v.lo) || v.hi.lt(u.lo)) return true;
-      }
-      return false;
-    };
-    for (let q = 2, rest = p; q <= rest; q++) {
-      if (rest % q !== 0) continue;
-      while (rest % q === 0) rest /= q;
-      const dd = p / q;
-      for (let i = 0; i < p; i++) {
-        if (!disjoint(i, (i + dd) % p)) reject('$.claims.minimalPeriod', `boxes of points ${i} and ${(i + dd) % p} overlap: minimal period ${p} not shown`);
-      }
-    }
+  if (r.minimal !== null) {
+    verifyMinimalPeriod(p, n, b.Xexact);
     verified.push('minimal-period');
   }
-
-  if (stab) {
-    const st = stability(c, D, n);
-    const claimed = stab.class as string;
-    // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
-    if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
-    if (claimed !== 'undecided' && claimed !== st.cls) reject('$.claims.stability.class', `claimed class "${claimed}" but the checker derives "${st.cls}"${st.multiplier ? ` (multiplier ${fmt(st.multiplier)})` : ''}${st.moduli ? ` (moduli ${st.moduli.map((m) => fmt(m)).join(', ')})` : ''}`);
-    const contains = (key: 'multiplier' | 'trace' | 'determinant', mine: Iv | undefined): void => {
-      if (stab[key] === undefined || stab[key] === null) return;
-      const path = `$.claims.stability.${key}`;
-      const [lo, hi] = ivl(stab[key], path);
-      if (!mine) reject(path, `the checker cannot re-derive ${key} for dimension ${n}`);
-      if (!isSubset(mine!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed ${key} [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(mine!, 20)}`);
-    };
-    contains('multiplier', st.multiplier);
-    contains('trace', st.trace);
-    contains('determinant', st.determinant);
-    if (stab.eigenvalueModuli !== undefined && stab.eigenvalueModuli !== null) {
-      const mods = arr(stab.eigenvalueModuli, '$.claims.stability.eigenvalueModuli', n);
-      if (!st.moduli) reject('$.claims.stability.eigenvalueModuli', 'the checker cannot re-derive the eigenvalue moduli (discriminant of the monodromy straddles 0, or n ≥ 3)');
-      mods.forEach((m, i) => {
-        const path = `$.claims.stability.eigenvalueModuli[${i}]`;
-        const [lo, hi] = ivl(m, path);
-        if (!isSubset(st.moduli![i]!, { lo: new Exact(lo), hi: new Exact(hi) })) reject(path, `claimed modulus [${lo}, ${hi}] does not contain the checker's enclosure ${fmt(st.moduli![i]!, 20)}`);
-      });
-    }
+  if (r.stability) {
+    verifyStability(s, D, n, r.stability, kinkOnX);
     verified.push('stability');
   }
-  return { claims: verified, digits };
+  return { claims: verified, digits: r.digits };
 }
 
 function depthOk(v: unknown, max: number): boolean {

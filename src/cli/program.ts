@@ -34,6 +34,10 @@ export interface RunContext {
 
 const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
 
+/**
+ * Run the command line on `argv` (without `node` and the script) and return what it would print
+ * and its exit code: 0 all proven / verified, 1 something not proven or rejected, 2 bad input, 3 bug.
+ */
 export async function runCli(argv: readonly string[], ctx: RunContext = {}): Promise<CommandResult> {
   const cwd = ctx.cwd ?? process.cwd();
   const columns = ctx.columns ?? Infinity;

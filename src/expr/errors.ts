@@ -54,6 +54,10 @@ export interface MapLanguageErrorInit {
   length?: number;
 }
 
+/**
+ * A mistake in a formula or a map file, with its position (file:line:column or key path), the
+ * offending text and a hint; `render()` draws the source line with a caret under the spot.
+ */
 export class MapLanguageError extends UserError {
   override name = 'MapLanguageError';
   declare readonly code: MapLanguageErrorCode;

@@ -17,6 +17,7 @@ import * as K from './kernel.js';
 import { E, ENTIRE, Interval, PI, isEmpty, mag, mid, mig } from './interval.js';
 import { addUp, subDown, subUp } from './round.js';
 
+/** The float64 interval arithmetic (outward rounding, proven elementary functions) as an `IntervalArithmetic`. */
 export function intervalArithmetic(): IntervalArithmetic<Interval> {
   const status: EvalStatus = { continuous: true, assumed: false, nonsmooth: false };
   const S = new Float64Array(2);

@@ -12,6 +12,7 @@
 import * as K from './kernel.js';
 import { MAX, addUp, subUp } from './round.js';
 
+/** A closed interval [lo, hi] of doubles (IEEE 1788 inf-sup, binary64); EMPTY is (+Inf, −Inf). */
 export class Interval {
   /** Unsafe constructor: no validation (callers guarantee lo ≤ hi or the EMPTY encoding). */
   constructor(

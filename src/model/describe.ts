@@ -29,6 +29,10 @@ function imageEnds<T>(arith: IntervalArithmetic<T>, a: T): { lo: string; hi: str
   return { lo: finite(lo, '-'), hi: finite(hi, '+') };
 }
 
+/**
+ * The map as understood, for `orbitseal show`: variables, exact parameter enclosures (in `arith`),
+ * formulas, the region and its interval image.
+ */
 export function describeMap<T>(compiled: CompiledMap, arith: IntervalArithmetic<T>): MapDescription {
   const def = compiled.definition;
   const params = Object.keys(def.params).map((name) => {

@@ -34,6 +34,12 @@ export interface AttemptInput<T> {
   C: Preconditioner<T>;
   /** Significant digits of written decimals. */
   digits: number;
+  /**
+   * The endpoints of `arith` are doubles (float64 intervals): the written decimals are then read
+   * off the doubles directly (writeFast), else through `arith.toDecimal`. Chosen by the caller,
+   * which knows its arithmetic.
+   */
+  floatEndpoints: boolean;
   /** Search the uniqueness radius (default true). */
   uniqueness: boolean;
   maxInflations: number;
@@ -124,7 +130,7 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   // The Krawczyk point is the written centre: the candidate rounded to `digits` digits, enclosed.
   // float64 fast path (float-decimal.ts): short strings and their enclosures without exact
   // double→decimal conversion; otherwise exact conversion through decimal.js.
-  const fast = a.kind === 'interval' && a.bits === 53;
+  const fast = inp.floatEndpoints;
   const centreS: string[] = new Array<string>(N);
   const m: T[] = new Array<T>(N);
   for (let k = 0; k < N; k++) {

@@ -14,7 +14,7 @@ import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import type { CompiledMap } from '../model/types.js';
 import { floatPreconditioner, pointPreconditioner } from './krawczyk.js';
 import { decimalContext } from '../linalg/decimal.js';
-import { attempt, type AttemptClaims } from './orbit-core.js';
+import { attempt, type AttemptClaims, type AttemptResult } from './orbit-core.js';
 import { floatShootingInverse, refineFloat, refineMp, type MpRefinement } from './refine.js';
 import { DECIMAL_LITERAL, decimalOfDouble, digitsForBits } from '../interval/decimal-literal.js';
 import { intervalArithmetic } from '../interval/interval-arith.js';
@@ -94,6 +94,33 @@ function score(c: AttemptClaims): number {
   return (c.minimalPeriod !== null ? 1 : 0) + (c.stability.class !== 'undecided' ? 1 : 0) + (c.assumed ? 0 : 2);
 }
 
+/**
+ * The bookkeeping of the precision ladder, shared by the float64 and the multiprecision attempts:
+ * the attempts made, the best result so far, and the failure to report when nothing is proven.
+ */
+class AttemptBook {
+  readonly attempts: PrecisionAttempt[] = [];
+  best: { claims: AttemptClaims; bits: number } | null = null;
+  lastFailure: { reason: NotProvenReason; detail: string } = { reason: 'undecided', detail: 'not attempted' };
+
+  /** A failed attempt at `bits`; its reason is reported only while nothing is proven. */
+  fail(bits: number, reason: NotProvenReason, detail: string): void {
+    this.attempts.push({ bits, outcome: 'failed', detail });
+    if (this.best === null) this.lastFailure = { reason, detail };
+  }
+
+  /** The outcome of `attempt` at `bits`: kept as best when it scores higher than the best so far. */
+  record(bits: number, res: AttemptResult): void {
+    if (res.kind !== 'proven') return this.fail(bits, res.reason, res.detail);
+    this.attempts.push({ bits, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: attemptDetail(res.claims) });
+    if (this.best === null || score(res.claims) > score(this.best.claims)) this.best = { claims: res.claims, bits };
+  }
+}
+
+/**
+ * `proveOrbit` with the arithmetics given (tests inject their own): a float64 attempt, then the
+ * multiprecision ladder while the result is missing or incomplete.
+ */
 export function proveOrbitWith(
   ariths: ProverArithmetics,
   map: CompiledMap,
@@ -101,15 +128,14 @@ export function proveOrbitWith(
   opts: ProveOrbitOptions = {},
 ): OrbitVerdict {
   const t0 = performance.now();
-  const attempts: PrecisionAttempt[] = [];
   const bad = validate(map, points);
-  if (bad !== null) return { status: 'not-proven', reason: 'bad-input', detail: bad, attempts };
+  if (bad !== null) return { status: 'not-proven', reason: 'bad-input', detail: bad, attempts: [] };
   const p = points.length;
   const n = map.dim;
   const N = p * n;
   if (N > (opts.maxUnknowns ?? 4096)) {
     const detail = `p·n = ${N} unknowns exceed the dense preconditioner limit (maxUnknowns = ${opts.maxUnknowns ?? 4096})`;
-    return { status: 'not-proven', reason: 'undecided', detail, attempts };
+    return { status: 'not-proven', reason: 'undecided', detail, attempts: [] };
   }
   const maxBits = opts.maxBits ?? 512;
   const uniqueness = opts.uniqueness ?? true;
@@ -120,8 +146,8 @@ export function proveOrbitWith(
   const exactStart = points.some((pt) => pt.some((v) => typeof v === 'string'));
 
   let refineMs = 0;
-  let best: { claims: AttemptClaims; bits: number } | null = null;
-  let lastFailure: { reason: NotProvenReason; detail: string } = { reason: 'undecided', detail: 'not attempted' };
+  const book = new AttemptBook();
+  const attempts = book.attempts;
   let mpStart: Decimal[] | null = null;
   let mpStartOf: () => Decimal[];
 
@@ -142,13 +168,11 @@ export function proveOrbitWith(
         ? points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))))
         : Array.from(x, (v) => new Decimal(decimalOfDouble(v)));
     if (ref !== null && !ref.converged) {
-      lastFailure = { reason: 'newton-failed', detail: `float Newton did not converge (${ref.iterations} steps, last correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there` };
-      attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
+      book.fail(53, 'newton-failed', `float Newton did not converge (${ref.iterations} steps, last correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there`);
     } else {
       const Cf = floatShootingInverse(blocks, p, n);
       if (Cf === null) {
-        lastFailure = { reason: 'singular', detail: 'the shooting Jacobian at the candidate is singular to float precision' };
-        attempts.push({ bits: 53, outcome: 'failed', detail: lastFailure.detail });
+        book.fail(53, 'singular', 'the shooting Jacobian at the candidate is singular to float precision');
       } else {
         const a = ariths.float();
         const centre = Array.from(x, (v) => a.fromNumber(v));
@@ -160,24 +184,19 @@ export function proveOrbitWith(
           centre,
           C: floatPreconditioner(a, Cf, N),
           digits: 20,
+          floatEndpoints: a.kind === 'interval' && a.bits === 53,
           uniqueness,
           maxInflations,
         });
-        if (res.kind === 'proven') {
-          best = { claims: res.claims, bits: 53 };
-          attempts.push({ bits: 53, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: attemptDetail(res.claims) });
-        } else {
-          lastFailure = { reason: res.reason, detail: res.detail };
-          attempts.push({ bits: 53, outcome: 'failed', detail: res.detail });
-        }
+        book.record(53, res);
       }
     }
   }
 
   const acceptAssumed = opts.acceptAssumed ?? true;
   const wantMore = (): boolean =>
-    best === null || (escalateIncomplete && !best.claims.complete) || (!acceptAssumed && best.claims.assumed);
-  const hardStop = lastFailure.reason === 'newton-failed' && best === null && opts.refine !== false;
+    book.best === null || (escalateIncomplete && !book.best.claims.complete) || (!acceptAssumed && book.best.claims.assumed);
+  const hardStop = book.lastFailure.reason === 'newton-failed' && book.best === null && opts.refine !== false;
   if (ariths.mp && wantMore() && !hardStop) {
     for (const bits of precisionLadder(maxBits)) {
       if (!wantMore()) break;
@@ -191,8 +210,7 @@ export function proveOrbitWith(
       refineMs += performance.now() - tr;
       if ((!ref.converged && !noRefine) || ref.inverse === null) {
         const detail = ref.inverse === null ? 'the shooting Jacobian is singular' : `Newton did not converge (last relative correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there`;
-        attempts.push({ bits, outcome: 'failed', detail });
-        if (best === null) lastFailure = { reason: ref.inverse === null ? 'singular' : 'newton-failed', detail };
+        book.fail(bits, ref.inverse === null ? 'singular' : 'newton-failed', detail);
         continue;
       }
       if (!exactStart) mpStart = ref.x;
@@ -206,18 +224,14 @@ export function proveOrbitWith(
         centre,
         C: pointPreconditioner(Centries, N),
         digits: digitsForBits(bits),
+        floatEndpoints: false,
         uniqueness,
         maxInflations,
       });
-      if (res.kind === 'proven') {
-        attempts.push({ bits, outcome: res.claims.complete ? 'proven' : 'incomplete', detail: attemptDetail(res.claims) });
-        if (best === null || score(res.claims) > score(best.claims)) best = { claims: res.claims, bits };
-      } else {
-        attempts.push({ bits, outcome: 'failed', detail: res.detail });
-        if (best === null) lastFailure = { reason: res.reason, detail: res.detail };
-      }
+      book.record(bits, res);
     }
   }
+  const { best, lastFailure } = book;
   const totalMs = performance.now() - t0;
   if (best !== null && !acceptAssumed && best.claims.assumed) {
     const detail = `proven at ${best.bits} bits only under the Math.* accuracy assumption of the float64 kernel; no assumption-free proof up to ${maxBits} bits`;

@@ -4,14 +4,9 @@
  * multipliers. Candidates are observations for the prover, never results.
  */
 export type { Candidate, Multiplier, StabilityGuess, SearchOptions, RefineOptions } from './types.js';
-export {
-  findCandidates,
-  findOrbitFromSeed,
-  findOrbitsFromLongOrbit,
-  searchRegion,
-  type SearchRegion,
-  type LongOrbitOptions,
-} from './find.js';
+export { findCandidates, findOrbitFromSeed } from './find.js';
+export { findOrbitsFromLongOrbit, type LongOrbitOptions } from './long-orbit.js';
+export { searchRegion, seedBox, type SearchRegion } from './region.js';
 export { candidateDistance, candidatesByDistance, maxNormDistance, nearestCandidate } from './nearest.js';
 export { ShootingNewton, type ShootingNewtonResult } from './newton.js';
 export {

@@ -1,51 +1,19 @@
 /**
- * Regression tests for problems found in a new-user trial (each fails without its fix).
+ * `prove` options end to end through `runCli`: --out into an unusable folder, --digits bounds,
+ * --limit / --all and progress, --start (one exact point iterated in multiprecision) and the notes
+ * it adds. Several were found in new-user trials; each test fails without its fix.
  */
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEFAULT_LIMITS } from '../../src/checker/index.js';
-import { table } from '../../src/cli/format.js';
 import { runCli } from '../../src/cli/program.js';
-import { MAX_CANDIDATES_SHOWN, renderFind } from '../../src/cli/commands/find.js';
-import type { Candidate } from '../../src/search/index.js';
 
-describe('big outputs do not overflow the call stack (trial: find logistic r=4 --period 100 crashed)', () => {
-  it('table with 210 000 lines: widths are the longest cell, no RangeError', () => {
-    // Math.max(...spread) over ~10^5 arguments throws RangeError in V8 (common practice, no source)
-    const rows: string[][] = [];
-    for (let i = 0; i < 70_000; i++) rows.push([String(i), 'a\nbb\nccc']);
-    rows.push(['x', 'wide-cell-at-the-end']);
-    const t = table(['#', 'cell'], rows);
-    const lines = t.split('\n');
-    expect(lines.length).toBe(2 + 210_000 + 1);
-    // column 1 width = len('69999') = 5, then two spaces; last row's cell starts at column 7
-    expect(lines[lines.length - 1]).toBe('x      wide-cell-at-the-end');
-    expect(lines[1]).toBe('-----  ' + '-'.repeat('wide-cell-at-the-end'.length));
-  });
-
-  it(`renderFind lists at most ${MAX_CANDIDATES_SHOWN} candidates and says how many more (40 000 × 100 points)`, () => {
-    const period = 100;
-    const cands: Candidate[] = [];
-    const points: number[][] = [];
-    for (let k = 0; k < period; k++) points.push([k / 128]);
-    for (let i = 0; i < 40_000; i++) {
-      cands.push({ period, points, residual: 1e-15, multipliers: [2 ** 100], stabilityGuess: 'repelling' });
-    }
-    const text = renderFind(cands, 'header', ['x'], period);
-    expect(text).toMatch(/candidates \(float search, not proofs\): 40000 of minimal period 100/);
-    expect(text).toMatch(new RegExp(`… ${40_000 - MAX_CANDIDATES_SHOWN} more; use --json for all`));
-    expect(text).toMatch(new RegExp(`^${MAX_CANDIDATES_SHOWN} `, 'm'));
-    expect(text).not.toMatch(new RegExp(`^${MAX_CANDIDATES_SHOWN + 1} `, 'm'));
-  });
-});
-
-const scratch = mkdtempSync(join(tmpdir(), 'orbitseal-trial-test-'));
+const scratch = mkdtempSync(join(tmpdir(), 'orbitseal-prove-options-'));
 afterAll(() => rmSync(scratch, { recursive: true, force: true }));
-let n = 0;
-const fresh = () => join(scratch, `out${++n}`);
+const fresh = (): string => mkdtempSync(join(scratch, 'out-'));
 
 describe('prove --out into an unusable folder', () => {
   it.skipIf(!existsSync('/proc/self'))('prove logistic --period 2 --out /proc/nope → exit 2 at once, reason without a repeated code (regression: hung)', async () => {
@@ -112,47 +80,6 @@ describe('prove --limit / --all and progress', () => {
   });
 });
 
-describe('wording', () => {
-  it('check on a JSON file that is not a certificate → "not an orbitseal certificate (no \'format\' key)", exit 1', async () => {
-    const f = join(scratch, 'not-a-cert.json');
-    writeFileSync(f, '{"a": 1}\n');
-    const r = await runCli(['check', f]);
-    expect(r.exitCode).toBe(1);
-    expect(r.stdout).toMatch(/^(REJECTED|UNREADABLE) .*not an orbitseal certificate \(no 'format' key\)/m);
-    const j = await runCli(['check', f, '--json']);
-    expect(JSON.parse(j.stdout).reports[0].reason).toBe("not an orbitseal certificate (no 'format' key)");
-  });
-
-  it('a reversed parameter interval in a map file → error code empty-interval, exit 2', async () => {
-    const f = join(scratch, 'rev.yaml');
-    writeFileSync(f, 'title: Rev\nstate: [x]\nparams:\n  r: [4, 3]\nstep:\n  x: r*x*(1 - x)\nregion:\n  x: [0, 1]\n');
-    const r = await runCli(['show', f]);
-    expect(r.exitCode).toBe(2);
-    expect(r.stderr).toMatch(/error \[empty-interval\]/);
-  });
-
-  it('demo --help says "two built-in invented scenarios"', async () => {
-    const r = await runCli(['demo', '--help']);
-    expect(r.exitCode).toBe(0);
-    expect(r.stdout).toMatch(/two built-in invented scenarios/);
-  });
-
-  it('show: the image heading says it is an enclosure of f(region)', async () => {
-    const r = await runCli(['show', 'logistic']);
-    expect(r.stdout).toMatch(/^enclosure of f\(region\): every image of a region point lies in these intervals:$/m);
-    expect(r.stdout).not.toMatch(/maps inside/);
-  });
-
-  it('prove with an interval parameter, not proven → hint to narrow or split the interval; exit 1', async () => {
-    // r in [3.83, 3.86] is too wide for a single Krawczyk box (observed, not a published value)
-    const r = await runCli(['prove', 'logistic', '--param', 'r=[3.83,3.86]', '--period', '3', '--out', fresh()]);
-    expect(r.exitCode).toBe(1);
-    expect(r.stdout).toMatch(/hint: r is an interval; .*narrow the parameter interval or split it/);
-    const ok = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--out', fresh()]);
-    expect(ok.stdout).not.toMatch(/narrow the parameter interval/);
-  });
-});
-
 describe('prove --start: one exact point, iterated in multiprecision (precision-escalation orbit)', () => {
   // r = 4: x = sin²(πθ) conjugates the logistic map to θ ↦ 2θ mod 1, so θ = 1/(2^p − 1) gives an
   // orbit of minimal period p through x0 = sin²(π/(2^p − 1)) ≈ 7.8e-30 for p = 50, with multiplier
@@ -196,5 +123,47 @@ describe('prove --start: one exact point, iterated in multiprecision (precision-
     const b = await runCli(['prove', 'logistic', '--period', '2', '--start', '0x1p-3']);
     expect(b.exitCode).toBe(2);
     expect(b.stderr).toMatch(/bad-start/);
+  });
+});
+
+describe('prove --start converging to a shorter cycle is not "every requested orbit proven"', () => {
+  it('the logistic fixed point 1 − 1/r given as a period-2 start: minimal period NOT shown, exit 1', async () => {
+    // 1 − 1/3.83 ≈ 0.738903394255875 is the fixed point (closed form, derived by hand), so the
+    // period-2 shooting system is solved by a point run twice: its boxes overlap.
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '2', '--start', '0.738903394255875', '--out', fresh()]);
+    expect(r.exitCode).toBe(1);
+    expect(r.stdout).toMatch(/minimal period 2 NOT shown/);
+    expect(r.stdout).toMatch(/1 without a proof of minimal period 2/);
+  });
+  it('a genuine period-2 start keeps exit 0 (control: (r + 1 ± √((r − 3)(r + 1)))/(2r), derived by hand)', async () => {
+    const r3 = 3.2;
+    const x = (r3 + 1 + Math.sqrt((r3 - 3) * (r3 + 1))) / (2 * r3);
+    const res = await runCli(['prove', 'logistic', '--param', 'r=3.2', '--period', '2', '--start', x.toPrecision(15), '--out', fresh()]);
+    expect(res.exitCode).toBe(0);
+    expect(res.stdout).not.toMatch(/NOT shown/);
+  });
+});
+
+describe('prove --start far from the orbit it converges to', () => {
+  it('says that Newton moved the start point (r = 3.83, start 0.3 converges to the period-3 orbit, arXiv:1204.0546)', async () => {
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--start', '0.3', '--out', fresh()]);
+    expect(r.stdout).toMatch(/Newton moved the --start point/);
+  });
+  it('says nothing when the start point is on the orbit (control)', async () => {
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--start', '0.156149315684', '--out', fresh()]);
+    expect(r.exitCode).toBe(0);
+    expect(r.stdout).not.toMatch(/Newton moved/);
+  });
+});
+
+describe('both notes survive together', () => {
+  it('a far --start that converges to a fixed point: minimal period NOT shown AND Newton moved the point', async () => {
+    // r = 3.83, period 2 from 0.7: Newton converges to the fixed point 1 − 1/r ≈ 0.7389 (closed form,
+    // derived by hand), 0.039 away from the start (relative drift ≈ 0.023 > 1e-6)
+    const r = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '2', '--start', '0.7', '--out', fresh()]);
+    expect(r.exitCode).toBe(1);
+    const flat = r.stdout.replace(/\s+/g, ' ');
+    expect(flat).toMatch(/minimal period 2 NOT shown/);
+    expect(flat).toMatch(/Newton moved the --start point/);
   });
 });
