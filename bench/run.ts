@@ -5,8 +5,11 @@
 import { runCheckBench } from './check-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runIntervalBench } from './interval-bench.js';
+import { runLongBench } from './long-bench.js';
+import { runMathAccuracyBench } from './math-accuracy-bench.js';
 import { runProveBench } from './prove-bench.js';
 import { runSearchBench } from './search-bench.js';
+import { runWindowBench } from './window-bench.js';
 
 interface BenchSpec {
   title: string;
@@ -16,10 +19,13 @@ interface BenchSpec {
 
 const BENCHES: BenchSpec[] = [
   { title: 'interval kernel', file: 'bench/interval-bench.ts', run: runIntervalBench },
+  { title: 'Math.* accuracy (sinh, tanh, atan, pow)', file: 'bench/math-accuracy-bench.ts', run: () => runMathAccuracyBench() },
   { title: 'map language', file: 'bench/expr-bench.ts', run: runExprBench },
   { title: 'candidate search', file: 'bench/search-bench.ts', run: runSearchBench },
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
+  { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
+  { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
 ];
 
 async function main(): Promise<void> {

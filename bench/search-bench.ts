@@ -111,6 +111,20 @@ export async function runSearchBench(): Promise<string[]> {
     const [c, t] = time(() => findCandidates(henon, { period: p }));
     lines.push(`  p=${String(p).padStart(2)}: ${c.length} / ${HENON_COUNTS[p - 1]}  ${t.toFixed(0)} ms`);
   }
+  // issue 7 item 2: the default effort grows with p and the expansion; 233 / 535 / 1225 orbits of
+  // period 18 / 20 / 22 (Galias 2001, Int. J. Bifurcation and Chaos 11(9), from memory)
+  lines.push('default search, Hénon long periods: found / reference (Galias 2001, from memory), CPU time');
+  for (const [p, ref] of [
+    [18, 233],
+    [20, 535],
+  ] as const) {
+    const [c, t] = time(() => findCandidates(henon, { period: p }));
+    lines.push(`  p=${p}: ${c.length} / ${ref}  ${t.toFixed(0)} ms`);
+  }
+  {
+    const [c, t] = time(() => findCandidates(henon, { period: 22, effort: 2 }));
+    lines.push(`  p=22 (--effort 2): ${c.length} / 1225  ${t.toFixed(0)} ms`);
+  }
 
   lines.push('long periods from near-returns of one float orbit (findOrbitsFromLongOrbit, 20 seeds)');
   for (const [name, map, p] of [

@@ -37,6 +37,9 @@ export {
 } from './workflow/certify.js';
 export { runDemo, type DemoReport, type DemoRun } from './workflow/demo.js';
 export { iterateFromStart, startDigits } from './workflow/start.js';
+export { runWindow, runEdges, runAbsence, type WindowReport, type EdgesReport, type AbsenceReport } from './workflow/window.js';
+export { runAudit, type AuditReport, type AuditVerdict } from './workflow/audit.js';
+export { parseClaims, readClaimsFile, type WindowClaim } from './workflow/claims.js';
 
 // shared contracts
 export type { Arithmetic, EvalStatus, IntervalArithmetic } from './interval/arithmetic.js';

@@ -87,3 +87,96 @@ export interface CertificateV1 {
 
 /** The document before its hash is attached. */
 export type UnsignedCertificateV1 = Omit<CertificateV1, 'sha256'>;
+
+// ---- kinds of issue 10: periodic windows and bifurcation edges (docs/windows.md) ----
+
+export const CERTIFICATE_KIND_WINDOW = 'periodic-window';
+export const CERTIFICATE_KIND_EDGE = 'bifurcation-edge';
+
+/** One proven piece of a window: the orbit claims hold for every parameter in `param`. */
+export interface WindowPieceV1 {
+  param: DecimalInterval;
+  centre: DecimalString[][];
+  boxes: DecimalInterval[][];
+  minimalPeriod: number | null;
+  stability: CertificateStability;
+  /** True: at θ = param[1] the hull of this piece's and the next piece's boxes holds exactly one orbit. */
+  joinedToNext: boolean;
+}
+
+/**
+ * For every θ in each piece: exactly one zero of the period-p shooting system in the piece's boxes,
+ * of minimal period p when stated, with the stated stability. `map.params[parameter]` is `range`.
+ * Pieces and gaps, sorted, tile `range` exactly; gaps claim nothing.
+ */
+export interface WindowCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-window';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  pieces: WindowPieceV1[];
+  gaps: { param: DecimalInterval; reason: string }[];
+  sha256: string;
+}
+
+export type EdgeKindV1 = 'fold' | 'flip' | 'superstable';
+
+/**
+ * Exactly one (x_0..x_{p-1}, θ) in boxes × param with x_{i+1 mod p} = f(x_i, θ) and
+ * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable). One-dimensional maps.
+ * `map.params[parameter]` holds the range searched (θ* lies in `param`, inside it).
+ */
+export interface EdgeCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'bifurcation-edge';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  edge: EdgeKindV1;
+  param: DecimalInterval;
+  centre: { orbit: DecimalString[]; param: DecimalString };
+  boxes: DecimalInterval[];
+  minimalPeriod: number | null;
+  sha256: string;
+}
+
+export const CERTIFICATE_KIND_ABSENCE = 'periodic-absence';
+
+export type AbsenceLeafV1 =
+  | { kind: 'empty'; x: DecimalInterval }
+  | { kind: 'multiplier'; x: DecimalInterval }
+  | {
+      kind: 'lower';
+      x: DecimalInterval;
+      divisor: number;
+      boxes: DecimalInterval[];
+      centre: DecimalString[];
+      lowerBoxes: DecimalInterval[];
+      lowerCentre: DecimalString[];
+    };
+
+/**
+ * For every θ in each piece's `param`: no orbit of minimal period p with all points in `region`
+ * (one-dimensional maps). Pieces tile `range` (= map.params[parameter]); leaves tile `region`.
+ */
+export interface AbsenceCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-absence';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  /** Absent: no orbit of minimal period p. fold / flip: no zero of the period-p system with Λ = +1 / −1. */
+  condition?: 'fold' | 'flip';
+  pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
+  sha256: string;
+}

@@ -11,6 +11,7 @@
  * carry the slope enclosure [−1, 1] where their argument straddles 0 (valid for Krawczyk, which
  * needs F(x) − F(y) ∈ S·(x − y) for x, y in the box).
  */
+import { MAX_FORMULA_NESTING } from '../certificate/limits.js';
 import { DomainViolation, fmt, IvCtx, type Iv } from './interval.js';
 import { elementary as el } from './elementary.js';
 
@@ -36,7 +37,11 @@ const ARITY: Record<string, number> = {
   sqrt: 1, exp: 1, log: 1, sin: 1, cos: 1, tan: 1, atan: 1, sinh: 1, cosh: 1, tanh: 1, abs: 1, sqr: 1,
   min: 2, max: 2, pow: 2,
 };
-const MAX_DEPTH = 200;
+/**
+ * The one nesting limit (certificate/limits.ts), counted exactly as the prover's parser counts it:
+ * one level per '(' (group or call), per unary sign and per '^'.
+ */
+const MAX_DEPTH = MAX_FORMULA_NESTING;
 
 interface Tok {
   t: 'num' | 'name' | 'op' | 'end';
@@ -46,7 +51,7 @@ interface Tok {
 
 function lex(src: string): Tok[] {
   const out: Tok[] = [];
-  const re = /\s+|(\d+\.?\d*(?:[eE][+-]?\d+)?|\.\d+(?:[eE][+-]?\d+)?)|([\p{L}_][\p{L}\p{N}_]*)|([-+*/^(),])/uy;
+  const re = /\s+|(\d+\.?\d*(?:[eE][+-]?\d+)?|\.\d+(?:[eE][+-]?\d+)?)|([A-Za-z_][A-Za-z0-9_]*)|([-+*/^(),])/y;
   let i = 0;
   while (i < src.length) {
     re.lastIndex = i;
@@ -59,6 +64,15 @@ function lex(src: string): Tok[] {
   }
   out.push({ t: 'end', s: '', col: src.length + 1 });
   return out;
+}
+
+/**
+ * The identifier rule of the map language (the same as the prover's, re-stated here on purpose):
+ * ASCII letters, digits and `_`, not starting with a digit; not a function name, `pi` or `e`.
+ * ASCII only, so no look-alike names (Cyrillic а for Latin a) can hide a different variable.
+ */
+export function isValidName(name: string): boolean {
+  return /^[A-Za-z_][A-Za-z0-9_]*$/.test(name) && !Object.prototype.hasOwnProperty.call(ARITY, name) && name !== 'pi' && name !== 'e';
 }
 
 /** Parse one step formula; `state` and `params` resolve names. Throws FormulaError. */
@@ -76,13 +90,11 @@ export function parseFormula(src: string, state: readonly string[], params: Read
     if (++depth > MAX_DEPTH) throw new FormulaError(`formula nested deeper than ${MAX_DEPTH}`, peek().col);
   };
   const sum = (): Node => {
-    enter();
     let a = prod();
     while (isOp('+') || isOp('-')) {
       const op = toks[pos++]!.s as '+' | '-';
       a = { k: 'bin', op, a, b: prod() };
     }
-    depth--;
     return a;
   };
   const prod = (): Node => {
@@ -94,19 +106,23 @@ export function parseFormula(src: string, state: readonly string[], params: Read
     return a;
   };
   const unary = (): Node => {
-    enter();
     let r: Node;
-    if (isOp('-')) {
+    if (isOp('-') || isOp('+')) {
+      const minus = isOp('-');
+      enter();
       pos++;
-      r = { k: 'neg', a: unary() };
-    } else if (isOp('+')) {
-      pos++;
-      r = unary();
+      const a = unary();
+      depth--;
+      r = minus ? { k: 'neg', a } : a;
     } else {
       const a = atom();
-      r = isOp('^') ? (pos++, { k: 'bin', op: '^', a, b: unary() }) : a;
+      if (isOp('^')) {
+        enter();
+        pos++;
+        r = { k: 'bin', op: '^', a, b: unary() };
+        depth--;
+      } else r = a;
     }
-    depth--;
     return r;
   };
   const atom = (): Node => {
@@ -120,6 +136,7 @@ export function parseFormula(src: string, state: readonly string[], params: Read
       if (isOp('(')) {
         const ar = ARITY[t.s];
         if (ar === undefined) throw new FormulaError(`unknown function '${t.s}'`, t.col);
+        enter();
         pos++;
         const args = [sum()];
         while (isOp(',')) {
@@ -127,6 +144,7 @@ export function parseFormula(src: string, state: readonly string[], params: Read
           args.push(sum());
         }
         expect(')');
+        depth--;
         if (args.length !== ar) throw new FormulaError(`${t.s} takes ${ar} argument(s), got ${args.length}`, t.col);
         return { k: 'call', f: t.s, args };
       }
@@ -137,9 +155,11 @@ export function parseFormula(src: string, state: readonly string[], params: Read
       throw new FormulaError(`unknown name '${t.s}'`, t.col);
     }
     if (isOp('(')) {
+      enter();
       pos++;
       const a = sum();
       expect(')');
+      depth--;
       return a;
     }
     throw new FormulaError(`unexpected '${t.s || 'end of formula'}'`, t.col);

@@ -16,7 +16,9 @@
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
  *     and Machin's formula for π (elementary.ts), X_i ∩ X_{i+p/q} = ∅ for every prime q | p ⇒
  *     minimal period p (weaker than, and implied by, pairwise disjointness),
- *     eigenvalues of a 2×2 matrix from trace and determinant.
+ *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
+ *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
+ *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices).
  *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
@@ -28,24 +30,42 @@
  * Claims are never partially accepted: one unverifiable claim rejects the certificate.
  * Deliberate choice: a stability class "undecided" is always accepted (it claims nothing).
  *
- * Limits (CheckLimits, configurable through `opts.limits`) keep hostile input fast and bounded.
+ * Limits (CheckLimits, configurable through `opts.limits`; defaults are the shared numbers of
+ * certificate/limits.ts) keep hostile input fast and bounded: before any arithmetic the work is
+ * estimated (budget.ts) and a certificate beyond `maxWork` is REJECTED with the estimate.
  *
  * Reading order: `readCertificate` (the schema, every field checked) → `runCheck`, which builds the
  * boxes and calls one function per claim: `verifyExistence`, `verifyUniqueness`,
  * `verifyMinimalPeriod`, `verifyStability`.
  */
-import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { readFileSync, readdirSync, statSync, type Dirent } from 'node:fs';
 import { join } from 'node:path';
-import { MAX_DIGITS } from '../certificate/limits.js';
+import {
+  CHECK_WORK_BUDGET,
+  MAX_DECIMAL_DENSE_UNKNOWNS,
+  MAX_DENSE_UNKNOWNS,
+  MAX_DIGITS,
+  MAX_DIMENSION,
+  MAX_FORMULA_LENGTH,
+  MAX_NUMBER_LENGTH,
+  MAX_PERIOD,
+  MAX_UNKNOWNS,
+  STRUCTURED_FROM_UNKNOWNS,
+} from '../certificate/limits.js';
 import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
-import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
+import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type Precond, type Shooting } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting } from './krawczyk.js';
+import { prepareCyclic } from './cyclic.js';
+import { prepareCyclic2, type BoxTest } from './cyclic2.js';
+import { estimateWork, formulaOps } from './budget.js';
+import { checkEdge, checkWindow } from './window.js';
+import { checkAbsence } from './absence.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -68,8 +88,10 @@ export interface CheckLimits {
   /** Largest period (100 000) and state dimension (16). */
   maxPeriod: number;
   maxDimension: number;
-  /** Largest number of unknowns p·n of the shooting system (2 500; C is dense). */
+  /** Largest number of unknowns p·n of the shooting system (MAX_UNKNOWNS, shared with the prover). */
   maxUnknowns: number;
+  /** Largest p·n with a dense preconditioner (MAX_DENSE_UNKNOWNS); dimension ≥ 3 beyond it is refused. */
+  maxDenseUnknowns: number;
   /** Longest decimal string (2 000 characters) and largest |decimal exponent| (100 000). */
   maxNumberLength: number;
   maxExponent: number;
@@ -79,19 +101,26 @@ export interface CheckLimits {
   maxFormulaLength: number;
   /** Above this many unknowns a decimal preconditioner is not attempted (600). */
   maxDecimalPrecondUnknowns: number;
+  /**
+   * Largest estimated work (budget.ts units, ≈ one 30-digit interval operation each) before any
+   * arithmetic starts; beyond it the certificate is REJECTED with the estimate as the reason.
+   */
+  maxWork: number;
 }
 
 export const DEFAULT_LIMITS: CheckLimits = {
   maxFileBytes: 64 * 1024 * 1024,
   maxJsonDepth: 64,
-  maxPeriod: 100_000,
-  maxDimension: 16,
-  maxUnknowns: 2500,
-  maxNumberLength: 2000,
+  maxPeriod: MAX_PERIOD,
+  maxDimension: MAX_DIMENSION,
+  maxUnknowns: MAX_UNKNOWNS,
+  maxDenseUnknowns: MAX_DENSE_UNKNOWNS,
+  maxNumberLength: MAX_NUMBER_LENGTH,
   maxExponent: 100_000,
   maxDigits: MAX_DIGITS,
-  maxFormulaLength: 10_000,
-  maxDecimalPrecondUnknowns: 600,
+  maxFormulaLength: MAX_FORMULA_LENGTH,
+  maxDecimalPrecondUnknowns: MAX_DECIMAL_DENSE_UNKNOWNS,
+  maxWork: CHECK_WORK_BUDGET,
 };
 
 export interface CheckOptions {
@@ -120,6 +149,11 @@ const reject = (path: string, msg: string): never => {
 // ---- schema reading with JSON paths ----
 
 type Obj = Record<string, unknown>;
+/** Rejects any key of `o` not in `allowed` (the schema's additionalProperties: false). */
+function onlyKeys(o: Obj, allowed: readonly string[], path: string): void {
+  for (const k of Object.keys(o)) if (!allowed.includes(k)) reject(`${path}.${k}`, `unknown key ${JSON.stringify(k.slice(0, 40))} at ${path} (certificate v1 allows only ${allowed.join(', ')})`);
+}
+
 function obj(v: unknown, path: string): Obj {
   if (typeof v !== 'object' || v === null || Array.isArray(v)) reject(path, `expected an object at ${path}`);
   return v as Obj;
@@ -189,28 +223,34 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge" or "periodic-absence")`);
+  // the schema forbids other keys (additionalProperties: false): a key the checker does not read
+  // could still be read by a person ("note": "all orbits for r in …") and is refused
+  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
   if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
   const p = int(d.period, '$.period', 1, limits.maxPeriod);
   const map = obj(d.map, '$.map');
+  onlyKeys(map, ['params', 'state', 'step', 'title'], '$.map');
+  if (d.producer !== undefined) onlyKeys(obj(d.producer, '$.producer'), ['name', 'version'], '$.producer');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
   const n = state.length;
   if (n < 1 || n > limits.maxDimension) reject('$.map.state', `state dimension ${n} outside [1, ${limits.maxDimension}]`);
   if (p * n > limits.maxUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxUnknowns} unknowns`);
-  const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
+  if (n > 2 && p * n > limits.maxDenseUnknowns) reject('$.period', `period ${p} × dimension ${n} exceeds the limit of ${limits.maxDenseUnknowns} unknowns for a dense preconditioner (the structured bound covers dimensions 1 and 2)`);
+  const ident = { test: isValidName };
   const paramsRaw = obj(map.params ?? {}, '$.map.params');
   const names = new Set<string>();
   for (const [i, s] of state.entries()) {
-    if (!ident.test(s) || names.has(s)) reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)}`);
+    if (!ident.test(s) || names.has(s)) reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)} (names are ASCII letters, digits, _; not a function name, pi or e)`);
     names.add(s);
   }
   const paramText = new Map<string, [string, string]>();
   for (const k of Object.keys(paramsRaw)) {
     const path = `$.map.params.${k}`;
-    if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (or it repeats a state name)`);
+    if (!ident.test(k) || names.has(k)) reject(path, `bad parameter name ${JSON.stringify(k)} (names are ASCII letters, digits, _; not a function name, pi or e; nor a state name)`);
     const v = paramsRaw[k];
     if (typeof v !== 'string' && !Array.isArray(v)) reject(path, `expected a decimal string or a [lo, hi] pair of decimal strings at ${path}`);
     paramText.set(k, typeof v === 'string' ? [dec(v, path), dec(v, path)] : ivl(v, path));
@@ -229,6 +269,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     }
   });
   const orbit = obj(d.orbit, '$.orbit');
+  onlyKeys(orbit, ['boxes', 'centre'], '$.orbit');
   const centreTxt = arr(orbit.centre, '$.orbit.centre', p).map((pt, i) =>
     arr(pt, `$.orbit.centre[${i}]`, n).map((x, a) => dec(x, `$.orbit.centre[${i}][${a}]`)),
   );
@@ -243,6 +284,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   let radius: string | null = null;
   if (claims.uniqueness !== undefined && claims.uniqueness !== null) {
     const u = obj(claims.uniqueness, '$.claims.uniqueness');
+    onlyKeys(u, ['radius'], '$.claims.uniqueness');
     radius = dec(u.radius, '$.claims.uniqueness.radius');
     if (!new Exact(radius).gt(0)) reject('$.claims.uniqueness.radius', 'uniqueness radius must be positive');
   }
@@ -271,6 +313,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
     const h = obj(d.hints, '$.hints');
+    onlyKeys(h, ['bits', 'digits'], '$.hints');
     if (h.digits !== undefined) digits = Math.max(digits, int(h.digits, '$.hints.digits', 1, limits.maxDigits) + 5);
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
@@ -285,32 +328,92 @@ interface Boxes {
   Xexact: Iv[];
 }
 
-/** Existence: Krawczyk on the boxes (decimal preconditioner when the float one fails). Returns C and D = J(X). */
-function verifyExistence(r: ReadCertificate, s: Shooting, b: Boxes, opts: CheckOptions, limits: CheckLimits): { C: Precond; D: Iv[][] } {
-  const N = r.p * r.n;
+/**
+ * The Krawczyk forms this certificate is tested with, in order; any form that passes proves the
+ * claim (each is a valid Krawczyk operator). Dimension 2: the structured bound first at every
+ * period (issue 8 item 1); dimension 1 from STRUCTURED_FROM_UNKNOWNS on (below it the dense bound
+ * is tighter near |Λ| ≈ 1); the other forms are fallbacks when they fit the work budget.
+ * Fix (issue 7 item 5): above 40 digits with more unknowns than a decimal preconditioner may have,
+ * the float preconditioner is used instead of none. Preconditioners are built once, lazily.
+ */
+type KrawczykTest = (Y: readonly Iv[], inner: readonly Iv[], label: string) => KrawczykOutcome;
+type Form = 'cyclic' | 'dense-decimal' | 'dense-float';
+interface Plan {
+  hintedHigh: boolean;
+  decimalC: boolean;
+  cyclicFirst: boolean;
+  fallbackOk: (f: Form) => boolean;
+}
+
+/** The work estimate (budget.ts) from the certificate's shape alone: a Refusal beyond the budget. */
+function planWork(r: ReadCertificate, opts: CheckOptions, limits: CheckLimits): Plan {
+  const { p, n } = r;
+  const N = p * n;
   const hintedHigh = r.digits > (opts.digits ?? DEFAULT_DIGITS) || r.digits > 40;
-  const withDecimalC = (): ReturnType<typeof preconditioner> =>
-    N <= limits.maxDecimalPrecondUnknowns ? preconditioner(s, b.X, true) : null;
-  let C = hintedHigh ? withDecimalC() : preconditioner(s, b.X, false);
-  if (!C && !hintedHigh) C = withDecimalC();
-  if (!C) reject('$.orbit.centre', 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner');
-  let kx = krawczyk(s, C!, b.M, b.X, b.Xexact, 'existence');
-  if (!kx.ok && !hintedHigh && N <= limits.maxDecimalPrecondUnknowns) {
-    const C2 = withDecimalC();
-    if (C2) {
-      const k2 = krawczyk(s, C2, b.M, b.X, b.Xexact, 'existence');
-      if (k2.ok) {
-        C = C2;
-        kx = k2;
-      }
-    }
+  const decimalC = hintedHigh && N <= limits.maxDecimalPrecondUnknowns;
+  const cyclicFirst = n === 2 || (n === 1 && p > STRUCTURED_FROM_UNKNOWNS);
+  let stepOps = 0;
+  for (const node of r.step) stepOps += formulaOps(node, n, r.digits);
+  const first: Form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
+  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first });
+  const workText = (w: number): string => w.toExponential(1).replace('e+', 'e');
+  if (!(work <= limits.maxWork)) {
+    reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${r.digits} digits, ${first} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
   }
+  const fallbackOk = (f: Form): boolean => estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: f }) + work <= limits.maxWork;
+  return { hintedHigh, decimalC, cyclicFirst, fallbackOk };
+}
+
+function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, limits: CheckLimits): KrawczykTest {
+  const { p, n } = r;
+  const N = p * n;
+  const { hintedHigh, decimalC, cyclicFirst, fallbackOk } = plan;
+  const noC: KrawczykOutcome = { ok: false, reason: 'the shooting Jacobian at the centre is singular (or overflows): no preconditioner' };
+  let floatC: Precond | null | undefined;
+  let decC: Precond | null | undefined;
+  let prepared: BoxTest | undefined;
+  const denseFloat: KrawczykTest = (Y, inner, label) => {
+    if (floatC === undefined) floatC = preconditioner(s, b.X, false);
+    return floatC ? krawczyk(s, floatC, b.M, Y, inner, label) : noC;
+  };
+  const denseDecimal: KrawczykTest = (Y, inner, label) => {
+    if (decC === undefined) decC = preconditioner(s, b.X, true);
+    return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
+  };
+  const cyclic: KrawczykTest = (Y, inner, label) => {
+    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2(s, b.M);
+    return prepared(Y, inner, label);
+  };
+  const forms: KrawczykTest[] = [];
+  if (cyclicFirst) {
+    forms.push(cyclic);
+    if (decimalC && fallbackOk('dense-decimal')) forms.push(denseDecimal);
+    if (N <= limits.maxDenseUnknowns && fallbackOk('dense-float')) forms.push(denseFloat);
+  } else {
+    forms.push(decimalC ? denseDecimal : denseFloat);
+    if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
+    if (n <= 2) forms.push(cyclic);
+  }
+  return (Y, inner, label) => {
+    let firstOut: KrawczykOutcome | null = null;
+    for (const f of forms) {
+      const out = f(Y, inner, label);
+      if (out.ok) return out;
+      firstOut ??= out;
+    }
+    return firstOut!;
+  };
+}
+
+/** Existence: Krawczyk on the boxes. Returns D = J(X). */
+function verifyExistence(test: KrawczykTest, b: Boxes): { D: Iv[][] } {
+  const kx = test(b.X, b.Xexact, 'existence');
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  return { C: C!, D: (kx as { jacobians: Iv[][] }).jacobians };
+  return { D: (kx as { jacobians: Iv[][] }).jacobians };
 }
 
 /** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
-function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, C: Precond, radius: string): void {
+function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, test: KrawczykTest, radius: string): void {
   const { c } = s;
   const n = r.n;
   const Yout: Iv[] = [];
@@ -323,7 +426,7 @@ function verifyUniqueness(r: ReadCertificate, s: Shooting, b: Boxes, C: Precond,
     Yin.push(yin);
     if (!isSubset(b.Xexact[i]!, yin)) reject('$.claims.uniqueness.radius', `existence box of point ${Math.floor(i / n)}, component ${i % n} is not inside centre ± radius`);
   }
-  const ky = krawczyk(s, C, b.M, Yout, Yin, 'uniqueness');
+  const ky = test(Yout, Yin, 'uniqueness');
   if (!ky.ok) reject('$.claims.uniqueness.radius', ky.reason);
 }
 
@@ -379,9 +482,24 @@ function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClai
 }
 
 /** Schema reading, then the mathematics: each stated claim re-derived, or a Refusal. */
+/** Kinds with checker files of their own (window.ts, absence.ts): windows, bifurcation edges, absence covers. */
+function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } | null {
+  const d = doc as Record<string, unknown>;
+  if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
+  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
+  const digits = opts.digits ?? DEFAULT_DIGITS;
+  if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
+  else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
+  else checkAbsence(d, digits, limits, reject);
+  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : ['absence'], digits };
+}
+
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+  const other = otherKind(doc, opts, limits);
+  if (other) return other;
   const r = readCertificate(doc, opts, limits);
   const { p, n } = r;
+  const plan = planWork(r, opts, limits); // before any arithmetic
   const c = ivCtx(r.digits);
   const params = new Map<string, Iv>();
   for (const [k, [lo, hi]] of r.paramText) params.set(k, c.literal(lo, hi));
@@ -398,11 +516,12 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
       b.M.push(c.literal(r.centreTxt[i]![a]!));
     }
   }
-  const { C, D } = verifyExistence(r, s, b, opts, limits);
+  const test = krawczykForms(r, s, b, plan, limits);
+  const { D } = verifyExistence(test, b);
   const verified: ClaimName[] = ['existence'];
   const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
   if (r.radius !== null) {
-    verifyUniqueness(r, s, b, C, r.radius);
+    verifyUniqueness(r, s, b, test, r.radius);
     verified.push('uniqueness');
   }
   if (r.minimal !== null) {
@@ -478,12 +597,34 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
   }
 }
 
+/** An entry of a folder that `check DIR` did not read, and why. */
+export interface SkippedEntry {
+  file: string;
+  reason: string;
+}
+
 /** Check files and directories (every *.json inside, recursively, symlinked directories not followed). */
 export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckReport[] {
+  return checkPathsReporting(paths, opts).reports;
+}
+
+/** What kind of file system entry this is, for a skip reason. */
+function entryKind(ent: Dirent): string {
+  return ent.isFIFO() ? 'a FIFO (named pipe)' : ent.isSocket() ? 'a socket' : ent.isBlockDevice() || ent.isCharacterDevice() ? 'a device' : 'not a regular file';
+}
+
+/**
+ * checkPaths, also listing what was skipped inside folders and why: symlinked folders (not
+ * followed, so a folder cannot loop or leave the tree), FIFOs, sockets and devices (reading could
+ * block), `*.JSON`-style names that are not exactly `.json`, and broken symlinks. Other files
+ * (README.md, …) are not certificates and are not listed.
+ */
+export function checkPathsReporting(paths: string[], opts: CheckOptions = {}): { reports: CheckReport[]; skipped: SkippedEntry[] } {
   const limits: CheckLimits = { ...DEFAULT_LIMITS, ...opts.limits };
   // first the list of work (files to check, or their refusal), then the checks: a progress
   // display knows the total before the slow part starts
   const out: (CheckReport | (() => CheckReport))[] = [];
+  const skipped: SkippedEntry[] = [];
   const unreadable = (file: string, reason: string): CheckReport => ({
     verdict: 'UNREADABLE', file, reason, claimsVerified: [], digits: opts.digits ?? DEFAULT_DIGITS, elapsedMs: 0,
   });
@@ -498,8 +639,27 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
     if (st.isDirectory()) {
       const entries = readdirSync(p, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
       for (const ent of entries) {
-        if (ent.isDirectory()) visit(join(p, ent.name), false);
-        else if ((ent.isFile() || ent.isSymbolicLink()) && ent.name.endsWith('.json')) visit(join(p, ent.name), false);
+        const full = join(p, ent.name);
+        const json = ent.name.endsWith('.json');
+        const jsonLike = !json && ent.name.toLowerCase().endsWith('.json');
+        if (ent.isDirectory()) visit(full, false);
+        else if (ent.isSymbolicLink()) {
+          let target;
+          try {
+            target = statSync(full);
+          } catch {
+            if (json || jsonLike) skipped.push({ file: full, reason: 'broken symbolic link' });
+            continue;
+          }
+          if (target.isDirectory()) skipped.push({ file: full, reason: 'symbolic link to a folder: not followed' });
+          else if (!target.isFile()) {
+            if (json || jsonLike) skipped.push({ file: full, reason: 'symbolic link to something that is not a regular file' });
+          } else if (json) visit(full, false);
+          else if (jsonLike) skipped.push({ file: full, reason: 'name ends in a differently cased ".json": only *.json is read' });
+        } else if (ent.isFile()) {
+          if (json) visit(full, false);
+          else if (jsonLike) skipped.push({ file: full, reason: 'name ends in a differently cased ".json": only *.json is read' });
+        } else skipped.push({ file: full, reason: `${entryKind(ent)}: not read` });
       }
       return;
     }
@@ -522,11 +682,12 @@ export function checkPaths(paths: string[], opts: CheckOptions = {}): CheckRepor
     });
   };
   for (const p of paths) visit(p, true);
-  return out.map((item, i) => {
+  const reports = out.map((item, i) => {
     const report = typeof item === 'function' ? item() : item;
     opts.onReport?.(report, i + 1, out.length);
     return report;
   });
+  return { reports, skipped };
 }
 
 export { canonicalJson, certificateHash } from './json.js';

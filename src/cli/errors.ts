@@ -30,6 +30,7 @@ export type UsageErrorCode =
   | 'bad-limit'
   | 'bad-start'
   | 'bad-max-bits'
+  | 'bad-max-work'
   | 'bad-option'
   | 'no-input'
   | 'bad-param-override';

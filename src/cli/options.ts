@@ -5,6 +5,8 @@ import { UsageError, type UsageErrorCode } from './errors.js';
 
 /** Where `prove` writes certificates without --out. */
 export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
+/** Default folder of `audit` certificates (one sub-folder per claim). */
+export const DEFAULT_AUDIT_DIR = 'orbitseal-audit';
 
 /** Where `orbitseal report` writes its page unless --out says otherwise. */
 export const DEFAULT_REPORT_FILE = 'orbitseal-report.html';
@@ -115,4 +117,27 @@ export function parseStart(text: string, dim: number): string[] {
     );
   }
   return parts;
+}
+
+/** `--max-work W`: a positive number (plain or scientific, e.g. 2e9) of checker work units. */
+export function parseMaxWork(text: string): number {
+  const v = /^\s*\d+(\.\d*)?([eE]\+?\d+)?\s*$/.test(text) ? Number(text.trim()) : Number.NaN;
+  if (!(v >= 1) || !Number.isFinite(v)) {
+    throw new UsageError('bad-max-work', '--max-work', text, 'expected a positive number of work units', 'write e.g. --max-work 2e9 (the default is 2e8, about minutes of work)');
+  }
+  return v;
+}
+/** `--effort E`: a positive decimal factor, at most 1000 (multiplies the float search effort). */
+export function parseEffort(text: string): number {
+  const v = DECIMAL_LITERAL.test(text.trim()) ? Number(text.trim()) : Number.NaN;
+  if (!(Number.isFinite(v) && v > 0 && v <= 1000)) {
+    throw new UsageError('bad-option', '--effort', text, 'expected a positive number up to 1000', 'write e.g. --effort 4 to search four times harder');
+  }
+  return v;
+}
+
+/** `--near` as exact decimal text (for multiprecision iteration of the point); null if not decimals. */
+export function nearDecimals(text: string): string[] | null {
+  const parts = text.split(',').map((s) => s.trim());
+  return parts.every((s) => DECIMAL_LITERAL.test(s)) ? parts : null;
 }

@@ -9,7 +9,7 @@
 import { Command, CommanderError } from 'commander';
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
-import { DEFAULT_OUT_DIR, DEFAULT_REPORT_FILE } from './options.js';
+import { DEFAULT_AUDIT_DIR, DEFAULT_OUT_DIR, DEFAULT_REPORT_FILE } from './options.js';
 import type { CheckCommandOptions } from './commands/check.js';
 import type { DemoCommandOptions } from './commands/demo.js';
 import type { FindCommandOptions } from './commands/find.js';
@@ -17,6 +17,9 @@ import type { ProveCommandOptions } from './commands/prove.js';
 import type { ShowCommandOptions } from './commands/show.js';
 import type { ReportCommandOptions } from './commands/report.js';
 import type { CatalogueCommandOptions } from './commands/catalogue.js';
+import type { WindowCommandOptions } from './commands/window.js';
+import type { EdgesCommandOptions } from './commands/edges.js';
+import type { AuditCommandOptions } from './commands/audit.js';
 
 /** Commander collector for repeatable options. */
 export function collect(value: string, previous: string[] | undefined): string[] {
@@ -32,6 +35,7 @@ export interface RunContext {
   columns?: number;
 }
 
+const EFFORT_HELP = 'multiply the float search effort by E (default 1; it already grows with the period and the map\'s expansion)';
 const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact decimals; repeatable)';
 
 /**
@@ -81,6 +85,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'minimal period')
     .option('--near <x,y,...>', 'look near this point')
+    .option('--effort <E>', EFFORT_HELP)
     .option('--param <name=value>', PARAM_HELP, collect)
     .option('--limit <N>', 'list at most N candidates (the number found is always given)')
     .option('--json', 'print one JSON document')
@@ -94,10 +99,12 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .description('prove periodic orbits, write a certificate for each, and re-check each with the independent checker')
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'period of the orbits to prove')
-    .option('--near <x,y,...>', 'prove only the candidate nearest this point (with --limit N: the N nearest)')
-    .option('--limit <N>', 'prove at most N candidates (default 20; nearest to --near first)')
-    .option('--all', 'prove every candidate found (no limit)')
+    .option('--near <x,y,...>', 'prove the orbit through this point, else the candidate nearest it (with --limit N: the N nearest)')
+    .option('--limit <N>', 'prove at most N candidates (default 20; nearest to --near first); the search stops once N exist')
+    .option('--all', 'prove every candidate this search found (not a proof that there are no others)')
+    .option('--effort <E>', EFFORT_HELP)
     .option('--start <x0,y0,...>', 'prove the orbit through this one point (exact decimals, any number of digits); no search')
+    .option('--points <file>', 'prove the orbit approximated by these p points (CSV one point per line, or JSON); no search')
     .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
     .option('--force', 'replace existing certificate files')
     .option('--max-bits <B>', 'highest working precision for precision escalation')
@@ -110,11 +117,59 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
       return run(async () => (await import('./commands/prove.js')).proveCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
+  const RANGE_HELP = 'parameter: name=decimal or name=[lo,hi] (exactly one as a range; repeatable)';
+  program
+    .command('window')
+    .description('prove that for every parameter in a range one orbit of minimal period P exists, continues and has one stability; one certificate')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'minimal period')
+    .option('--param <name=value>', RANGE_HELP, collect)
+    .option('--near <x,...>', 'follow the orbit through (near) this point')
+    .option('--min-width <w>', 'do not split parameter pieces narrower than this')
+    .option('--out <dir>', 'folder for the certificate', DEFAULT_OUT_DIR)
+    .option('--force', 'replace an existing certificate file')
+    .option('--no-check', 'do not run the independent checker')
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: WindowCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/window.js')).windowCommand(map, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('edges')
+    .description('enclose fold (multiplier +1), flip (−1) and superstable parameters of period-P orbits in a range (one-dimensional maps)')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'period of the orbits')
+    .option('--param <name=value>', RANGE_HELP, collect)
+    .option('--kind <list>', 'fold, flip, superstable (comma-separated; default fold,flip)')
+    .option('--samples <N>', 'parameter samples for the float seeds (default 12)')
+    .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
+    .option('--force', 'replace existing certificate files')
+    .option('--no-check', 'do not run the independent checker')
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: EdgesCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/edges.js')).edgesCommand(map, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('audit')
+    .description('check every claim of a claims file (docs/windows.md): CONFIRMED / REFUTED / UNDECIDED, with certificates; exit 0 only if all are confirmed')
+    .argument('<claims-file>', 'YAML or JSON claims file')
+    .option('--out <dir>', 'folder for certificates (one sub-folder per claim)', DEFAULT_AUDIT_DIR)
+    .option('--force', 'replace existing certificate files')
+    .option('--json', 'print one JSON document')
+    .action((file: string, o: AuditCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/audit.js')).auditCommand(file, o, cwd, ctx.progress))();
+    });
+
   program
     .command('check')
     .description('re-verify certificates with the independent checker: VERIFIED / REJECTED / UNREADABLE')
     .argument('<paths...>', 'certificate files or folders (all *.json inside)')
     .option('--digits <D>', 'decimal digits for the checker')
+    .option('--max-work <W>', 'refuse certificates whose estimated work exceeds W units (default 2e8, minutes)')
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;

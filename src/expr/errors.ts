@@ -11,6 +11,7 @@ export type MapLanguageErrorCode =
   | 'empty-input'
   | 'bad-character'
   | 'bad-number'
+  | 'out-of-range'
   | 'unexpected-token'
   | 'unbalanced-parentheses'
   | 'trailing-input'

@@ -12,12 +12,14 @@
  * pathological input gives a `too-deep` error instead of a stack overflow; long flat chains
  * (a+b+c+…) are built in loops and have no limit. Name lookups use Maps only.
  */
+import { MAX_FORMULA_NESTING } from '../certificate/limits.js';
 import type { BinaryOp, Expr, ParsedFormula } from './ast.js';
 import { MapLanguageError, quoteText, suggestionHint } from './errors.js';
 import { Lexer, formulaError, type Token } from './lexer.js';
 import { functionArity, functionNames, isConstantName, type FunctionName } from './names.js';
 
-export const MAX_NESTING = 400;
+/** The one nesting limit, shared with the independent checker's parser (certificate/limits.ts). */
+export const MAX_NESTING = MAX_FORMULA_NESTING;
 
 class Parser {
   private readonly lexer: Lexer;

@@ -102,10 +102,25 @@ export function checkDecimal(text: string, key: string, locator?: Locator): stri
   return d;
 }
 
+/** The largest finite double, exactly 2^1024 − 2^971, as a decimal. */
+const LARGEST_DOUBLE = '179769313486231570814527423731704356798070567525844996598917476803157260780028538760589558632766878171540458953514382464234321326889464182768467546703537516986049910576551282076245490090389328944075868508455133942304583236903222948165808559332123348274797826204144723168738177180919299881250404026184124858368';
+
+/** A parameter value: a decimal within the double range (see below). */
+function checkParamDecimal(text: string, key: string, locator?: Locator): string {
+  const d = checkDecimal(text, key, locator);
+  // the prover's kernel is float64 intervals: a number beyond the largest double has no finite
+  // enclosure, and every evaluation with it would overflow
+  if (compareDecimal(d.startsWith('-') ? d.slice(1) : d, LARGEST_DOUBLE) > 0) {
+    throw definitionError('out-of-range', `${JSON.stringify(text.slice(0, 60))} is beyond the largest double (about 1.8e308), the range orbitseal computes in`, key, text,
+      'rescale the model so its numbers stay below 1e308 in magnitude', locator);
+  }
+  return d;
+}
+
 export function checkParamValue(v: ParamValue, key: string, locator?: Locator): ParamValue {
-  if (v.kind === 'exact') return { kind: 'exact', value: checkDecimal(v.value, key, locator) };
-  const lo = checkDecimal(v.lo, `${key}[0]`, locator);
-  const hi = checkDecimal(v.hi, `${key}[1]`, locator);
+  if (v.kind === 'exact') return { kind: 'exact', value: checkParamDecimal(v.value, key, locator) };
+  const lo = checkParamDecimal(v.lo, `${key}[0]`, locator);
+  const hi = checkParamDecimal(v.hi, `${key}[1]`, locator);
   if (compareDecimal(lo, hi) > 0) {
     throw definitionError('empty-interval', `interval [${lo}, ${hi}] is empty (lower end above upper end)`, key,
       `[${lo}, ${hi}]`, 'write [lo, hi] with lo <= hi', locator);

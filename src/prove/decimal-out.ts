@@ -9,8 +9,8 @@ import { compareDecimal } from '../interval/decimal-literal.js';
 
 /** Exact work on short decimals: 2000 significant digits, directed modes set per call. */
 const Exact = Decimal.clone({ precision: 2000, rounding: Decimal.ROUND_HALF_EVEN });
-const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
-const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
+export const ExactFloor = Exact.clone({ rounding: Decimal.ROUND_FLOOR });
+export const ExactCeil = Exact.clone({ rounding: Decimal.ROUND_CEIL });
 
 export type RoundMode = 'floor' | 'ceil' | 'nearest';
 

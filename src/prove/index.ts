@@ -34,3 +34,5 @@ export type {
   ProveTiming,
   StabilityClass,
 } from './types.js';
+export { OrbitIdentifier, identifyOrbits } from './identify.js';
+export type { Identification, IdentifiableOrbit } from './identify.js';

@@ -18,11 +18,17 @@
  * Cost: C is dense; the product C·J(X) exploits the two nonzero blocks per block column of J,
  * so one test costs O(N²·(n + 3)) interval operations and O(N) memory (rows are formed and
  * consumed one at a time).
+ * Structured form (dimensions 1 and 2, long periods): a `CyclicPreconditioner` makes
+ * `prepareKrawczyk` build the O(p) plan of cyclic.ts / cyclic2.ts, where C = B^{-1} for the exact
+ * block-cyclic B with float blocks is never formed and (I − C·J(X))(X − m) is bounded through
+ * B − J(X) being block-diagonal; the bounds are argued in those files.
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { resetStatus } from '../interval/arithmetic.js';
 import type { MapEvaluator } from '../model/types.js';
 import { down, up } from '../interval/round.js';
+import { cyclicImage, prepareCyclic, type CyclicPlan } from './cyclic.js';
+import { cyclic2Image, prepareCyclic2, type Cyclic2Plan } from './cyclic2.js';
 
 /** A real N×N matrix given entry-wise as degenerate (point) elements of T. */
 export interface Preconditioner<T> {
@@ -174,6 +180,25 @@ export function krawczykShooting<T>(
   return { kind: 'undecided', image, reason: `K(X) not inside int X (first at coordinate ${firstOut})`, assumed };
 }
 
+/**
+ * The structured preconditioner of dimension 1 (cyclic.ts): C = B^{-1} for the cyclic bidiagonal
+ * B with diagonal −ã (doubles), applied by recursions, never formed. `entry` is not available.
+ */
+export interface CyclicPreconditioner<T> extends Preconditioner<T> {
+  readonly cyclic: Float64Array;
+}
+
+/** The cyclic preconditioner from the doubles ã_i ≈ f'(m_i) (n = 1). */
+export function cyclicPreconditioner<T>(at: Float64Array): CyclicPreconditioner<T> {
+  return {
+    size: at.length,
+    cyclic: at,
+    entry: () => {
+      throw new Error('cyclicPreconditioner: entries are not formed (use prepareKrawczyk)');
+    },
+  };
+}
+
 /** Dense preconditioner over a row-major Float64Array (float path). */
 export function floatPreconditioner<T>(arith: IntervalArithmetic<T>, c: Float64Array, size: number): DensePreconditioner<T> {
   return { size, dense: c, entry: (r, k) => arith.fromNumber(c[r * size + k]!) };
@@ -243,6 +268,10 @@ export interface KrawczykPlan<T> {
   readonly Sg: Float64Array;
   readonly groupStart: Int32Array;
   readonly assumed: boolean;
+  /** Set for the structured test of dimension 1 (cyclic.ts); then y0/Tg/Sg are unused. */
+  readonly cyclic?: CyclicPlan<T>;
+  /** Set for the structured test of dimension 2 (cyclic2.ts). */
+  readonly cyclic2?: Cyclic2Plan<T>;
 }
 
 /** A preconditioner that also exposes its dense float64 entries (enables the fast preparation). */
@@ -255,7 +284,7 @@ export function prepareKrawczyk<T>(
   m: readonly T[],
   C: Preconditioner<T>,
   opts: { groups?: number; fast?: boolean } = {},
-): KrawczykPlan<T> | { domain: number; where: 'centre' } {
+): KrawczykPlan<T> | { domain: number; where: 'centre' } | { undecided: string } {
   const { arith: a, period: p, dim: n } = sys;
   const N = p * n;
   const nn = n * n;
@@ -263,6 +292,20 @@ export function prepareKrawczyk<T>(
   if ('domain' in res) return { domain: res.domain, where: 'centre' };
   const jb = shootingJacobianBlocks(sys, m);
   if ('domain' in jb) return { domain: jb.domain, where: 'centre' };
+  const cyc = (C as Partial<CyclicPreconditioner<T>>).cyclic;
+  if (cyc !== undefined) {
+    if (n > 2 || cyc.length !== p * nn) throw new RangeError(`prepareKrawczyk: cyclic preconditioner needs n <= 2 and p·n² = ${p * nn} entries`);
+    const empty = new Float64Array(0);
+    const base = { sys, m, y0: [], Am: jb.blocks, Tg: empty, Sg: empty, groupStart: new Int32Array(1), assumed: res.assumed || jb.assumed };
+    if (n === 2) {
+      const cyclic2 = prepareCyclic2(a, m, res.value, cyc);
+      if (cyclic2 === null) return { undecided: 'the structured Krawczyk bound found no hyperbolic splitting of the cycle (or a product of derivatives too close to 1)' };
+      return { ...base, cyclic2 };
+    }
+    const cyclic = prepareCyclic(a, m, res.value, cyc);
+    if (cyclic === null) return { undecided: 'the cyclic Krawczyk bound has no contracting direction (|product of derivatives| too close to 1)' };
+    return { ...base, cyclic };
+  }
   const G = Math.min(N, Math.max(1, opts.groups ?? 64));
   const groupStart = new Int32Array(G + 1);
   for (let g = 0; g <= G; g++) groupStart[g] = Math.floor((g * N) / G);
@@ -367,6 +410,13 @@ export function krawczykPlanned<T>(plan: KrawczykPlan<T>, box: readonly T[], tar
   const jb = shootingJacobianBlocks(sys, box);
   if ('domain' in jb) return { kind: 'domain', where: 'box', point: jb.domain };
   const assumed = plan.assumed || jb.assumed;
+  if (plan.cyclic !== undefined || plan.cyclic2 !== undefined) {
+    const d: T[] = new Array<T>(N);
+    for (let k = 0; k < N; k++) d[k] = a.sub(box[k]!, m[k]!);
+    const img = plan.cyclic !== undefined ? cyclicImage(a, plan.cyclic, jb.blocks, d) : cyclic2Image(a, plan.cyclic2!, jb.blocks, d);
+    if (img === null) return { kind: 'undecided', image: box.slice(), reason: 'Krawczyk bound overflowed', assumed };
+    return classifyImage(a, img, box, target, assumed);
+  }
   const zero = a.fromNumber(0);
   const G = groupStart.length - 1;
   const md = new Float64Array(G);
@@ -410,6 +460,23 @@ export function krawczykPlanned<T>(plan: KrawczykPlan<T>, box: readonly T[], tar
     }
   }
   if (inside) return { kind: 'inside', image, assumed };
+  if (excludedAt >= 0) return { kind: 'excluded', image, index: excludedAt, assumed };
+  return { kind: 'undecided', image, reason: `K(X) not inside int X (first at coordinate ${firstOut})`, assumed };
+}
+
+function classifyImage<T>(a: IntervalArithmetic<T>, image: T[], box: readonly T[], target: readonly T[], assumed: boolean): KrawczykOutcome<T> {
+  let firstOut = -1;
+  let excludedAt = -1;
+  for (let r = 0; r < image.length; r++) {
+    if (!a.isInterior(image[r]!, target[r]!)) {
+      if (firstOut < 0) firstOut = r;
+      if (a.disjoint(image[r]!, box[r]!)) {
+        excludedAt = r;
+        break;
+      }
+    }
+  }
+  if (firstOut < 0) return { kind: 'inside', image, assumed };
   if (excludedAt >= 0) return { kind: 'excluded', image, index: excludedAt, assumed };
   return { kind: 'undecided', image, reason: `K(X) not inside int X (first at coordinate ${firstOut})`, assumed };
 }

@@ -145,6 +145,7 @@ export function attempt<T>(inp: AttemptInput<T>): AttemptResult {
   }
   const plan = prepareKrawczyk(sys, m, C);
   if ('domain' in plan) return { kind: 'failed', reason: 'domain', detail: `evaluation at the centre left the domain at point ${plan.domain}` };
+  if ('undecided' in plan) return { kind: 'failed', reason: 'undecided', detail: plan.undecided };
   // Epsilon-inflation (Rump): X ← hull(K(X), m) widened by 10 % of its width + η.
   const relTiny = Math.pow(2, -(a.bits - 4));
   const absTiny = 1e-300;

@@ -12,7 +12,8 @@
 import { Decimal } from 'decimal.js';
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import type { CompiledMap } from '../model/types.js';
-import { floatPreconditioner, pointPreconditioner } from './krawczyk.js';
+import { cyclicPreconditioner, floatPreconditioner, pointPreconditioner, type Preconditioner } from './krawczyk.js';
+import { MAX_DECIMAL_DENSE_UNKNOWNS, MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS, STRUCTURED_FROM_UNKNOWNS } from '../certificate/limits.js';
 import { decimalContext } from '../linalg/decimal.js';
 import { attempt, type AttemptClaims, type AttemptResult } from './orbit-core.js';
 import { floatShootingInverse, refineFloat, refineMp, type MpRefinement } from './refine.js';
@@ -39,8 +40,10 @@ export interface ProveOrbitOptions {
   /** Epsilon-inflation steps per precision (default 12). */
   maxInflations?: number;
   /**
-   * Largest p·n for the dense preconditioner (default 4096; memory grows like (p·n)²). Larger
-   * problems are reported 'undecided' (a structured preconditioner is not implemented).
+   * Largest p·n for the dense preconditioner (default MAX_DENSE_UNKNOWNS of certificate/limits.ts,
+   * shared with the checker; memory grows like (p·n)²). Dimension 1 uses the structured cyclic
+   * bound (cyclic.ts) from STRUCTURED_FROM_UNKNOWNS unknowns on, up to MAX_UNKNOWNS; dimension ≥ 2
+   * beyond the dense limit is reported 'undecided'.
    */
   maxUnknowns?: number;
 }
@@ -133,8 +136,12 @@ export function proveOrbitWith(
   const p = points.length;
   const n = map.dim;
   const N = p * n;
-  if (N > (opts.maxUnknowns ?? 4096)) {
-    const detail = `p·n = ${N} unknowns exceed the dense preconditioner limit (maxUnknowns = ${opts.maxUnknowns ?? 4096})`;
+  const denseLimit = opts.maxUnknowns ?? MAX_DENSE_UNKNOWNS;
+  const structured = n <= 2 && N > STRUCTURED_FROM_UNKNOWNS;
+  if (N > MAX_UNKNOWNS || (!structured && N > denseLimit)) {
+    const detail = N > MAX_UNKNOWNS
+      ? `p·n = ${N} unknowns exceed the limit of ${MAX_UNKNOWNS} (MAX_UNKNOWNS)`
+      : `p·n = ${N} unknowns exceed the dense preconditioner limit of ${denseLimit} (the structured bound exists for dimensions 1 and 2 only)`;
     return { status: 'not-proven', reason: 'undecided', detail, attempts: [] };
   }
   const maxBits = opts.maxBits ?? 512;
@@ -144,6 +151,12 @@ export function proveOrbitWith(
   const start = new Float64Array(N);
   for (let i = 0; i < p; i++) for (let j = 0; j < n; j++) start[i * n + j] = candidateDouble(points[i]![j]!);
   const exactStart = points.some((pt) => pt.some((v) => typeof v === 'string'));
+  // A decimal start coordinate below the smallest normal double (e.g. x0 ≈ 5e-368 on a long
+  // logistic orbit near 0) underflows to 0 or a subnormal in float Newton, which then converges to
+  // some other solution (the fixed point 0): go straight to multiprecision.
+  const belowDouble = points.some((pt) =>
+    pt.some((v) => typeof v === 'string' && Math.abs(Number(v)) < 2.2250738585072014e-308 && !/^[+-]?[0.]*([eE][+-]?\d+)?$/.test(v)),
+  );
 
   let refineMs = 0;
   const book = new AttemptBook();
@@ -152,7 +165,10 @@ export function proveOrbitWith(
   let mpStartOf: () => Decimal[];
 
   // float64 attempt
-  {
+  if (belowDouble) {
+    mpStartOf = () => points.flatMap((pt) => pt.map((v) => new Decimal(typeof v === 'string' ? v : decimalOfDouble(v))));
+    book.fail(53, 'undecided', 'float64 skipped: a start coordinate is below the smallest normal double');
+  } else {
     const tr = performance.now();
     const ref = opts.refine === false ? null : refineFloat(map, start, p, n);
     const x = ref?.x ?? start;
@@ -170,11 +186,18 @@ export function proveOrbitWith(
     if (ref !== null && !ref.converged) {
       book.fail(53, 'newton-failed', `float Newton did not converge (${ref.iterations} steps, last correction ${shortNumber(ref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there`);
     } else {
-      const Cf = floatShootingInverse(blocks, p, n);
-      if (Cf === null) {
+      const a = ariths.float();
+      let C: Preconditioner<unknown> | null;
+      if (structured) {
+        const at = Float64Array.from(blocks);
+        C = at.every(Number.isFinite) ? cyclicPreconditioner(at) : null;
+      } else {
+        const Cf = floatShootingInverse(blocks, p, n);
+        C = Cf === null ? null : floatPreconditioner(a, Cf, N);
+      }
+      if (C === null) {
         book.fail(53, 'singular', 'the shooting Jacobian at the candidate is singular to float precision');
       } else {
-        const a = ariths.float();
         const centre = Array.from(x, (v) => a.fromNumber(v));
         const res = attempt({
           arith: a,
@@ -182,7 +205,7 @@ export function proveOrbitWith(
           period: p,
           dim: n,
           centre,
-          C: floatPreconditioner(a, Cf, N),
+          C,
           digits: 20,
           floatEndpoints: a.kind === 'interval' && a.bits === 53,
           uniqueness,
@@ -197,7 +220,13 @@ export function proveOrbitWith(
   const wantMore = (): boolean =>
     book.best === null || (escalateIncomplete && !book.best.claims.complete) || (!acceptAssumed && book.best.claims.assumed);
   const hardStop = book.lastFailure.reason === 'newton-failed' && book.best === null && opts.refine !== false;
-  if (ariths.mp && wantMore() && !hardStop) {
+  // Multiprecision escalation forms a dense decimal inverse: refused beyond its own limit (it would
+  // run for minutes and exhaust memory), with the reason in the attempts.
+  const mpAllowed = N <= MAX_DECIMAL_DENSE_UNKNOWNS;
+  if (ariths.mp && wantMore() && !hardStop && !mpAllowed) {
+    attempts.push({ bits: 106, outcome: 'failed', detail: `multiprecision escalation not attempted: p·n = ${N} exceeds ${MAX_DECIMAL_DENSE_UNKNOWNS} unknowns (dense multiprecision solve)` });
+  }
+  if (ariths.mp && wantMore() && !hardStop && mpAllowed) {
     for (const bits of precisionLadder(maxBits)) {
       if (!wantMore()) break;
       const a = ariths.mp(bits);

@@ -23,9 +23,11 @@
  * class is decided from the widened enclosures only.
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
-import { pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
+import { ExactCeil, ExactFloor, pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
 import { compareDecimal as cmp, decimalOfDouble } from '../interval/decimal-literal.js';
 import { intervalMatMul, orthogonalInverseEnclosure, orthonormalColumns } from '../linalg/interval-matrix.js';
+import { down, mulDown, mulUp, up } from '../interval/round.js';
+import type { Decimal } from 'decimal.js';
 import { gershgorinDiscs } from './gershgorin.js';
 import type { DecimalPair, ProvenStability, StabilityClass } from './types.js';
 
@@ -45,13 +47,59 @@ export function orbitStability<T>(arith: IntervalArithmetic<T>, blocks: readonly
 }
 
 function stability1<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
-  let lambda: T = blocks[0]!;
-  for (let i = 1; i < p; i++) lambda = arith.mul(lambda, blocks[i]!);
-  if (!isBounded(arith, lambda)) return { class: 'undecided', note: 'the multiplier enclosure is unbounded (overflow)' };
-  const multiplier = pairOf(arith, lambda);
+  let multiplier: DecimalPair | null;
+  if (arith.kind === 'interval' && arith.bits === 53) {
+    multiplier = scaledProduct(arith, blocks, p);
+    if (multiplier === null) return { class: 'undecided', note: 'the multiplier enclosure is unbounded' };
+  } else {
+    let lambda: T = blocks[0]!;
+    for (let i = 1; i < p; i++) lambda = arith.mul(lambda, blocks[i]!);
+    if (!isBounded(arith, lambda)) return { class: 'undecided', note: 'the multiplier enclosure is unbounded (overflow)' };
+    multiplier = pairOf(arith, lambda);
+  }
   if (pairAbsBelowOne(multiplier)) return { class: 'attracting', multiplier };
   if (pairAbsAboveOne(multiplier)) return { class: 'repelling', multiplier };
   return { class: 'undecided', multiplier, note: 'the multiplier enclosure contains a value of modulus 1 or straddles it' };
+}
+
+/**
+ * Π blocks_i for float64 intervals, in scaled form: a double interval [lo, hi] times 2^e with an
+ * integer e, so the product never leaves float64's range (|Λ| = 2^10000 for a period-10,000 orbit
+ * of 4x(1 − x) is fine). Contract: the returned decimal pair contains every product of points of
+ * the factors. Each product end is rounded outward (mulDown/mulUp), each rescaling multiplies by
+ * an exact power of two and is then stepped outward once more (down/up: exact scalings stay
+ * enclosures, and a scaling into the subnormal range is covered by the step). The final
+ * conversion lo·2^e, hi·2^e is done in decimal.js with the rounding directed outward and then
+ * widened by widenPair. Null when a factor is unbounded or the exponent leaves ±10^6.
+ */
+function scaledProduct<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number): DecimalPair | null {
+  let lo = 1;
+  let hi = 1;
+  let e = 0;
+  for (let i = 0; i < p; i++) {
+    const bl = a.loDown(blocks[i]!);
+    const bh = a.hiUp(blocks[i]!);
+    if (!Number.isFinite(bl) || !Number.isFinite(bh)) return null;
+    const l = Math.min(mulDown(lo, bl), mulDown(lo, bh), mulDown(hi, bl), mulDown(hi, bh));
+    const h = Math.max(mulUp(lo, bl), mulUp(lo, bh), mulUp(hi, bl), mulUp(hi, bh));
+    lo = l;
+    hi = h;
+    const mag = Math.max(Math.abs(lo), Math.abs(hi));
+    if (!Number.isFinite(mag)) return null;
+    if (mag > 2 ** 200 || (mag < 2 ** -200 && mag > 0)) {
+      const k = Math.floor(Math.log2(mag));
+      const s = 2 ** -k;
+      lo = down(lo * s);
+      hi = up(hi * s);
+      e += k;
+      if (Math.abs(e) > 1e6) return null;
+    }
+  }
+  const pow = (r: typeof ExactFloor): Decimal => (e >= 0 ? new r(2).pow(e) : new r(1).div(new (r === ExactFloor ? ExactCeil : ExactFloor)(2).pow(-e)));
+  // lower end: lo·2^e rounded down (2^e rounded so that the product moves down)
+  const L = lo >= 0 ? ExactFloor.mul(decimalOfDouble(lo), pow(ExactFloor)) : ExactFloor.mul(decimalOfDouble(lo), pow(ExactCeil));
+  const H = hi >= 0 ? ExactCeil.mul(decimalOfDouble(hi), pow(ExactCeil)) : ExactCeil.mul(decimalOfDouble(hi), pow(ExactFloor));
+  return widenPair(L.toString(), H.toString());
 }
 
 function isBounded<T>(arith: IntervalArithmetic<T>, x: T): boolean {
@@ -115,7 +163,23 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
   const zero = a.fromNumber(0);
   const disc = a.sub(a.sqr(trace), a.mul(a.fromNumber(4), det));
   let moduli: DecimalPair[] | undefined;
-  if (a.certainlyLt(zero, disc)) {
+  if (!isBounded(a, disc)) {
+    // T² overflows (long saddle orbits, e.g. Hénon period ≳ 850): with T certainly ≠ 0,
+    // λ₁ = T·(1 + √(1 − 4D/T²))/2 and λ₂ = D/λ₁, with D/T² formed as (D/T)/T (no overflow).
+    if (a.certainlyLt(zero, trace) || a.certainlyLt(trace, zero)) {
+      const s = a.div(a.div(det, trace), trace);
+      const d1 = a.sub(a.fromNumber(1), a.mul(a.fromNumber(4), s));
+      if (a.certainlyLt(zero, d1)) {
+        const l1 = a.mul(a.mul(trace, a.add(a.fromNumber(1), a.sqrt(d1))), a.fromNumber(0.5));
+        if (isBounded(a, l1) && (a.certainlyLt(zero, l1) || a.certainlyLt(l1, zero))) {
+          const l2 = a.div(det, l1);
+          const m1 = pairOf(a, a.abs(l1));
+          const m2 = pairOf(a, a.abs(l2));
+          moduli = compareLo(m1, m2) <= 0 ? [m1, m2] : [m2, m1];
+        }
+      }
+    }
+  } else if (a.certainlyLt(zero, disc)) {
     const root = a.sqrt(disc);
     const half = a.fromNumber(0.5);
     let l1: T;
@@ -130,9 +194,11 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
       l1 = a.mul(a.add(trace, root), half);
       l2 = a.mul(a.sub(trace, root), half);
     }
-    const m1 = pairOf(a, a.abs(l1));
-    const m2 = pairOf(a, a.abs(l2));
-    moduli = compareLo(m1, m2) <= 0 ? [m1, m2] : [m2, m1];
+    if (isBounded(a, l1) && isBounded(a, l2)) {
+      const m1 = pairOf(a, a.abs(l1));
+      const m2 = pairOf(a, a.abs(l2));
+      moduli = compareLo(m1, m2) <= 0 ? [m1, m2] : [m2, m1];
+    }
   } else if (a.certainlyLt(disc, zero) && a.certainlyLt(zero, det)) {
     const mod = pairOf(a, a.sqrt(det));
     moduli = [mod, [mod[0], mod[1]]];

@@ -15,34 +15,14 @@ import { ShootingNewton } from './newton.js';
 import { checkCount, checkPeriod } from './options.js';
 import { createRng } from './prng.js';
 import { seedBox, searchRegion } from './region.js';
-import { attractorSeeds, gridSeeds, randomSeeds, type SeedContext } from './seeds.js';
+import { defaultEffort, estimateExpansion } from './effort.js';
+import { attractorSeeds, gridSeeds, iteratedSeed, randomSeeds, type SeedContext } from './seeds.js';
 import type { Candidate, RefineOptions, SearchOptions } from './types.js';
 
 // moved to files of their own; re-exported here for callers that import them from find.js
 export { searchRegion, type SearchRegion } from './region.js';
 export { findOrbitsFromLongOrbit, type LongOrbitOptions } from './long-orbit.js';
-
-/** Default effort by state dimension (see findCandidates). */
-function defaultEffort(n: number, p: number): { grid: number; random: number; attractor: number } {
-  // 1-D: a chaotic map has up to ~2^p/p orbits of period p; about 4 grid points per periodic
-  // point of f^p find them all for the logistic map at r = 4 (bench/search-bench.ts), capped.
-  const e =
-    n === 1
-      ? { grid: Math.min(40000, Math.max(1000, 2 ** Math.min(p + 2, 30))), random: 400, attractor: 200 }
-      : n === 2
-        ? { grid: 40, random: 600, attractor: 400 }
-        : { grid: Math.max(2, Math.round(Math.pow(600, 1 / n))), random: 600, attractor: 400 };
-  // Long shooting vectors: every grid or random seed is a Newton solve in p·n unknowns, and long
-  // orbits are found by the attractor seeds anyway; cap the grid and random seeds by a work
-  // budget of ~2·10^5 seed-unknowns each (a period-1000 search then takes seconds, not minutes).
-  const unknowns = p * n;
-  if (unknowns > 50) {
-    const cap = Math.max(20, Math.ceil(2e5 / unknowns));
-    e.grid = n === 1 ? Math.min(e.grid, cap) : Math.min(e.grid, Math.max(2, Math.floor(Math.sqrt(cap))));
-    e.random = Math.min(e.random, cap);
-  }
-  return e;
-}
+export { estimateExpansion } from './effort.js';
 
 /**
  * @heuristic All orbits of minimal period `opts.period` that a multi-start float search finds in
@@ -57,9 +37,14 @@ function defaultEffort(n: number, p: number): { grid: number; random: number; at
  * converged (max|F| ≤ 1e-10·(1 + max|x|)), stays inside the region enlarged by 1e-6 of its width,
  * and has minimal period exactly p (tolerance 1e-7·(1 + region scale)). Cyclic shifts and
  * repeats are merged. Seeds that escape or produce NaN are dropped silently.
- * Default effort: n = 1: min(40000, max(1000, 2^(p+2))) grid + 400 random + 200 attractor
- * seeds; n = 2: 40×40 grid + 600 random + 400 attractor seeds; when p·n > 50 the grid and random
- * seeds are capped at max(20, 2·10^5/(p·n)) each (per axis: its square root for n ≥ 2). Result sorted lexicographically by first point.
+ * Default effort grows with the period p and the expansion λ (estimateExpansion; about e^{λp}/p
+ * orbits are expected): n = 1: max(1000, min(4·e^{Λp}, max(40000, 10·e^{Λp}/p))) grid seeds with
+ * Λ = max(λ, ln 2), + 400 random + 200 attractor seeds; n = 2: max(40², 200·e^{λp}/p) grid seeds
+ * + 600 random + 400 attractor seeds; grid and random seeds capped by a budget of 2·10^6
+ * seed-unknowns when p·n ≤ 50, else 2·10^5 (grid only when p·n ≤ 50); everything times
+ * `opts.effort`. With `opts.near` the float orbit through that point is tried first. With
+ * `opts.enough` the search stops once that many candidates exist (attractor seeds first for long
+ * shooting vectors). Result sorted lexicographically by first point.
  * Throws SearchOptionError for bad options, and the compiler's MapLanguageError for bad `params`.
  */
 export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Candidate[] {
@@ -67,7 +52,15 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const map = opts.params === undefined ? givenMap : compileMap(givenMap.definition, opts.params);
   const n = map.dim;
   const region = searchRegion(map);
-  const effort = defaultEffort(n, p);
+  const effortFactor = opts.effort ?? 1;
+  if (!(Number.isFinite(effortFactor) && effortFactor > 0)) {
+    throw new SearchOptionError('bad-effort', 'effort', String(opts.effort), 'expected a positive number', 'give effort as e.g. 2 to search twice as hard');
+  }
+  const enough = opts.enough === undefined ? Infinity : checkCount(opts.enough, 'enough', 0) || Infinity;
+  const needDefault = opts.gridPerAxis === undefined || opts.randomSeeds === undefined || opts.attractorSeeds === undefined;
+  // own PRNG stream, so the seeds below are what they were before the estimate existed
+  const expansion = needDefault ? estimateExpansion(map, region.lo, region.hi, createRng((opts.seed ?? 1) ^ 0x5bd1e995), 1e6 * (1 + region.scale)) : 0;
+  const effort = defaultEffort(n, p, expansion, effortFactor);
   const grid = checkCount(opts.gridPerAxis, 'gridPerAxis', effort.grid);
   const randomSeedCount = checkCount(opts.randomSeeds, 'randomSeeds', effort.random);
   const attractorSeedCount = checkCount(opts.attractorSeeds, 'attractorSeeds', effort.attractor);
@@ -91,15 +84,21 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
       const result = newton.refine(ctx.buf, maxIterations);
       if (result !== null) collector.offer(result);
       // progress counts Newton attempts (a seed that escapes before Newton is not counted)
-      if (progress) progress(++attempts, seedTotal);
+      if (progress) progress(Math.min(++attempts, seedTotal), seedTotal);
     },
+    done: () => collector.candidates.length >= enough,
   };
   const progress = opts.progress;
   const seedTotal = (grid > 0 ? Math.pow(grid, n) : 0) + randomSeedCount + attractorSeedCount;
   let attempts = 0;
+  // the orbit through `near` itself first: Newton from near, f(near), …, f^{p−1}(near)
+  if (opts.near !== undefined) iteratedSeed(ctx, opts.near);
+  // attractor seeds first when stopping early on a long shooting vector (what finds such orbits)
+  const attractorFirst = enough !== Infinity && p * n > 50;
+  if (attractorFirst) attractorSeeds(ctx, attractorSeedCount, rng, collector.tolerance());
   gridSeeds(ctx, grid);
   randomSeeds(ctx, randomSeedCount, rng);
-  attractorSeeds(ctx, attractorSeedCount, rng, collector.tolerance());
+  if (!attractorFirst) attractorSeeds(ctx, attractorSeedCount, rng, collector.tolerance());
   if (progress) progress(seedTotal, seedTotal);
   return collector.sorted();
 }

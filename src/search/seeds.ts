@@ -49,6 +49,14 @@ export interface SeedContext {
   region: SearchRegion;
   /** Refine `buf` and offer the result. */
   attempt: () => void;
+  /** True once enough candidates exist (SearchOptions.enough): every strategy stops then. */
+  done?: () => boolean;
+}
+
+/** One seed: the float orbit through `start` (e.g. the --near point itself). */
+export function iteratedSeed(ctx: SeedContext, start: ArrayLike<number>): void {
+  const n = ctx.map.dim;
+  if (fillIterated(ctx.map, start, ctx.p, ctx.buf, ctx.escapeBound, new Float64Array(n), new Float64Array(n))) ctx.attempt();
 }
 
 /** Grid seeds: `grid`^n cell centres of the seed box, each giving (x, f(x), …, f^{p−1}(x)). */
@@ -60,7 +68,7 @@ export function gridSeeds(ctx: SeedContext, grid: number): void {
   const image = new Float64Array(n);
   const start = new Float64Array(n);
   const total = Math.pow(grid, n);
-  for (let idx = 0; idx < total; idx++) {
+  for (let idx = 0; idx < total && !ctx.done?.(); idx++) {
     let rest = idx;
     for (let c = 0; c < n; c++) {
       const k = rest % grid;
@@ -84,7 +92,7 @@ export function randomSeeds(ctx: SeedContext, count: number, rng: Rng): void {
   const uniformInto = (target: Float64Array, offset: number, lo: Float64Array, hi: Float64Array, r: Rng): void => {
     for (let c = 0; c < n; c++) target[offset + c] = lo[c]! + r() * (hi[c]! - lo[c]!);
   };
-  for (let s = 0; s < count; s++) {
+  for (let s = 0; s < count && !ctx.done?.(); s++) {
     if (s % 2 === 0) {
       uniformInto(buf, 0, seedLo, seedHi, rng);
       for (let i = 1; i < p; i++) uniformInto(buf, i * n, region.lo, region.hi, rng);
@@ -104,6 +112,7 @@ export function attractorSeeds(ctx: SeedContext, count: number, rng: Rng, tolera
   const orbit = longFloatOrbit(map, { seedLo, seedHi, rng, length: Math.max(20 * count, 50 * p, 4000) + p, escapeBound });
   if (orbit === null) return;
   for (const k of nearReturnStarts(orbit, n, p, count, tolerance)) {
+    if (ctx.done?.()) return;
     buf.set(orbit.subarray(k * n, (k + p) * n));
     ctx.attempt();
   }

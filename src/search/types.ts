@@ -39,6 +39,18 @@ export interface SearchOptions {
   randomSeeds?: number;
   /** Seeds taken from near-returns of a long float orbit (attractor seeds). */
   attractorSeeds?: number;
+  /**
+   * Multiplies the default search effort (grid, random and attractor seeds, and the work budget)
+   * by this positive factor (default 1). The default effort already grows with the period and the
+   * map's estimated expansion; raise this to search harder. Ignored for counts given explicitly.
+   */
+  effort?: number;
+  /**
+   * Stop the search once this many distinct candidates exist (default: search to the end). The
+   * seeds most likely to hit an orbit go first then: with `near`, the orbit through `near` itself
+   * (Newton from near, f(near), …); for long shooting vectors, the attractor seeds.
+   */
+  enough?: number;
   /** PRNG seed (32-bit integer); the search is reproducible for a fixed seed. Default 1. */
   seed?: number;
   /** Newton iterations per seed (default 40). */

@@ -4,7 +4,10 @@
  * The CLI's `prove` and `demo` commands are this function plus rendering and an exit code.
  */
 import { basename, join } from 'node:path';
+import { Decimal } from 'decimal.js';
 import { buildCertificate } from '../certificate/build.js';
+import { renameSync, unlinkSync } from 'node:fs';
+import { OrbitIdentifier } from '../prove/identify.js';
 import { certificateFileName, checkDirectoryUsable, writeCertificate, writeFileAtomic } from '../certificate/write.js';
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
@@ -36,6 +39,15 @@ export interface CertifyOptions {
    * other p − 1 points come from `iterateFromStart` (multiprecision). Ignored when `start` is given.
    */
   startPoint?: readonly string[];
+  /**
+   * The seed points came from a `--points` file (p points), not from `--start`: only the report's
+   * `source` differs.
+   */
+  startFrom?: 'start' | 'points';
+  /** `near` as the user wrote it (exact decimals): lets the orbit through it be iterated in multiprecision. */
+  nearExact?: string[];
+  /** Multiplies the float search's default effort (findCandidates `effort`, default 1). */
+  effort?: number;
   /** Called before each proof attempt (1-based `attempt` of `total`); for a progress display. */
   progress?: (attempt: number, total: number) => void;
   /** Called after each seed of the float search (`done` of `total`); for a progress display. */
@@ -96,14 +108,28 @@ export interface CertifyReport {
   candidatesFound: number;
   /** Parameters given as intervals (a proof must then hold for every value in them). */
   intervalParams: string[];
-  /** Where the candidates came from: the float search, or the user's --start point. */
-  source: 'search' | 'start';
+  /**
+   * Where the candidates came from: the float search, the user's --start point, the user's
+   * --points file, or (with --near) the multiprecision iterates of the --near point.
+   */
+  source: 'search' | 'start' | 'points' | 'near-iterates';
+  /**
+   * True when the search stopped early because enough candidates existed (--limit N, or --near
+   * with the orbit through the point found): more orbits may exist than `candidatesFound`.
+   */
+  searchStopped: boolean;
   /** Candidates found but not attempted because of the limit. */
   unattempted: number;
   /** The limit in force (null: none) and where it came from. */
   limit: number | null;
   limitFrom: 'option' | 'default' | 'near' | null;
   outcomes: OrbitOutcome[];
+  /**
+   * Proven candidates that turned out to be an orbit already in `outcomes` (rigorous
+   * identification, src/prove/identify.ts): not written, not counted. `attempt` is the 1-based
+   * proof attempt, `sameAs` the `index` of the outcome it duplicates.
+   */
+  merged: { attempt: number; sameAs: number }[];
   outDir: string;
   checked: boolean;
   /**
@@ -157,6 +183,37 @@ function startCandidate(period: number, start: readonly (readonly CandidateCoord
   };
 }
 
+/** Does some box (exact decimal ends) contain the exact point? Rigorous (decimal.js comparisons). */
+function pointInBoxes(point: readonly string[], boxes: readonly (readonly [string, string][])[]): boolean {
+  const x = point.map((v) => new Decimal(v));
+  return boxes.some((box) => box.every(([lo, hi], j) => x[j]!.gte(lo) && x[j]!.lte(hi)));
+}
+
+/** @heuristic the smallest max-norm distance (floats) from `near` to a point of a candidate. */
+function nearestDistance(cands: readonly Candidate[], near: readonly number[]): number {
+  let best = Infinity;
+  for (const c of cands) for (const pt of c.points) best = Math.min(best, Math.max(...pt.map((v, j) => Math.abs(v - near[j]!))));
+  return best;
+}
+
+/**
+ * @heuristic The p multiprecision iterates of the exact point `start` when they close up
+ * (max-norm |f^p(x) − x| ≤ 1e-6·(1 + |x|)): a starting guess for the orbit through the point;
+ * null otherwise (or when an iterate leaves the domain).
+ */
+function closedIterates(compiled: CompiledMap, start: string[], period: number): string[][] | null {
+  let pts: string[][];
+  try {
+    pts = iterateFromStart(compiled, start, period + 1);
+  } catch {
+    return null;
+  }
+  const back = pts[period]!;
+  const scale = 1 + Math.max(...start.map((v) => Math.abs(Number(v))));
+  const gap = Math.max(...back.map((v, j) => Math.abs(Number(v) - Number(start[j]))));
+  return Number.isFinite(gap) && gap <= 1e-6 * scale ? pts.slice(0, period) : null;
+}
+
 function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamValue>): string[] {
   const all: Record<string, ParamValue> = { ...def.params, ...overrides };
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
@@ -172,6 +229,26 @@ function overrideTexts(o: Record<string, ParamValue> | undefined): Record<string
   return out;
 }
 
+/**
+ * Rename a certificate the checker rejected to `<name>.rejected.json` (atomic rename, replacing an
+ * older set-aside file of that name); if the rename fails, remove it. Returns the new path, or
+ * undefined when the file was removed.
+ */
+export function setAsideRejected(path: string): string | undefined {
+  const target = path.replace(/\.json$/, '') + '.rejected.json';
+  try {
+    renameSync(path, target);
+    return target;
+  } catch {
+    try {
+      unlinkSync(path);
+    } catch {
+      // already gone
+    }
+    return undefined;
+  }
+}
+
 /** Search, prove, write and re-check. Throws only user errors (e.g. cert-exists) and bugs. */
 export async function certifyOrbits(
   def: MapDefinition,
@@ -184,22 +261,49 @@ export async function certifyOrbits(
   checkDirectoryUsable(opts.outDir);
 
   let found: Candidate[];
-  const startPoints: CandidateCoordinate[][] | undefined =
-    opts.start ?? (opts.startPoint ? iterateFromStart(compiled, opts.startPoint, opts.period) : undefined);
-  if (startPoints) {
-    found = [startCandidate(opts.period, startPoints)];
-  } else {
-    found = findCandidates(compiled, {
-      period: opts.period,
-      ...(opts.near ? { near: opts.near } : {}),
-      ...(opts.searchProgress ? { progress: opts.searchProgress } : {}),
-    });
-  }
+  let startPoints: CandidateCoordinate[][] | undefined;
   const limit = opts.all ? null : (opts.limit ?? (opts.near ? 1 : DEFAULT_PROVE_LIMIT));
+  let searchStopped = false;
+  let source: CertifyReport['source'] = 'search';
+  const effort = opts.effort !== undefined ? { effort: opts.effort } : {};
+  if (opts.start || opts.startPoint) {
+    startPoints = opts.start ?? iterateFromStart(compiled, opts.startPoint!, opts.period);
+    source = opts.start ? (opts.startFrom ?? 'start') : 'start';
+    found = [startCandidate(opts.period, startPoints)];
+  } else if (opts.near) {
+    const near = opts.near;
+    // orbits of period p of a chaotic map lie ~e^{-λp} apart: a float tolerance well below that
+    const through = (cands: Candidate[]): boolean => cands.length > 0 && nearestDistance(cands, near) <= 1e-14 * (1 + Math.max(...near.map(Math.abs)));
+    // 1. the orbit through the point itself: Newton from its float iterates
+    found = limit === 1 ? findCandidates(compiled, { period: opts.period, near, enough: 1, gridPerAxis: 0, randomSeeds: 0, attractorSeeds: 0 }) : [];
+    if (limit === 1 && through(found)) {
+      searchStopped = true;
+    } else {
+      // 2. its multiprecision iterates, when they close up (a point of a long chaotic orbit,
+      //    whose float iterates drift off within a few dozen steps)
+      const mp = limit === 1 && opts.nearExact ? closedIterates(compiled, opts.nearExact, opts.period) : null;
+      if (mp !== null) {
+        startPoints = mp;
+        source = 'near-iterates';
+        found = [startCandidate(opts.period, mp)];
+        searchStopped = true;
+      } else {
+        // 3. the general search, every candidate sorted by distance (exact nearest-first order)
+        found = findCandidates(compiled, { period: opts.period, near, ...effort, ...(opts.searchProgress ? { progress: opts.searchProgress } : {}) });
+      }
+    }
+  } else {
+    found = findCandidates(compiled, { period: opts.period, ...effort, ...(limit !== null ? { enough: limit } : {}), ...(opts.searchProgress ? { progress: opts.searchProgress } : {}) });
+    searchStopped = limit !== null && found.length >= limit;
+  }
   const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);
   const chosen: Candidate[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
   const outcomes: OrbitOutcome[] = [];
+  const merged: CertifyReport['merged'] = [];
+  const identifier = new OrbitIdentifier(opts.period, compiled.dim);
+  const keptIndex: number[] = [];
+  let identityUndecided = false;
   let k = 0;
   const manifestPath = opts.manifestCommand !== undefined
     ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, overrideTexts(opts.overrides)).replace(/-0\.json$/, '.run'))
@@ -223,9 +327,11 @@ export async function certifyOrbits(
     writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + '\n', { force: true });
   };
   writeManifest(false);
+  let attemptNo = 0;
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
-    opts.progress?.(index, chosen.length);
+    attemptNo++;
+    opts.progress?.(attemptNo, chosen.length);
     const points = startPoints ?? candidate.points;
     const verdict = proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
@@ -235,6 +341,15 @@ export async function certifyOrbits(
       continue;
     }
     const orbit = verdict.orbit;
+    // one orbit is one orbit: a proven zero inside another's uniqueness region is that orbit
+    // (compared only with orbits the checker confirmed, or the prover's own with the checker off)
+    const identity = identifier.add(orbit, false);
+    if (identity.kind === 'same') {
+      merged.push({ attempt: attemptNo, sameAs: keptIndex[identity.sameAs]! });
+      continue;
+    }
+    const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
+    if (sameness !== '') identityUndecided = true;
     const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
@@ -249,12 +364,20 @@ export async function certifyOrbits(
       else {
         outcome.status = 'rejected-by-checker';
         outcome.reason = `${report.verdict}: ${report.reason ?? 'no reason given'}`;
+        // never leave a rejected certificate where a verified one would be (issue 7 item 4)
+        outcome.certificatePath = setAsideRejected(path);
       }
     }
     if (outcome.status !== 'rejected-by-checker') {
+      identifier.add(orbit);
+      keptIndex.push(index);
       const notes: string[] = [];
       if (orbit.minimalPeriod !== opts.period) notes.push(minimalPeriodNotShown(opts.period));
       const moved = startPoints ? startDrift(startPoints[0]!, orbit.centre) : 0;
+      if (sameness !== '') notes.push(sameness);
+      if (opts.nearExact && limit === 1 && !pointInBoxes(opts.nearExact, orbit.boxes)) {
+        notes.push('note: no proven box contains the --near point: this is the orbit nearest to it that was found, not an orbit through it');
+      }
       if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
@@ -267,6 +390,7 @@ export async function certifyOrbits(
   // point, a shorter cycle run several times) is proven as stated, but not what was asked for.
   const allGood =
     outcomes.length > 0 &&
+    !identityUndecided &&
     outcomes.every(
       (o) => (o.status === 'verified' || (!checkOn && o.status === 'prover-only')) && o.orbit?.minimalPeriod === opts.period,
     );
@@ -274,12 +398,14 @@ export async function certifyOrbits(
     map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
     period: opts.period,
     candidatesFound: found.length,
-    source: startPoints ? 'start' : 'search',
+    source,
+    searchStopped,
     intervalParams: intervalParamNames(def, opts.overrides ?? {}),
     unattempted: found.length - chosen.length,
     limit,
     limitFrom: limit === null ? null : opts.limit !== undefined ? 'option' : opts.near ? 'near' : 'default',
     outcomes,
+    merged,
     outDir: opts.outDir,
     checked: checkOn,
     allProven: allGood,

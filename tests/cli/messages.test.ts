@@ -43,13 +43,13 @@ describe('wording', () => {
     expect(r.stdout).not.toMatch(/maps inside/);
   });
 
-  it('prove with an interval parameter, not proven → hint to narrow or split the interval; exit 1', async () => {
+  it('prove with an interval parameter, not proven → hint to run `window`, which splits the interval; exit 1', async () => {
     // r in [3.83, 3.86] is too wide for a single Krawczyk box (observed, not a published value)
     const r = await runCli(['prove', 'logistic', '--param', 'r=[3.83,3.86]', '--period', '3', '--out', fresh()]);
     expect(r.exitCode).toBe(1);
-    expect(r.stdout).toMatch(/hint: r is an interval; .*narrow the parameter interval or split it/);
+    expect(r.stdout.replace(/\s+/g, ' ')).toMatch(/hint: r is an interval; .*run orbitseal window MAP --period 3 --param "r=\[lo,hi\]", which splits the range/);
     const ok = await runCli(['prove', 'logistic', '--param', 'r=3.83', '--period', '3', '--out', fresh()]);
-    expect(ok.stdout).not.toMatch(/narrow the parameter interval/);
+    expect(ok.stdout).not.toMatch(/orbitseal window/);
   });
 });
 

@@ -43,24 +43,26 @@ describe('--digits is bounded by the checker\'s own limit', () => {
 describe('prove --limit / --all and progress', () => {
   // r = 4: conjugate to the doubling map, so it has (2^5 − 2)/5 = 6 orbits of minimal period 5 and
   // (2^8 − 2^4)/8 = 30 of minimal period 8 (closed form, derived by hand; OEIS A001037 for p = 5)
-  it('prove logistic r=4 --period 5 --limit 2: proves 2, says 4 were not attempted and how to get them; exit 0', async () => {
+  // (issue 8, item 5: the search now stops once --limit N candidates exist, and says so)
+  it('prove logistic r=4 --period 5 --limit 2: proves 2, says the search stopped and how to go on; exit 0', async () => {
     const r = await runCli(['prove', 'logistic', '--param', 'r=4', '--period', '5', '--limit', '2', '--out', fresh()]);
     expect(r.exitCode).toBe(0);
-    expect(r.stdout).toMatch(/candidates \(float search, not proofs\): 6 of minimal period 5/);
+    expect(r.stdout).toMatch(/candidates \(float search, not proofs\): 2 of minimal period 5 \(search stopped early/);
     expect(r.stdout).toMatch(/summary: 2 proven and re-verified/);
-    expect(r.stdout).toMatch(/^4 more candidates were not attempted \(--limit 2\); to prove them too use --limit 6 or --all$/m);
+    expect(r.stdout).toMatch(/^the search stopped once 2 candidates existed \(--limit 2\); more orbits may exist: use --all to search on$/m);
     expect(r.stderr).toBe('');
   });
 
-  it('prove logistic r=4 --period 8 (default limit 20) --json: 20 attempted, 10 unattempted; progress only to the sink', async () => {
+  it('prove logistic r=4 --period 8 (default limit 20) --json: the search stops at 20, 20 attempted; progress only to the sink', async () => {
     const progress: string[] = [];
     const r = await runCli(['prove', 'logistic', '--param', 'r=4', '--period', '8', '--out', fresh(), '--json'], {
       progress: (t) => progress.push(t),
     });
-    const doc = JSON.parse(r.stdout) as { orbits: unknown[]; unattempted: number; limit: number; candidatesFound: number };
-    expect(doc.candidatesFound).toBe(30);
+    const doc = JSON.parse(r.stdout) as { orbits: unknown[]; unattempted: number; limit: number; candidatesFound: number; searchStopped: boolean };
+    expect(doc.candidatesFound).toBe(20);
+    expect(doc.searchStopped).toBe(true);
     expect(doc.orbits.length).toBe(20);
-    expect(doc.unattempted).toBe(10);
+    expect(doc.unattempted).toBe(0);
     expect(doc.limit).toBe(20);
     // cli/progress.ts: the search (seeds), then the proofs (orbits), on one overwritten line
     const clear = '\r\x1b[K';

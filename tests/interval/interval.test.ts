@@ -258,9 +258,11 @@ describe('tightness spot checks', () => {
     fc.assert(
       fc.property(moderate(100), (x) => {
         const X = new Interval(x, x);
-        // Math.*-based (assumed) functions: 2 successor steps each side → ≤ 4 ulps. Proven exp:
+        // Math.*-based (assumed) functions: 2 successor steps each side → ≤ 4 ulps (atan); sinh and
+        // tanh take 4 steps (WIDEN_HYPERBOLIC: V8's tanh measured 2.1 ulps off) → ≤ 8. Proven exp:
         // interval Horner → ≤ 5; proven log: head by TwoSum + one directed rounding → ≤ 3; proven cosh = (e^t + e^−t)/2 adds two exp widths → ≤ 7 (measured).
-        for (const f of [I.atan, I.sinh, I.tanh]) expect(ulpsWide(f(X))).toBeLessThanOrEqual(4);
+        expect(ulpsWide(I.atan(X))).toBeLessThanOrEqual(4);
+        for (const f of [I.sinh, I.tanh]) expect(ulpsWide(f(X))).toBeLessThanOrEqual(8);
         // Proven sin/cos: reduced argument enclosed (1–2 ulps) then interval Horner → ≤ 6.
         expect(ulpsWide(I.sin(X))).toBeLessThanOrEqual(6);
         expect(ulpsWide(I.cos(X))).toBeLessThanOrEqual(6);
@@ -271,7 +273,7 @@ describe('tightness spot checks', () => {
       RUNS,
     );
   });
-  it('assumed functions near the subnormal boundary are at most 4 ulps wide (2 exact steps each side)', () => {
+  it('assumed functions near the subnormal boundary are at most 4 (atan) / 8 (sinh, tanh) ulps wide (exact steps)', () => {
     // −2.225073858507201e-308 (just inside the subnormals) gave 5 ulps (seed 435566860): below 2^-969
     // the successor formula adds η = 2^-1074 and may step 2 ulps. Reference: atan, sinh, tanh = x + O(x³)
     // (Taylor series, by hand), so x itself must be enclosed.
@@ -285,7 +287,7 @@ describe('tightness spot checks', () => {
         for (const f of [I.atan, I.sinh, I.tanh]) {
           const r = f(X);
           expect(r.lo <= x && x <= r.hi, `${x}: [${r.lo}, ${r.hi}]`).toBe(true);
-          expect(ulpsWide(r), `${x}: [${r.lo}, ${r.hi}]`).toBeLessThanOrEqual(4);
+          expect(ulpsWide(r), `${x}: [${r.lo}, ${r.hi}]`).toBeLessThanOrEqual(f === I.atan ? 4 : 8);
         }
       }),
       RUNS,

@@ -347,3 +347,17 @@ describe('default search effort for long periods', () => {
     expect(c.every((k) => k.points.length === 1000 && k.residual < 1e-9)).toBe(true);
   });
 });
+
+describe('default effort grows with the period (issue 7, item 2)', () => {
+  it('Hénon (1.4, 0.3), period 18: all 233 orbits (Galias 2001, Int. J. Bifurcation and Chaos 11(9), from memory)', () => {
+    // before: a fixed 40² grid found 213
+    expect(findCandidates(henonFixture(), { period: 18 })).toHaveLength(233);
+  }, 30_000);
+  it('effort must be a positive number', () => {
+    expect(() => findCandidates(henonFixture(), { period: 2, effort: 0 })).toThrow(SearchOptionError);
+  });
+  it('enough: the search stops once that many candidates exist', () => {
+    // logistic r = 4 has 99 orbits of period 10 (OEIS A001037)
+    expect(findCandidates(logisticFixture('4'), { period: 10, enough: 5 })).toHaveLength(5);
+  });
+});

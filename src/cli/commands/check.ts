@@ -3,12 +3,13 @@ import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
 import { jsonResult } from '../json.js';
-import { parseDigits } from '../options.js';
+import { parseDigits, parseMaxWork } from '../options.js';
 import { createProgress, type ProgressSink } from '../progress.js';
-import { checkPaths, type CheckReport } from '../../checker/index.js';
+import { checkPathsReporting, type CheckReport, type SkippedEntry } from '../../checker/index.js';
 
 export interface CheckCommandOptions {
   digits?: string;
+  maxWork?: string;
   json?: boolean;
   /** Terminal width for the table (default no limit). */
   columns?: number;
@@ -19,6 +20,7 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
   const digits = o.digits !== undefined ? parseDigits(o.digits) : undefined;
+  const maxWork = o.maxWork !== undefined ? parseMaxWork(o.maxWork) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
   // a missing path among others is reported as UNREADABLE and the rest is still checked
   if (!absolute.some((p) => existsSync(p))) {
@@ -27,16 +29,22 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   const bar = createProgress(progressSink, o.columns);
   const onReport = (r: CheckReport, i: number, total: number) =>
     bar.update('check', i, total, 'certificates', `${r.verdict} ${r.file ? shownPath(r.file, cwd) : ''}`);
-  const reports = checkPaths(absolute, { ...(digits ? { digits } : {}), ...(progressSink ? { onReport } : {}) }).map(clarifyReport);
+  const checked = checkPathsReporting(absolute, {
+    ...(digits ? { digits } : {}),
+    ...(maxWork ? { limits: { maxWork } } : {}),
+    ...(progressSink ? { onReport } : {}),
+  });
   bar.finish();
+  const reports = checked.reports.map(clarifyReport);
+  const skipped = checked.skipped;
   if (reports.length === 0) {
     throw new UsageError('no-input', 'arguments', paths.join(' '), 'no certificate (*.json) found there', 'give certificate files or folders holding *.json certificates');
   }
   const exitCode: ExitCode = reports.every((r) => r.verdict === 'VERIFIED') ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
-    return jsonResult('check', { items: reports, reports }, exitCode);
+    return jsonResult('check', { items: reports, reports, skipped }, exitCode);
   }
-  return { stdout: renderCheck(reports, cwd, o.columns) + '\n', stderr: '', exitCode };
+  return { stdout: renderCheck(reports, cwd, o.columns) + renderSkipped(skipped, cwd) + '\n', stderr: '', exitCode };
 }
 
 /**
@@ -55,6 +63,13 @@ export function clarifyReport(r: CheckReport): CheckReport {
 function shownPath(file: string, cwd: string): string {
   const rel = relative(cwd, file);
   return rel && !rel.startsWith('..') ? rel : file;
+}
+
+/** What a folder held that was not read, one line each ('' when nothing was skipped). */
+export function renderSkipped(skipped: readonly SkippedEntry[], cwd: string): string {
+  if (skipped.length === 0) return '';
+  const lines = skipped.map((s) => `  ${relative(cwd, s.file).startsWith('..') ? s.file : relative(cwd, s.file)}: ${s.reason}`);
+  return `\n${skipped.length} entr${skipped.length === 1 ? 'y' : 'ies'} skipped (not checked):\n${lines.join('\n')}`;
 }
 
 /** Pure renderer: one row per certificate, then a count line. */

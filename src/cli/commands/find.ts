@@ -1,7 +1,7 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
 import { jsonResult } from '../json.js';
-import { parseLimit, parseNear, parsePeriod } from '../options.js';
+import { parseEffort, parseLimit, parseNear, parsePeriod } from '../options.js';
 import { findCandidates, type Candidate } from '../../search/index.js';
 import { loadMap, paramsLine, paramText } from './common.js';
 import { createProgress, type ProgressSink } from '../progress.js';
@@ -11,6 +11,7 @@ export interface FindCommandOptions {
   near?: string;
   json?: boolean;
   param?: string[];
+  effort?: string;
   /** At most this many candidates in the output (the count found is always given). */
   limit?: string;
   /** Terminal width for the table (default no limit). */
@@ -26,10 +27,12 @@ export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = p
   const period = parsePeriod(o.period);
   const { def, overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
+  const effort = o.effort !== undefined ? { effort: parseEffort(o.effort) } : {};
   const bar = createProgress(progressSink, o.columns);
   const cands = findCandidates(compiled, {
     period,
     ...(near ? { near } : {}),
+    ...effort,
     ...(progressSink ? { progress: (done: number, total: number) => bar.update('search', done, total, 'seeds') } : {}),
   });
   bar.finish();

@@ -1,13 +1,35 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { formatInterval, formatModulus, shortDown, table, widthUp } from '../format.js';
-import { parseDigits, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
+import { nearDecimals, parseDigits, parseEffort, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart } from '../options.js';
+import { readPointsFile } from '../points.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
 import { loadMap, paramsLine, paramText } from './common.js';
 import { jsonResult } from '../json.js';
 import type { MapDefinition, ParamValue } from '../../model/types.js';
 import { createProgress, type ProgressSink } from '../progress.js';
+import { MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS } from '../../certificate/limits.js';
+
+/**
+ * Refuse, before any search, a period whose shooting system the prover and the checker would
+ * both refuse (the same limits, certificate/limits.ts): minutes of search for a sure "undecided".
+ */
+export function checkProblemSize(period: number, dim: number): void {
+  const N = period * dim;
+  if (N > MAX_UNKNOWNS) {
+    throw new UsageError('bad-period', '--period', String(period), `period ${period} × dimension ${dim} = ${N} unknowns exceeds the limit of ${MAX_UNKNOWNS}`, `use a period of at most ${Math.floor(MAX_UNKNOWNS / dim)}`);
+  }
+  if (dim > 2 && N > MAX_DENSE_UNKNOWNS) {
+    throw new UsageError(
+      'bad-period',
+      '--period',
+      String(period),
+      `period ${period} × dimension ${dim} = ${N} unknowns exceeds the dense limit of ${MAX_DENSE_UNKNOWNS} (the structured O(p) proof exists for dimensions 1 and 2 only)`,
+      `use a period of at most ${Math.floor(MAX_DENSE_UNKNOWNS / dim)} for this map`,
+    );
+  }
+}
 
 export interface ProveCommandOptions {
   period: string;
@@ -22,6 +44,8 @@ export interface ProveCommandOptions {
   digits?: string;
   limit?: string;
   start?: string;
+  points?: string;
+  effort?: string;
   /** Terminal width for the table (default no limit). */
   columns?: number;
 }
@@ -49,9 +73,16 @@ export async function proveCommand(
   if (o.start !== undefined && (o.near !== undefined || o.all || limit !== undefined)) {
     throw new UsageError('bad-option', '--start', o.start, '--start proves exactly one orbit; --near, --limit and --all do not apply', 'leave out --near, --limit and --all');
   }
+  if (o.points !== undefined && (o.start !== undefined || o.near !== undefined || o.all || limit !== undefined)) {
+    throw new UsageError('bad-option', '--points', o.points, '--points proves exactly the orbit given by the file; --start, --near, --limit and --all do not apply', 'leave out --start, --near, --limit and --all');
+  }
+  const effort = o.effort !== undefined ? parseEffort(o.effort) : undefined;
   const { def, overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
+  checkProblemSize(period, compiled.dim);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
+  const nearExact = o.near !== undefined ? nearDecimals(o.near) : null;
   const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
+  const pointsFromFile = o.points !== undefined ? readPointsFile(resolve(cwd, o.points), o.points, period, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
   const bar = createProgress(progressSink, o.columns);
   const report = await certifyOrbits(def, compiled, {
@@ -59,6 +90,9 @@ export async function proveCommand(
     outDir,
     ...(near ? { near } : {}),
     ...(startPoint ? { startPoint } : {}),
+    ...(pointsFromFile ? { start: pointsFromFile, startFrom: 'points' as const } : {}),
+    ...(nearExact ? { nearExact } : {}),
+    ...(effort !== undefined ? { effort } : {}),
     ...(limit !== undefined ? { limit } : {}),
     ...(progressSink
       ? {
@@ -109,8 +143,13 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
     map: def ? { ...r.map, params } : r.map,
     period: r.period,
     candidatesFound: r.candidatesFound,
+    source: r.source,
+    searchStopped: r.searchStopped,
     limit: r.limit,
     unattempted: r.unattempted,
+    searchScope: SEARCH_SCOPE,
+    duplicatesMerged: r.merged.length,
+    merged: r.merged,
     checked: r.checked,
     outDir: r.outDir,
     orbits: r.outcomes.map((o) => ({
@@ -198,7 +237,11 @@ export function renderProve(r: CertifyReport, header: string, cwd: string, width
   out.push(
     r.source === 'start'
       ? `candidate (not a proof): the ${r.period} points from --start, iterated in multiprecision arithmetic`
-      : `candidates (float search, not proofs): ${r.candidatesFound} of minimal period ${r.period}`,
+      : r.source === 'points'
+        ? `candidate (not a proof): the ${r.period} points from the --points file`
+        : r.source === 'near-iterates'
+          ? `candidate (not a proof): the ${r.period} multiprecision iterates of the --near point (they close up)`
+          : `candidates (float search, not proofs): ${r.candidatesFound} of minimal period ${r.period}${r.searchStopped ? ' (search stopped early, see below)' : ''}`,
   );
   if (r.outcomes.length === 0) {
     out.push('nothing proven: the float search found no candidate orbit of this minimal period in the region.');
@@ -216,8 +259,9 @@ export function renderProve(r: CertifyReport, header: string, cwd: string, width
     o.certificatePath ? displayPath(o.certificatePath, cwd) : '',
   ]);
   out.push('');
-  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within', 'bits', 'certificate'], rows, width));
+  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within*', 'bits', 'certificate'], rows, width));
   out.push('');
+  if (r.outcomes.some((o) => (o.orbit?.uniquenessRadius ?? null) !== null)) out.push(UNIQUE_WITHIN_NOTE);
   for (const o of r.outcomes) {
     if (o.check && o.status === 'verified') {
       out.push(`#${o.index}: the independent checker re-verified: ${o.check.claimsVerified.join(', ')}`);
@@ -225,7 +269,10 @@ export function renderProve(r: CertifyReport, header: string, cwd: string, width
       out.push(`#${o.index}: note: the fast engine's enclosures rest on the accuracy of built-in elementary functions`);
     }
   }
+  const mergedText = mergedLine(r);
+  if (mergedText) out.push(mergedText);
   out.push(summaryLine(r));
+  if (r.source === 'search' && r.limit === null) out.push(wrap(`note: ${SEARCH_SCOPE}`, 78, 10));
   const hint = intervalHint(r);
   if (hint) out.push(hint);
   const more = unattemptedLine(r);
@@ -239,11 +286,17 @@ export function intervalHint(r: CertifyReport): string {
   const undecided = r.outcomes.some((o) => o.status === 'not-proven' || (o.orbit !== undefined && o.orbit.stability.class === 'undecided'));
   if (!undecided) return '';
   const names = r.intervalParams.join(', ');
-  return `hint: ${names} ${r.intervalParams.length === 1 ? 'is an interval' : 'are intervals'}; every claim must hold for all values in it: narrow the parameter interval or split it into pieces and prove each`;
+  const cmd = r.intervalParams.length === 1 ? `orbitseal window MAP --period ${r.period} --param "${names}=[lo,hi]"` : '`orbitseal window` (one parameter as a range)';
+  return `hint: ${names} ${r.intervalParams.length === 1 ? 'is an interval' : 'are intervals'}; every claim must hold for all values in it: run ${cmd}, which splits the range by itself and reports the pieces proven and the gaps`;
 }
 
 /** "N candidates not attempted …" with how to get them; '' when every candidate was attempted. */
 export function unattemptedLine(r: CertifyReport): string {
+  if (r.searchStopped && r.source === 'search') {
+    return r.limitFrom === 'near'
+      ? 'the search stopped early: the float orbit through the --near point was found'
+      : `the search stopped once ${r.candidatesFound} candidate${r.candidatesFound === 1 ? '' : 's'} existed (${r.limitFrom === 'default' ? `the default limit is ${DEFAULT_PROVE_LIMIT}` : `--limit ${r.limit}`}); more orbits may exist: use --all to search on`;
+  }
   if (r.unattempted <= 0) return '';
   const n = r.unattempted;
   const total = r.outcomes.length + n;
@@ -276,6 +329,28 @@ export function wrap(text: string, width: number, maxLines = 6): string {
   return lines.join('\n');
 }
 
+/** How to read the "unique within" column (the radius is on the whole shooting vector). */
+export const UNIQUE_WITHIN_NOTE =
+  '* unique within r: no other period-p solution has ALL its p points within r of\n  these (max-norm over the whole shooting vector), not a per-point distance.';
+
+/** What --all (and any count of search candidates) means; in the table notes, the JSON and the README. */
+export const SEARCH_SCOPE =
+  '--all means every candidate this float search found, not every orbit: a search is not a proof of completeness (raise --effort to search harder); a complete count is a separate job (a count command).';
+
+/** "k duplicates merged: …" listing which proof attempt duplicated which row; '' when none. */
+export function mergedLine(r: CertifyReport): string {
+  if (r.merged.length === 0) return '';
+  const bySame = new Map<number, number[]>();
+  for (const m of r.merged) bySame.set(m.sameAs, [...(bySame.get(m.sameAs) ?? []), m.attempt]);
+  const parts = [...bySame].map(([same, attempts]) => `attempt${attempts.length === 1 ? '' : 's'} ${attempts.join(', ')} = #${same}`);
+  const n = r.merged.length;
+  return wrap(
+    `${n} duplicate${n === 1 ? '' : 's'} merged: proven again and identified rigorously as the same orbit (its boxes, under a cyclic shift, lie in the uniqueness region of the kept one); no certificate written for ${n === 1 ? 'it' : 'them'} (${parts.join('; ')})`,
+    78,
+    20,
+  );
+}
+
 export function summaryLine(r: CertifyReport): string {
   const count = (s: OrbitOutcome['status']) => r.outcomes.filter((o) => o.status === s).length;
   const parts = [`${count('verified')} proven and re-verified by the independent checker`];
@@ -284,6 +359,7 @@ export function summaryLine(r: CertifyReport): string {
   if (count('not-proven') > 0) parts.push(`${count('not-proven')} not proven`);
   const notMinimal = r.outcomes.filter((o) => o.orbit !== undefined && o.orbit.minimalPeriod !== r.period).length;
   if (notMinimal > 0) parts.push(`${notMinimal} without a proof of minimal period ${r.period}`);
+  if (r.merged.length > 0) parts.push(`${r.merged.length} duplicate${r.merged.length === 1 ? '' : 's'} merged`);
   return `summary: ${parts.join('; ')}.` + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
 }
 

@@ -1,0 +1,129 @@
+/**
+ * Window and edge results → certificates of kinds `periodic-window` and `bifurcation-edge`
+ * (docs/windows.md). Every number is already an exact decimal string from the prover.
+ */
+import type { MapDefinition, ParamValue } from '../model/types.js';
+import { certificateHash } from './canonical.js';
+import { certificateMap, CertificateBuildError } from './build.js';
+import { PRODUCER_NAME, packageVersion } from './producer.js';
+import type {
+  AbsenceCertificateV1,
+  AbsenceLeafV1,
+  CertificateStability,
+  DecimalInterval,
+  EdgeCertificateV1,
+  EdgeKindV1,
+  WindowCertificateV1,
+  WindowPieceV1,
+} from './types.js';
+
+export interface WindowPieceData {
+  param: DecimalInterval;
+  centre: string[][];
+  boxes: DecimalInterval[][];
+  minimalPeriod: number | null;
+  stability: { class: CertificateStability['class']; multiplier?: DecimalInterval | null; trace?: DecimalInterval | null; determinant?: DecimalInterval | null };
+  joinedToNext: boolean;
+}
+
+export interface WindowData {
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  pieces: WindowPieceData[];
+  gaps: { param: DecimalInterval; reason: string }[];
+}
+
+function stab(s: WindowPieceData['stability']): CertificateStability {
+  const out: CertificateStability = { class: s.class };
+  if (s.multiplier) out.multiplier = [s.multiplier[0], s.multiplier[1]];
+  if (s.trace) out.trace = [s.trace[0], s.trace[1]];
+  if (s.determinant) out.determinant = [s.determinant[0], s.determinant[1]];
+  return out;
+}
+
+export function buildWindowCertificate(w: WindowData, def: MapDefinition, overrides: Record<string, ParamValue> = {}): WindowCertificateV1 {
+  if (!(w.parameter in def.params)) throw new CertificateBuildError(`no parameter ${w.parameter}`);
+  const pieces: WindowPieceV1[] = w.pieces.map((p) => {
+    if (p.boxes.length !== w.period) throw new CertificateBuildError(`piece has ${p.boxes.length} boxes for period ${w.period}`);
+    return {
+      param: [p.param[0], p.param[1]],
+      centre: p.centre.map((pt) => [...pt]),
+      boxes: p.boxes.map((pt) => pt.map((iv) => [iv[0], iv[1]] as DecimalInterval)),
+      minimalPeriod: p.minimalPeriod,
+      stability: stab(p.stability),
+      joinedToNext: p.joinedToNext,
+    };
+  });
+  const unsigned: Omit<WindowCertificateV1, 'sha256'> = {
+    format: 'orbitseal-certificate',
+    formatVersion: 1,
+    kind: 'periodic-window',
+    producer: { name: PRODUCER_NAME, version: packageVersion() },
+    map: certificateMap(def, { ...overrides, [w.parameter]: { kind: 'interval', lo: w.range[0], hi: w.range[1] } }),
+    period: w.period,
+    parameter: w.parameter,
+    range: [w.range[0], w.range[1]],
+    pieces,
+    gaps: w.gaps.map((g) => ({ param: [g.param[0], g.param[1]], reason: g.reason })),
+  };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
+
+export interface EdgeData {
+  kind: EdgeKindV1;
+  period: number;
+  parameter: string;
+  param: DecimalInterval;
+  boxes: DecimalInterval[];
+  centre: string[];
+  centreParam: string;
+  minimalPeriod: number | null;
+}
+
+export function buildEdgeCertificate(e: EdgeData, def: MapDefinition, range: DecimalInterval, overrides: Record<string, ParamValue> = {}): EdgeCertificateV1 {
+  if (def.state.length !== 1) throw new CertificateBuildError('edge certificates are for one-dimensional maps');
+  const unsigned: Omit<EdgeCertificateV1, 'sha256'> = {
+    format: 'orbitseal-certificate',
+    formatVersion: 1,
+    kind: 'bifurcation-edge',
+    producer: { name: PRODUCER_NAME, version: packageVersion() },
+    map: certificateMap(def, { ...overrides, [e.parameter]: { kind: 'interval', lo: range[0], hi: range[1] } }),
+    period: e.period,
+    parameter: e.parameter,
+    edge: e.kind,
+    param: [e.param[0], e.param[1]],
+    centre: { orbit: [...e.centre], param: e.centreParam },
+    boxes: e.boxes.map((b) => [b[0], b[1]] as DecimalInterval),
+    minimalPeriod: e.minimalPeriod,
+  };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
+
+export interface AbsenceData {
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  condition?: 'fold' | 'flip';
+  pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
+}
+
+export function buildAbsenceCertificate(a: AbsenceData, def: MapDefinition, overrides: Record<string, ParamValue> = {}): AbsenceCertificateV1 {
+  if (def.state.length !== 1) throw new CertificateBuildError('absence certificates are for one-dimensional maps');
+  const value: ParamValue = a.range[0] === a.range[1] ? { kind: 'exact', value: a.range[0] } : { kind: 'interval', lo: a.range[0], hi: a.range[1] };
+  const unsigned: Omit<AbsenceCertificateV1, 'sha256'> = {
+    format: 'orbitseal-certificate',
+    formatVersion: 1,
+    kind: 'periodic-absence',
+    producer: { name: PRODUCER_NAME, version: packageVersion() },
+    map: certificateMap(def, { ...overrides, [a.parameter]: value }),
+    period: a.period,
+    parameter: a.parameter,
+    range: [a.range[0], a.range[1]],
+    region: [a.region[0], a.region[1]],
+    ...(a.condition ? { condition: a.condition } : {}),
+    pieces: a.pieces.map((p) => ({ param: [p.param[0], p.param[1]], leaves: p.leaves.map((l) => JSON.parse(JSON.stringify(l)) as AbsenceLeafV1) })),
+  };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
