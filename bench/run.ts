@@ -3,7 +3,9 @@
  * as FAILED (exit code 1) and the others still run.
  */
 import { runCheckBench } from './check-bench.js';
+import { runCountBench } from './count-bench.js';
 import { runExprBench } from './expr-bench.js';
+import { runFlowBench } from './flow-bench.js';
 import { runIntervalBench } from './interval-bench.js';
 import { runLongBench } from './long-bench.js';
 import { runMathAccuracyBench } from './math-accuracy-bench.js';
@@ -24,8 +26,10 @@ const BENCHES: BenchSpec[] = [
   { title: 'candidate search', file: 'bench/search-bench.ts', run: runSearchBench },
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
+  { title: 'orbit counting', file: 'bench/count-bench.ts', run: runCountBench },
   { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
+  { title: 'flow integrator', file: 'bench/flow-bench.ts', run: runFlowBench },
 ];
 
 async function main(): Promise<void> {

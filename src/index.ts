@@ -64,6 +64,9 @@ export { compareDecimal, decimalOfDouble, encloseDecimal, isDecimalLiteral } fro
 // map language and models
 export { parseFormula } from './expr/parser.js';
 export { compileMap } from './model/compile.js';
+export { compileAnyMap, compileFlowMap, type FlowMap } from './flow/compile.js';
+export type { FlowSpec } from './model/types.js';
+export type { IntegratorOptions } from './flow/integrate.js';
 export { loadMapFile, parseMapSource } from './model/load.js';
 export { parseParamOverride, type ParamOverride } from './model/params.js';
 export { catalogueNames, getCatalogueMap, resolveMap } from './model/catalogue.js';

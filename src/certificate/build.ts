@@ -75,6 +75,16 @@ export function certificateMap(
     params[name] = paramToCertificate(value);
   }
   const step: Record<string, string> = {};
+  if (def.flow !== undefined) {
+    const f = def.flow;
+    const rhs: Record<string, string> = {};
+    for (const v of def.state) rhs[v] = f.rhs[v]!;
+    const flow: NonNullable<CertificateMap['flow']> = { rhs };
+    if (f.time !== undefined) flow.time = f.time;
+    if (f.duration !== undefined) flow.duration = f.duration;
+    if (f.section !== undefined) flow.section = { ...f.section };
+    return { title: def.title, state: [...def.state], params, step, flow };
+  }
   for (const v of def.state) step[v] = def.step[v]!;
   return { title: def.title, state: [...def.state], params, step };
 }
@@ -121,7 +131,7 @@ export function buildCertificate(
   const unsigned: UnsignedCertificateV1 = {
     format: CERTIFICATE_FORMAT,
     formatVersion: CERTIFICATE_FORMAT_VERSION,
-    kind: CERTIFICATE_KIND_PERIODIC_ORBIT,
+    kind: def.flow !== undefined ? 'flow-periodic-orbit' : CERTIFICATE_KIND_PERIODIC_ORBIT,
     producer: { name: PRODUCER_NAME, version: opts.producerVersion ?? packageVersion() },
     map: certificateMap(def, opts.overrides),
     period: p,

@@ -27,8 +27,18 @@ export interface CertificateMap {
   /** Variable order = vector order. */
   state: string[];
   params: Record<string, CertificateParam>;
-  /** State variable → formula source text (map language). */
+  /** State variable → formula source text (map language); empty for a flow map. */
   step: Record<string, string>;
+  /**
+   * For a map from a flow (kind "flow-periodic-orbit"): right-hand sides, time variable,
+   * duration or section, as source text. The checker does not re-verify flows yet.
+   */
+  flow?: {
+    rhs: Record<string, string>;
+    time?: string;
+    duration?: string;
+    section?: { surface: string; crossing: 'increasing' | 'decreasing' };
+  };
 }
 
 export interface CertificateOrbit {
@@ -74,7 +84,8 @@ export interface CertificateProducer {
 export interface CertificateV1 {
   format: 'orbitseal-certificate';
   formatVersion: 1;
-  kind: 'periodic-orbit';
+  /** 'flow-periodic-orbit': the map is a time-T or return map of an ODE (`map.flow`). */
+  kind: 'periodic-orbit' | 'flow-periodic-orbit';
   producer: CertificateProducer;
   map: CertificateMap;
   period: number;
@@ -87,6 +98,64 @@ export interface CertificateV1 {
 
 /** The document before its hash is attached. */
 export type UnsignedCertificateV1 = Omit<CertificateV1, 'sha256'>;
+
+// ---- count certificates (kind "periodic-orbit-count"; docs/certificate-format.md) ----
+
+export const CERTIFICATE_KIND_COUNT = 'periodic-orbit-count';
+export const CERTIFICATE_KIND_COUNT_PART = 'periodic-orbit-count-part';
+
+/**
+ * Characters of a cover code: a split of shooting component k (point ⌊k/n⌋, coordinate k mod n)
+ * is COUNT_ALPHABET[k]; '-' no zero, '*' exactly one zero, '?' undecided.
+ */
+export const COUNT_ALPHABET = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
+
+export interface CountClaims {
+  /** Distinct zeros of the shooting system with every point in the region (= points x with f^p(x) = x). */
+  zeros: number;
+  /** Orbits by minimal period d (d divides the period), as decimal-free integers keyed by d. */
+  orbitsByMinimalPeriod: Record<string, number>;
+  /** Boxes of the cover left undecided ('?'): the counts are then lower bounds. */
+  undecidedBoxes: number;
+  /** Zeros found whose membership in the region, identity or minimal period stayed undecided. */
+  undecidedZeros: number;
+}
+
+export interface CountPeriodEntry {
+  period: number;
+  /** Cover code of each piece (piece j = j-th box after `pieceDepth` halvings). */
+  pieces: string[];
+  claims: CountClaims;
+}
+
+export interface CountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-orbit-count';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  /** One interval per state variable; ends are exact binary fractions. */
+  region: DecimalInterval[];
+  pieceDepth: number;
+  counts: CountPeriodEntry[];
+  sha256: string;
+}
+
+/** A partial count certificate written by one shard; `merge` combines a complete set. */
+export interface CountPartV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-orbit-count-part';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  region: DecimalInterval[];
+  pieceDepth: number;
+  shard: { index: number; count: number };
+  periods: number[];
+  /** Per period: piece index → code and the zeros found there (prover data for the merge). */
+  parts: { period: number; pieces: Record<string, string>; zeros: Record<string, string[]>; undecided: Record<string, number> }[];
+  sha256: string;
+}
 
 // ---- kinds of issue 10: periodic windows and bifurcation edges (docs/windows.md) ----
 

@@ -52,7 +52,7 @@ import {
   MAX_UNKNOWNS,
   STRUCTURED_FROM_UNKNOWNS,
 } from '../certificate/limits.js';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
@@ -63,9 +63,10 @@ import { prepareCyclic2, type BoxTest } from './cyclic2.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
+import { checkCount, CountRejection } from './count.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -223,7 +224,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge" or "periodic-absence")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
   onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
@@ -488,6 +489,11 @@ function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { cla
   if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
   if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
   const digits = opts.digits ?? DEFAULT_DIGITS;
+  // as for orbits: no key the checker does not read (a person could read it as a claim)
+  const common = ['format', 'formatVersion', 'kind', 'producer', 'map', 'period', 'parameter', 'sha256'];
+  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : ['range', 'region', 'condition', 'pieces'];
+  onlyKeys(d, [...common, ...own], '$');
+  onlyKeys(obj(d.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
   if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
   else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
   else checkAbsence(d, digits, limits, reject);
@@ -495,6 +501,16 @@ function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { cla
 }
 
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
+  const top = typeof doc === 'object' && doc !== null && !Array.isArray(doc) ? (doc as Obj) : null;
+  if (top && top.format === CERTIFICATE_FORMAT && top.formatVersion === CERTIFICATE_FORMAT_VERSION && top.kind === CERTIFICATE_KIND_COUNT) {
+    // count certificates: checker/count.ts
+    const digits = opts.digits ?? DEFAULT_DIGITS;
+    if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+    onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'pieceDepth', 'counts', 'sha256'], '$');
+    onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
+    checkCount(top, digits, limits);
+    return { claims: ['count'], digits };
+  }
   const other = otherKind(doc, opts, limits);
   if (other) return other;
   const r = readCertificate(doc, opts, limits);
@@ -589,6 +605,7 @@ export function checkCertificate(input: string | unknown, opts: CheckOptions = {
     digits = r.digits;
     return done({ verdict: 'VERIFIED', claimsVerified: r.claims });
   } catch (e) {
+    if (e instanceof CountRejection) return done({ verdict: 'REJECTED', reason: e.message, path: e.path, claimsVerified: [] });
     if (e instanceof Refusal) return done({ verdict: e.verdict, reason: e.message, ...(e.path ? { path: e.path } : {}), claimsVerified: [] });
     if (e instanceof DomainViolation) return done({ verdict: 'REJECTED', reason: e.message, claimsVerified: [] });
     if (e instanceof RangeError) return done({ verdict: 'REJECTED', reason: `resource limit while checking: ${e.message}`, claimsVerified: [] });

@@ -8,7 +8,7 @@
  */
 import { Decimal } from 'decimal.js';
 import { ivCtx } from './elementary.js';
-import { Evaluator, FormulaError, parseFormula, type Node } from './formula.js';
+import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isInterior, isSubset, type Iv, type IvCtx } from './interval.js';
 import { certificateHash } from './json.js';
 import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
@@ -81,7 +81,7 @@ export function readMap(r: Reader, d: Obj): ParsedMap {
   const map = r.obj(d.map, '$.map');
   const state = r.arr(map.state, '$.map.state').map((s, i) => r.str(s, `$.map.state[${i}]`));
   if (state.length < 1 || state.length > r.limits.maxDimension) r.reject('$.map.state', 'state dimension out of range');
-  const ident = /^[\p{L}_][\p{L}\p{N}_]*$/u;
+  const ident = { test: isValidName }; // one identifier rule for prover and checker (ASCII, no pi/e/function names)
   const names = new Set<string>();
   for (const [i, s] of state.entries()) {
     if (!ident.test(s) || names.has(s)) r.reject(`$.map.state[${i}]`, `bad or repeated state name ${JSON.stringify(s)}`);

@@ -11,6 +11,7 @@ import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
 import { DEFAULT_AUDIT_DIR, DEFAULT_OUT_DIR, DEFAULT_REPORT_FILE } from './options.js';
 import type { CheckCommandOptions } from './commands/check.js';
+import type { CountCommandOptions, MergeCommandOptions } from './commands/count.js';
 import type { DemoCommandOptions } from './commands/demo.js';
 import type { FindCommandOptions } from './commands/find.js';
 import type { ProveCommandOptions } from './commands/prove.js';
@@ -207,6 +208,39 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .action((o: DemoCommandOptions) => {
       wantsJson = !!o.json;
       return run(async () => (await import('./commands/demo.js')).demoCommand(o, cwd))();
+    });
+
+  program
+    .command('count')
+    .description('count every periodic orbit of period P in the region: each orbit proven, the rest excluded; writes a count certificate')
+    .argument('<map>', 'catalogue name or map file (YAML/JSON)')
+    .requiredOption('--period <P>', 'period (orbits of lower periods dividing P are told apart)')
+    .option('--upto', 'count every period 1..P')
+    .option('--region <name=[lo,hi]>', 'region per state variable (exact decimals; repeatable; default the map region)', collect)
+    .option('--workers <K>', 'worker threads (default 1)')
+    .option('--shard <i/n>', 'run only shard i of n and write a partial certificate (combine with merge)')
+    .option('--pieces <k>', 'cut the work into 2^k pieces (default 6)')
+    .option('--out <file>', 'write the certificate (or partial certificate) here')
+    .option('--force', 'replace an existing file')
+    .option('--no-check', 'do not run the independent checker')
+    .option('--param <name=value>', PARAM_HELP, collect)
+    .option('--json', 'print one JSON document')
+    .action((map: string, o: CountCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/count.js')).countCommand(map, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('merge')
+    .description('combine the partial certificates of all shards of one count run into one count certificate')
+    .argument('<parts...>', 'partial certificate files (count --shard i/n --out FILE)')
+    .option('--out <file>', 'write the merged certificate here')
+    .option('--force', 'replace an existing file')
+    .option('--no-check', 'do not run the independent checker')
+    .option('--json', 'print one JSON document')
+    .action((parts: string[], o: MergeCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/count.js')).mergeCommand(parts, o, cwd))();
     });
 
   try {

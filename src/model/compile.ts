@@ -13,7 +13,7 @@ import { SecondOrderEvaluator } from '../expr/second-order.js';
 import { buildTape, type Tape } from '../expr/tape.js';
 import type { ParamOverride } from './params.js';
 import type { CompiledMap, MapDefinition, MapEvaluator, ParamValue } from './types.js';
-import { checkParamValue, validateDefinition } from './validate.js';
+import { checkParamValue, validateDefinition, type ValidatedMap } from './validate.js';
 
 export interface FormulaMap extends CompiledMap {
   /** The checked instruction list every evaluator runs. */
@@ -69,18 +69,40 @@ export function paramBounds(v: ParamValue): ParamEnclosure {
 }
 
 /**
- * Validates `def`, applies `overrides` (each must name an existing parameter: `unknown-parameter`
- * otherwise) and compiles. Throws `MapLanguageError` for user mistakes.
+ * Validates `def` and applies `overrides` (each must name an existing parameter:
+ * `unknown-parameter` otherwise). Shared by formula maps and flow maps (src/flow).
  */
-export function compileMap(def: MapDefinition, overrides?: ParamOverrides): FormulaMap {
+export function checkedWithOverrides(def: MapDefinition, overrides?: ParamOverrides): ValidatedMap {
   const checked = validateDefinition(def);
-  const definition = checked.definition;
   for (const { name, value } of overrideList(overrides)) {
     if (!checked.paramNames.includes(name)) {
       const names = checked.paramNames;
-      throw unknownParameter(name, definition.origin, names, names.length > 0 ? `its parameters are ${names.join(', ')}` : 'this map has no parameters');
+      throw unknownParameter(name, checked.definition.origin, names, names.length > 0 ? `its parameters are ${names.join(', ')}` : 'this map has no parameters');
     }
-    definition.params[name] = checkParamValue(value, `params.${name}`);
+    checked.definition.params[name] = checkParamValue(value, `params.${name}`);
+  }
+  return checked;
+}
+
+/**
+ * Validates `def`, applies `overrides` and compiles a formula map. Throws `MapLanguageError` for
+ * user mistakes, including a definition with a `flow` (compile those with src/flow's
+ * `compileAnyMap` or `compileFlowMap`).
+ */
+export function compileMap(def: MapDefinition, overrides?: ParamOverrides): FormulaMap {
+  const checked = checkedWithOverrides(def, overrides);
+  const definition = checked.definition;
+  if (definition.flow !== undefined) {
+    throw new MapLanguageError({
+      code: 'bad-value',
+      message: 'this map is defined by a flow, not by step formulas',
+      key: 'flow',
+      file: definition.origin,
+      line: 0,
+      column: 0,
+      text: 'flow',
+      hint: 'compile it with compileAnyMap or compileFlowMap (src/flow)',
+    });
   }
   const paramNames = checked.paramNames;
   const paramValues = paramNames.map((p) => definition.params[p]!);

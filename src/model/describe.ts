@@ -3,9 +3,12 @@
  * enclosures and the image of the region are given as exact decimals of the interval ends.
  */
 import { resetStatus, type IntervalArithmetic } from '../interval/arithmetic.js';
+import type { FlowSpec } from './types.js';
 import type { CompiledMap, ParamValue } from './types.js';
 
 export interface MapDescription {
+  /** For a flow map: formulas of `variables` are the right-hand sides; duration or section here. */
+  flow?: FlowSpec;
   title: string;
   origin?: string;
   description?: string;
@@ -50,12 +53,13 @@ export function describeMap<T>(compiled: CompiledMap, arith: IntervalArithmetic<
   const result: MapDescription = {
     title: def.title,
     dim: compiled.dim,
-    variables: def.state.map((s) => ({ name: s, formula: def.step[s]!, region: { lo: def.region[s]![0], hi: def.region[s]![1] } })),
+    variables: def.state.map((s) => ({ name: s, formula: def.flow !== undefined ? def.flow.rhs[s]! : def.step[s]!, region: { lo: def.region[s]![0], hi: def.region[s]![1] } })),
     params,
     image: def.state.map((s, i) => ({ name: s, ...imageEnds(arith, out[i]!) })),
     imageContinuous,
     imageAssumed,
   };
+  if (def.flow !== undefined) result.flow = def.flow;
   if (def.origin !== undefined) result.origin = def.origin;
   if (def.description !== undefined) result.description = def.description;
   return result;

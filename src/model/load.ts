@@ -9,10 +9,11 @@ import { basename } from 'node:path';
 import { isAlias, isMap, isScalar, isSeq, parseDocument, type Node, type Scalar } from 'yaml';
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { locate } from '../expr/lexer.js';
-import type { MapDefinition, ParamValue } from './types.js';
+import type { FlowSpec, MapDefinition, ParamValue } from './types.js';
 import { validateDefinition, type Locator, type Place } from './validate.js';
 
-const TOP_KEYS = ['title', 'description', 'state', 'params', 'step', 'region'];
+const TOP_KEYS = ['title', 'description', 'state', 'params', 'step', 'region', 'flow', 'time', 'duration', 'section'];
+const SECTION_KEYS = ['surface', 'crossing'];
 
 interface Entry {
   keyNode?: Node;
@@ -210,8 +211,9 @@ export function parseMapSource(text: string, file?: string): MapDefinition {
     }
   }
 
+  const isFlow = top.has('flow');
   const step: Record<string, string> = Object.create(null) as Record<string, string>;
-  for (const [name, keyNode, value] of mappingOf('step', true)) {
+  for (const [name, keyNode, value] of mappingOf('step', !isFlow)) {
     if (name in step) fail('duplicate-name', `step for '${name}' is given twice`, `step.${name}`, keyNode, 'remove the duplicate');
     step[name] = scalarString(value, `step.${name}`, 'a formula');
   }
@@ -222,8 +224,41 @@ export function parseMapSource(text: string, file?: string): MapDefinition {
     region[name] = decimalPair(value, `region.${name}`, 'a region');
   }
 
+  // flows (DESIGN.md §7): flow (right-hand sides), time, and duration or section
+  let flow: FlowSpec | undefined;
+  if (isFlow) {
+    const rhs: Record<string, string> = Object.create(null) as Record<string, string>;
+    for (const [name, keyNode, value] of mappingOf('flow', true)) {
+      if (name in rhs) fail('duplicate-name', `flow for '${name}' is given twice`, `flow.${name}`, keyNode, 'remove the duplicate');
+      rhs[name] = scalarString(value, `flow.${name}`, 'a formula');
+    }
+    flow = { rhs };
+    const timeEntry = top.get('time');
+    if (timeEntry !== undefined) flow.time = scalarString(timeEntry.value, 'time', 'the name of the time variable');
+    const durEntry = top.get('duration');
+    if (durEntry !== undefined) flow.duration = scalarString(durEntry.value, 'duration', 'a formula for the duration');
+    if (top.has('section')) {
+      const sec: Record<string, string> = {};
+      for (const [name, keyNode, value] of mappingOf('section', true)) {
+        if (!SECTION_KEYS.includes(name)) {
+          fail('unknown-key', `unknown key '${name}' under section`, `section.${name}`, keyNode, suggestionHint(name, SECTION_KEYS, 'the keys are surface and crossing'));
+        }
+        sec[name] = scalarString(value, `section.${name}`, name === 'surface' ? 'a formula' : 'increasing or decreasing');
+      }
+      if (sec.surface === undefined) fail('missing-key', "the section has no 'surface'", 'section', top.get('section')!.keyNode, 'add surface: <formula g>, the section being g = 0');
+      if (sec.crossing === undefined) fail('missing-key', "the section has no 'crossing'", 'section', top.get('section')!.keyNode, 'add crossing: increasing or crossing: decreasing');
+      flow.section = { surface: sec.surface!, crossing: sec.crossing as 'increasing' };
+    }
+  } else {
+    for (const k of ['time', 'duration', 'section']) {
+      const e = top.get(k);
+      if (e !== undefined) fail('unknown-key', `'${k}' belongs to a flow map, and this file has no 'flow'`, k, e.keyNode, "add a 'flow:' section with the right-hand sides, or remove this key");
+    }
+  }
+
   if (title === '' && file !== undefined) title = basename(file).replace(/\.(ya?ml|json)$/i, '');
   const def: MapDefinition = { title, state, params, step, region };
+  if (flow !== undefined) def.flow = flow;
   if (description !== undefined) def.description = description;
   if (file !== undefined) def.origin = file;
   return validateDefinition(def, loc).definition;

@@ -10,14 +10,32 @@ export type ParamValue =
   | { kind: 'exact'; value: string }
   | { kind: 'interval'; lo: string; hi: string };
 
+/**
+ * A map that comes from an ODE x' = F(t, x) (DESIGN.md §7): either the time-T map (`duration`)
+ * or the return map to the section {g = 0} crossed in the given direction (`section`).
+ * Formulas are source text, like `step`.
+ */
+export interface FlowSpec {
+  /** State variable → right-hand side of its ODE. */
+  rhs: Record<string, string>;
+  /** Name of the time variable (forced systems); absent for autonomous flows. */
+  time?: string;
+  /** Time-T map: the duration T, a formula of the parameters (e.g. 2*pi/omega). */
+  duration?: string;
+  /** Return map: surface formula g(state) and the sign of g' at the crossings counted. */
+  section?: { surface: string; crossing: 'increasing' | 'decreasing' };
+}
+
 export interface MapDefinition {
   title: string;
   /** State variable names, in vector order. */
   state: string[];
   /** Parameter name → exact value, as decimal source text (never via a double). */
   params: Record<string, ParamValue>;
-  /** State variable → formula source text of its next value. */
+  /** State variable → formula source text of its next value (empty for a flow map). */
   step: Record<string, string>;
+  /** Present when the map is a time-T or return map of an ODE; `step` is then empty. */
+  flow?: FlowSpec;
   /** State variable → [lo, hi] decimal strings: where searches and counts look. */
   region: Record<string, [string, string]>;
   /** Where it came from: a file path, or `catalogue:NAME`. */

@@ -10,6 +10,14 @@ import { checkNames, parseFormula } from '../expr/parser.js';
 import { compareDecimal } from '../interval/decimal-literal.js';
 import { normalizeDecimal } from './decimal.js';
 import type { MapDefinition, ParamValue } from './types.js';
+import type { Expr } from '../expr/ast.js';
+import type { FlowSpec } from './types.js';
+
+/**
+ * Functions a flow right-hand side may use: those with Taylor-series recurrences in src/flow
+ * (tan, atan, tanh, abs, min and max have none there yet).
+ */
+export const FLOW_FUNCTIONS: ReadonlySet<string> = new Set(['sqrt', 'exp', 'log', 'sin', 'cos', 'sinh', 'cosh', 'sqr', 'pow']);
 
 export interface Place {
   file?: string;
@@ -131,9 +139,121 @@ export function checkParamValue(v: ParamValue, key: string, locator?: Locator): 
 export interface ValidatedMap {
   /** The definition with canonical decimals, null-prototype records. */
   definition: MapDefinition;
-  /** Step formulas in state order. */
+  /** Step formulas in state order (for a flow: the right-hand sides). */
   formulas: ParsedFormula[];
   paramNames: string[];
+  /** For a flow map: the duration formula or the section surface, parsed. */
+  flow?: { duration?: ParsedFormula; surface?: ParsedFormula };
+}
+
+/** Parses `formula` at `key` allowing `names`; errors placed in the file. */
+function parseAt(formula: unknown, key: string, names: Set<string>, what: string, locator?: Locator): ParsedFormula {
+  if (typeof formula !== 'string') {
+    throw definitionError('bad-value', `${what} must be text`, key, String(formula), 'write a formula', locator);
+  }
+  try {
+    const parsed = parseFormula(formula);
+    checkNames(parsed, names);
+    return parsed;
+  } catch (e) {
+    if (e instanceof MapLanguageError) throw placeFormulaError(e, key, formula, locator);
+    throw e;
+  }
+}
+
+/** Refuses functions the flow integrator has no Taylor recurrence for, at their position. */
+function checkFlowFunctions(parsed: ParsedFormula, formula: string, key: string, locator?: Locator): void {
+  const pending: Expr[] = [parsed.tree];
+  while (pending.length > 0) {
+    const e = pending.pop()!;
+    if (e.kind === 'neg') pending.push(e.arg);
+    else if (e.kind === 'binary') pending.push(e.left, e.right);
+    else if (e.kind === 'call') {
+      if (!FLOW_FUNCTIONS.has(e.fn)) {
+        const p = locator?.formulaPlace(key, e.pos);
+        throw new MapLanguageError({
+          code: 'bad-value',
+          message: `'${e.fn}' is not supported in flow right-hand sides`,
+          key,
+          text: e.fn,
+          hint: `use + - * / ^ and ${[...FLOW_FUNCTIONS].join(', ')}`,
+          file: p?.file ?? locator?.file,
+          line: p?.line ?? 1,
+          column: p?.column ?? e.pos + 1,
+          sourceLine: p?.sourceLine ?? formula,
+          length: e.fn.length,
+        });
+      }
+      pending.push(...e.args);
+    }
+  }
+}
+
+/** Validates the flow part; returns the checked spec and the right-hand sides in state order. */
+function validateFlow(
+  flow: FlowSpec,
+  state: readonly string[],
+  paramNames: readonly string[],
+  locator?: Locator,
+): { spec: FlowSpec; formulas: ParsedFormula[]; duration?: ParsedFormula; surface?: ParsedFormula } {
+  const spec: FlowSpec = { rhs: Object.create(null) as Record<string, string> };
+  const names = new Set<string>([...state, ...paramNames]);
+  if (flow.time !== undefined) {
+    checkName(flow.time, 'time', 'time variable', locator);
+    if (names.has(flow.time)) {
+      throw definitionError('duplicate-name', `time variable '${flow.time}' is also a state variable or parameter`, 'time', flow.time,
+        'rename one of them', locator);
+    }
+    spec.time = flow.time;
+  }
+  const rhsNames = new Set<string>(names);
+  if (spec.time !== undefined) rhsNames.add(spec.time);
+  const entries = new Map(Object.entries(flow.rhs ?? {}));
+  for (const name of entries.keys()) {
+    if (!state.includes(name)) {
+      throw definitionError('unknown-key', `flow for '${name}', which is not a state variable`, `flow.${name}`, name,
+        suggestionHint(name, [...state], `the state variables are ${state.join(', ')}`), locator, 'key');
+    }
+  }
+  const formulas: ParsedFormula[] = [];
+  for (const name of state) {
+    const key = `flow.${name}`;
+    const f = entries.get(name);
+    if (f === undefined) {
+      throw definitionError('missing-step', `state variable '${name}' has no right-hand side`, 'flow', name,
+        `add ${name}: <formula for d${name}/dt> under flow`, locator, 'key');
+    }
+    const parsed = parseAt(f, key, rhsNames, 'a right-hand side', locator);
+    checkFlowFunctions(parsed, f, key, locator);
+    spec.rhs[name] = f;
+    formulas.push(parsed);
+  }
+  const hasDuration = flow.duration !== undefined;
+  const hasSection = flow.section !== undefined;
+  if (hasDuration === hasSection) {
+    throw definitionError(hasDuration ? 'bad-value' : 'missing-key',
+      hasDuration ? "a flow map has either 'duration' (time-T map) or 'section' (return map), not both" : "a flow map needs 'duration' (time-T map) or 'section' (return map)",
+      hasDuration ? 'section' : 'flow', '', 'add duration: <formula of the parameters> or a section: with surface and crossing', locator, 'key');
+  }
+  const out: { spec: FlowSpec; formulas: ParsedFormula[]; duration?: ParsedFormula; surface?: ParsedFormula } = { spec, formulas };
+  if (hasDuration) {
+    out.duration = parseAt(flow.duration, 'duration', new Set(paramNames), 'the duration', locator);
+    spec.duration = flow.duration!;
+  } else {
+    const sec = flow.section!;
+    if (spec.time !== undefined) {
+      throw definitionError('bad-value', 'a return map to a section needs an autonomous flow (no time variable)', 'section', '',
+        "drop 'time', or use 'duration' for a forced system", locator, 'key');
+    }
+    out.surface = parseAt(sec.surface, 'section.surface', names, 'the section surface', locator);
+    checkFlowFunctions(out.surface, sec.surface, 'section.surface', locator);
+    if (sec.crossing !== 'increasing' && sec.crossing !== 'decreasing') {
+      throw definitionError('bad-value', `crossing must be increasing or decreasing, not ${JSON.stringify(String(sec.crossing))}`, 'section.crossing',
+        String(sec.crossing), 'write crossing: increasing (g goes from - to +) or crossing: decreasing', locator);
+    }
+    spec.section = { surface: sec.surface, crossing: sec.crossing };
+  }
+  return out;
 }
 
 /**
@@ -174,7 +294,16 @@ export function validateDefinition(def: MapDefinition, locator?: Locator): Valid
 
   const allowed = new Set<string>([...def.state, ...paramNames]);
   const step: Record<string, string> = Object.create(null) as Record<string, string>;
-  const formulas: ParsedFormula[] = [];
+  let formulas: ParsedFormula[] = [];
+  let flowChecked: ReturnType<typeof validateFlow> | undefined;
+  if (def.flow !== undefined) {
+    if (Object.keys(def.step ?? {}).length > 0) {
+      throw definitionError('bad-value', "a map has either 'step' formulas or a 'flow', not both", 'step', '',
+        'remove one of them', locator, 'key');
+    }
+    flowChecked = validateFlow(def.flow, def.state, paramNames, locator);
+    formulas = flowChecked.formulas;
+  }
   const stepEntries = new Map(Object.entries(def.step ?? {}));
   for (const name of stepEntries.keys()) {
     if (!stateSet.has(name)) {
@@ -182,7 +311,7 @@ export function validateDefinition(def: MapDefinition, locator?: Locator): Valid
         suggestionHint(name, def.state, `the state variables are ${def.state.join(', ')}`), locator, 'key');
     }
   }
-  for (const name of def.state) {
+  for (const name of flowChecked ? [] : def.state) {
     const key = `step.${name}`;
     const formula = stepEntries.get(name);
     if (formula === undefined) {
@@ -240,5 +369,12 @@ export function validateDefinition(def: MapDefinition, locator?: Locator): Valid
   };
   if (def.origin !== undefined) definition.origin = def.origin;
   if (def.description !== undefined) definition.description = def.description;
+  if (flowChecked) {
+    definition.flow = flowChecked.spec;
+    const flow: { duration?: ParsedFormula; surface?: ParsedFormula } = {};
+    if (flowChecked.duration) flow.duration = flowChecked.duration;
+    if (flowChecked.surface) flow.surface = flowChecked.surface;
+    return { definition, formulas, paramNames, flow };
+  }
   return { definition, formulas, paramNames };
 }

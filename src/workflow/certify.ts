@@ -219,6 +219,9 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
 }
 
+/** Said for every orbit of a flow map: the independent checker cannot re-verify it yet. */
+export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle flows)';
+
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
@@ -356,7 +359,9 @@ export async function certifyOrbits(
       force: opts.force ?? false,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
-    if (checkOn) {
+    if (checkOn && def.flow !== undefined) {
+      outcome.reason = FLOW_NOT_REVERIFIED;
+    } else if (checkOn) {
       const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;
@@ -379,6 +384,7 @@ export async function certifyOrbits(
         notes.push('note: no proven box contains the --near point: this is the orbit nearest to it that was found, not an orbit through it');
       }
       if (moved > 1e-6) notes.push(`note: Newton moved the --start point by about ${moved.toPrecision(2)}; the proven orbit does not pass through the given point`);
+      if (outcome.reason !== undefined) notes.unshift(outcome.reason);
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
     outcomes.push(outcome);

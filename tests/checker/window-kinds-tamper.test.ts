@@ -24,6 +24,13 @@ function mutants(base: Doc, list: [string, (d: Doc) => void][]): void {
     d.period = d.period + 1;
     expect(checkCertificate(JSON.stringify(d)).reason).toMatch(/sha256/);
   });
+  // the schema forbids unknown keys; a note a person could read as a claim must not pass
+  // (issue 7's finding for orbit certificates, here for every kind) — common practice, no source
+  it('REJECTED: an unknown top-level key ("note": a claim the checker never read)', () => {
+    const d = clone(base);
+    d.note = 'all period-3 orbits for r in [3.8, 3.9]';
+    expect(checkCertificate(JSON.stringify(seal(d))).reason).toMatch(/unknown key "note"/);
+  });
   for (const [name, edit] of list) {
     it(`REJECTED: ${name}`, () => {
       const d = clone(base);

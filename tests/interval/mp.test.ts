@@ -392,14 +392,18 @@ describe('elementary functions against decimal.js at 3× the working digits', ()
           const digits = digitsForBits(bits);
           const O = Decimal.clone({ precision: 2 * digits + 10 }); // error ~1e−(2d+10), below tol
           const arg = name === 'log' || name === 'sqrt' ? exact(t).abs() : exact(t);
-          const r = B[name](B.fromDecimal(arg.toString()));
+          const a = B.fromDecimal(arg.toString());
+          const r = B[name](a);
           const v = oracleAt(O, name, new O(arg));
           const tol = v.abs().times(`1e-${2 * digits}`).plus(`1e-${2 * digits + 5}`);
           expect(contains(r, exact(v), exact(tol))).toBe(true);
-          // tight: a few units at this precision, unless the fromDecimal rounding of the argument
-          // is amplified (|x·f'(x)/f(x)| large near zeros of f): allow 10^4 units then
+          // tight: a few units at this precision plus the spread of f over the box `a` that
+          // fromDecimal rounded the argument to (large when |x·f'(x)/f(x)| is, near zeros and
+          // poles of f: FC_SEED=-855966943 gave tan(431.9373607…) at 24 bits, condition number
+          // 1.4e4, where that spread alone is 0.9999e4 units; tests/interval/tan-near-poles.test.ts)
           const w = exact(r.hi).minus(r.lo);
-          if (!v.isZero()) expect(w.lte(ulp(exact(v), digits).times('1e4'))).toBe(true);
+          const spread = exact(oracleAt(O, name, new O(a.hi)).minus(oracleAt(O, name, new O(a.lo))).abs());
+          if (!v.isZero()) expect(w.lte(ulp(exact(v), digits).times('1e4').plus(spread.times(2)))).toBe(true);
         },
       ),
       { numRuns: 30 },

@@ -1,7 +1,8 @@
 import { existsSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import type { CompiledMap, MapDefinition, ParamValue } from '../../model/types.js';
-import { compileMap, parseParamOverride, resolveMap } from '../../model/index.js';
+import { compileAnyMap } from '../../flow/compile.js';
+import { parseParamOverride, resolveMap } from '../../model/index.js';
 import { UsageError } from '../errors.js';
 
 export interface LoadedMap {
@@ -39,10 +40,14 @@ export function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd 
     overrides[o.name] = o.value;
   }
   const def = resolveMap(mapArgFrom(mapArg, cwd));
-  const compiled = compileMap(def, overrides);
-  const warnings = unusedParameters(def, [...new Set([...Object.keys(def.params), ...Object.keys(overrides)])])
-    .map((n) => `warning: parameter '${n}' is not used by any step formula${n in overrides ? ' (its --param changes nothing)' : ''}\n`)
-    .join('');
+  const compiled = compileAnyMap(def, overrides); // formula maps and flow maps alike
+  // only formula maps (a step formula for every variable); a flow map's parameters live in its ODE
+  const formulaMap = def.step !== undefined && def.state.every((v) => typeof def.step[v] === 'string');
+  const warnings = !formulaMap
+    ? ''
+    : unusedParameters(def, [...new Set([...Object.keys(def.params), ...Object.keys(overrides)])])
+        .map((n) => `warning: parameter '${n}' is not used by any step formula${n in overrides ? ' (its --param changes nothing)' : ''}\n`)
+        .join('');
   return { def, overrides, compiled, warnings };
 }
 

@@ -42,8 +42,15 @@ export function renderShow(d: MapDescription, overrides: Record<string, ParamVal
       ),
     );
   }
-  lines.push('', 'step:');
-  for (const v of d.variables) lines.push(`  ${v.name}' = ${v.formula}`);
+  if (d.flow !== undefined) {
+    lines.push('', 'flow (right-hand sides):');
+    for (const v of d.variables) lines.push(`  d${v.name}/d${d.flow.time ?? 't'} = ${v.formula}`);
+    if (d.flow.duration !== undefined) lines.push(`map: the time-T map, T = ${d.flow.duration}`);
+    if (d.flow.section !== undefined) lines.push(`map: the return map to ${d.flow.section.surface} = 0, crossed ${d.flow.section.crossing === 'increasing' ? 'increasing' : 'decreasing'}`);
+  } else {
+    lines.push('', 'step:');
+    for (const v of d.variables) lines.push(`  ${v.name}' = ${v.formula}`);
+  }
   lines.push('', 'region:');
   for (const v of d.variables) lines.push(`  ${v.name} ∈ [${v.region.lo}, ${v.region.hi}]`);
   lines.push('', 'enclosure of f(region): every image of a region point lies in these intervals:');

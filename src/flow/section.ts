@@ -1,0 +1,333 @@
+/**
+ * Return maps to a section {g = 0} crossed in one direction (s = +1: g increasing, −1:
+ * decreasing), DESIGN.md §7.
+ *
+ * Definition used (and proven) for a box X0: P(x) = φ(τ(x), x) where, after the start, the
+ * trajectory first LEAVES the section (every step whose a priori box meets {g = 0} has
+ * s·∇g·F > 0 on it, until s·g > 0 on the whole state box), then τ(x) is the first later time
+ * at which g crosses 0 with s·∇g·F > 0. Steps whose a priori box meets {g = 0} only with
+ * s·∇g·F < 0 are crossings the other way and are not counted; a step where ∇g·F may vanish
+ * on the part of the a priori box that meets the section is a possible tangency: smaller steps
+ * are tried, then the evaluation refuses.
+ * The crossing step: s·∇g·F > 0 on its a priori box makes t ↦ g(φ(t, x)) strictly increasing
+ * (times s) there, so times a < b with s·g(φ(a, X0)) < 0 and s·g(φ(b, X0)) > 0 (checked with
+ * probe steps) enclose the unique crossing; τ ∈ [a, b]. Then P(X0) ⊂ φ([a, b], X0) and
+ * DP = (I − F·∇gᵀ/(∇g·F))·Dφ evaluated over that box, refusing when ∇g·F may vanish there.
+ */
+import type { Arithmetic, IntervalArithmetic } from '../interval/arithmetic.js';
+import type { Dual, DualArithmetic } from '../expr/dual.js';
+import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
+import { createFloatArithmetic } from '../interval/float-arith.js';
+import type { Tape } from '../expr/tape.js';
+import { ValidatedFlow } from './integrate.js';
+import { SeriesEngine, type SeriesProgram } from './taylor.js';
+
+export interface SectionSpec {
+  /** The surface g over the state names, one output. */
+  readonly tape: Tape;
+  /** +1: counted when g increases through 0; −1: when it decreases. */
+  readonly sign: 1 | -1;
+}
+
+export type ReturnResult<T> = { ok: true; time: T } | { ok: false; reason: string };
+
+export class ReturnMapEvaluator<T> {
+  private readonly A: IntervalArithmetic<T>;
+  private readonly g: TapeEvaluator<T>;
+  private readonly rhs: SeriesEngine<T>;
+  private readonly n: number;
+  private readonly sgn: T;
+  private readonly gOut: T[];
+  private readonly gJac: T[];
+
+  constructor(readonly flow: ValidatedFlow<T>, section: SectionSpec, params: readonly ParamEnclosure[]) {
+    this.A = flow.A;
+    this.n = flow.n;
+    this.g = new TapeEvaluator<T>(section.tape, this.A, params);
+    this.rhs = new SeriesEngine<T>(flow.prog, this.A, params, 1);
+    this.sgn = this.A.fromNumber(section.sign);
+    this.gOut = [this.A.fromNumber(0)];
+    this.gJac = new Array<T>(this.n).fill(this.A.fromNumber(0));
+  }
+
+  /** s·g over a box. */
+  private sg(X: readonly T[]): T {
+    this.g.image(X, this.gOut);
+    return this.A.mul(this.sgn, this.gOut[0]!);
+  }
+
+  /** s·∇g·F over a box, with ∇g (into gJac) and F (returned in `f`). */
+  private sdg(X: readonly T[], f: T[]): T {
+    const A = this.A;
+    this.g.imageAndJacobian(X, this.gOut, this.gJac);
+    this.rhs.run(X, this.flow.time(), 0);
+    let s = A.fromNumber(0);
+    for (let i = 0; i < this.n; i++) {
+      f[i] = this.rhs.xs[i]![1]!;
+      s = A.add(s, A.mul(this.gJac[i]!, f[i]!));
+    }
+    return A.mul(this.sgn, s);
+  }
+
+  private pos(v: T): boolean {
+    return this.A.loDown(v) > 0;
+  }
+
+  private neg(v: T): boolean {
+    return this.A.hiUp(v) < 0;
+  }
+
+  private meetsZero(v: T): boolean {
+    return !this.pos(v) && !this.neg(v);
+  }
+
+  /**
+   * out ⊇ P(X0) and, when jac is given, jac ⊇ DP(X0) (row-major). On refusal the outputs are
+   * untouched and `status.continuous` may be false.
+   */
+  evaluate(X0: readonly T[], out: T[], jac: T[] | null): ReturnResult<T> {
+    const A = this.A;
+    const F = this.flow;
+    const n = this.n;
+    const f = new Array<T>(n);
+    F.start(X0, A.fromNumber(0), jac !== null);
+    try {
+      // phase A: leave the section
+      let left = false;
+      while (!left) {
+        if (F.overBudget()) return { ok: false, reason: 'too many steps before leaving the section' };
+        F.stepDown(F.proposeStep());
+        const Y = F.lastApriori;
+        if (this.meetsZero(this.sg(Y)) && !this.pos(this.sdg(Y, f))) {
+          return { ok: false, reason: 'the flow may be tangent to the section at the start (∇g·F not of the crossing sign)' };
+        }
+        if (this.pos(this.sg(F.box()))) left = true;
+      }
+      // phase B: travel until a step may hold a counted crossing
+      for (;;) {
+        if (F.overBudget()) return { ok: false, reason: 'too many steps before returning to the section' };
+        const before = F.save();
+        let h = F.proposeStep();
+        for (;;) {
+          F.restore(before);
+          h = F.stepDown(h);
+          const Y = F.lastApriori;
+          if (!this.meetsZero(this.sg(Y))) break; // no crossing at all in this step
+          const d = this.sdg(Y, f);
+          if (this.neg(d)) break; // only crossings the other way
+          if (this.pos(d)) {
+            // a counted crossing may lie in this step: locate it, from the step's start
+            F.restore(before);
+            const r = this.crossing(h, out, jac);
+            if (r !== null) return r;
+            F.restore(before);
+            F.stepDown(h); // no counted crossing in [0, h]: go on
+            break;
+          }
+          h *= 0.25;
+          if (h < 1e-7) return { ok: false, reason: `the flow may be tangent to the section near time ${A.midNumber(F.time()).toPrecision(8)}` };
+        }
+      }
+    } catch (e) {
+      if (ValidatedFlow.isRefusal(e)) return { ok: false, reason: e.message };
+      throw e;
+    }
+  }
+
+  /**
+   * From the current state, whose next step [0, h] has s·∇g·F > 0 on its a priori box: find
+   * a < b with s·g(φ(a)) < 0 < s·g(φ(b)) and write the result; null when [0, h] holds no
+   * counted crossing (s·g(φ(h)) < 0 certainly).
+   */
+  private crossing(h: number, out: T[], jac: T[] | null): ReturnResult<T> | null {
+    const A = this.A;
+    const F = this.flow;
+    const n = this.n;
+    const start = F.save();
+    const tStart = F.time();
+    const probe = (dt: T, hi: number): T[] | null => {
+      F.restore(start);
+      if (!F.step(dt, hi)) return null;
+      return F.box();
+    };
+    const endBox = probe(A.fromNumber(h), h);
+    if (endBox === null) throw ValidatedFlow.refusal('the a priori enclosure failed on a repeated step');
+    const gEnd = this.sg(endBox);
+    if (this.neg(gEnd)) return null;
+    // @heuristic crossing time of the centre: bisection on point probes
+    let lo = 0;
+    let hi = h;
+    for (let it = 0; it < 60 && hi - lo > 1e-15 * (1 + h); it++) {
+      const m = 0.5 * (lo + hi);
+      const bx = probe(A.fromNumber(m), m);
+      if (bx === null) break;
+      const v = A.midNumber(this.sg(bx));
+      if (v < 0) lo = m;
+      else hi = m;
+    }
+    const tStar = 0.5 * (lo + hi);
+    // widen a bracket around tStar until both ends are certain
+    let eps = Math.max(1e-14, 4 * (hi - lo));
+    for (let it = 0; it < 40; it++, eps *= 4) {
+      const a = Math.max(0, tStar - eps);
+      const b = Math.min(h, tStar + eps);
+      const ga = a === 0 ? null : probe(A.fromNumber(a), a);
+      const aOk = a === 0 ? false : ga !== null && this.neg(this.sg(ga));
+      if (!aOk && a > 0) continue;
+      if (a === 0) return { ok: false, reason: 'the crossing is too close to a step boundary to bracket' };
+      const gb = probe(A.fromNumber(b), b);
+      if (gb === null || !this.pos(this.sg(gb))) {
+        if (b === h) return { ok: false, reason: 'the crossing time could not be bracketed' };
+        continue;
+      }
+      // τ ∈ [a, b]: enclose φ over that time interval
+      const tau = A.hull(A.fromNumber(a), A.fromNumber(b));
+      const Xc = probe(tau, b);
+      if (Xc === null) return { ok: false, reason: 'the a priori enclosure failed on the crossing interval' };
+      const f = new Array<T>(n);
+      const d = this.sdg(Xc, f); // fills gJac = ∇g(Xc), f = F(Xc)
+      if (!this.pos(d)) return { ok: false, reason: 'the crossing may be tangent (∇g·F may vanish at the crossing)' };
+      for (let i = 0; i < n; i++) out[i] = Xc[i]!;
+      if (jac !== null) {
+        const V = F.jacobian();
+        // DP = V − F·(∇g·V)/(∇g·F)
+        const gf = A.mul(this.sgn, d); // ∇g·F with its sign back
+        for (let c = 0; c < n; c++) {
+          let gv = A.fromNumber(0);
+          for (let k = 0; k < n; k++) gv = A.add(gv, A.mul(this.gJac[k]!, V[k * n + c]!));
+          const q = A.div(gv, gf);
+          for (let i = 0; i < n; i++) jac[i * n + c] = A.sub(V[i * n + c]!, A.mul(f[i]!, q));
+        }
+      }
+      return { ok: true, time: A.add(tStart, tau) };
+    }
+    return { ok: false, reason: 'the crossing time could not be bracketed' };
+  }
+}
+
+/** @heuristic float return map (and DP when `jac`), same definition as the validated one. */
+export function floatReturn(
+  prog: SeriesProgram,
+  point: SeriesEngine<number>,
+  dual: SeriesEngine<Dual<number>>,
+  FD: DualArithmetic<number>,
+  section: SectionSpec,
+  params: readonly ParamEnclosure[],
+  opts: { order: number; tolerance: number; maxStep?: number },
+  x0: ArrayLike<number>,
+  out: Float64Array,
+  jac: Float64Array | null,
+): void {
+  void prog;
+  const n = out.length;
+  const Fa: Arithmetic<number> = createFloatArithmetic();
+  const g = new TapeEvaluator<number>(section.tape, Fa, params);
+  const gv = [0];
+  const gj = new Array<number>(n).fill(0);
+  const s = section.sign;
+  const sg = (x: readonly number[]): number => {
+    g.image(x, gv);
+    return s * gv[0]!;
+  };
+  const P = opts.order;
+  let x = Array.from({ length: n }, (_, i) => x0[i]!);
+  let V = jac ? identityF(n) : null;
+  let left = false;
+  let steps = 0;
+  while (steps++ < 20_000) {
+    let h = stepSize(point, x, P, opts);
+    const x1 = x.slice();
+    let V1 = V;
+    if (V1) V1 = dualStep(dual, FD, x1, h, P, V1);
+    else {
+      point.run(x1, 0, P);
+      for (let i = 0; i < n; i++) x1[i] = polyAt(point.xs[i]!, h, P);
+    }
+    const g0 = sg(x);
+    const g1 = sg(x1);
+    if (!left) {
+      if (g1 > 0) left = true;
+      x = x1;
+      V = V1;
+      continue;
+    }
+    if (g0 <= 0 && g1 > 0) {
+      // Newton/bisection on the step polynomial for the crossing time
+      point.run(x, 0, P);
+      let lo = 0;
+      let hi = h;
+      for (let it = 0; it < 80; it++) {
+        const m = 0.5 * (lo + hi);
+        const xm = Array.from({ length: n }, (_, i) => polyAt(point.xs[i]!, m, P));
+        if (sg(xm) < 0) lo = m;
+        else hi = m;
+      }
+      h = 0.5 * (lo + hi);
+      if (V) {
+        V = dualStep(dual, FD, x, h, P, V);
+      } else for (let i = 0; i < n; i++) x[i] = polyAt(point.xs[i]!, h, P);
+      for (let i = 0; i < n; i++) out[i] = x[i]!;
+      if (jac && V) {
+        g.imageAndJacobian(x, gv, gj);
+        point.run(x, 0, 0);
+        const f = Array.from({ length: n }, (_, i) => point.xs[i]![1]!);
+        let gf = 0;
+        for (let i = 0; i < n; i++) gf += gj[i]! * f[i]!;
+        for (let c = 0; c < n; c++) {
+          let gvc = 0;
+          for (let k = 0; k < n; k++) gvc += gj[k]! * V[k * n + c]!;
+          for (let i = 0; i < n; i++) jac[i * n + c] = V[i * n + c]! - (f[i]! * gvc) / gf;
+        }
+      }
+      return;
+    }
+    x = x1;
+    V = V1;
+  }
+  out.fill(Number.NaN);
+  if (jac) jac.fill(Number.NaN);
+}
+
+function identityF(n: number): Float64Array {
+  const I = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) I[i * n + i] = 1;
+  return I;
+}
+
+function polyAt(c: readonly number[], h: number, order: number): number {
+  let s = c[order]!;
+  for (let k = order - 1; k >= 0; k--) s = s * h + c[k]!;
+  return s;
+}
+
+function stepSize(point: SeriesEngine<number>, x: readonly number[], P: number, opts: { tolerance: number; maxStep?: number }): number {
+  point.run(x, 0, P - 1);
+  let h = opts.maxStep ?? 1;
+  let scale = 1;
+  for (const v of x) scale = Math.max(scale, Math.abs(v));
+  for (const k of [P - 1, P]) {
+    let m = 0;
+    for (let i = 0; i < x.length; i++) m = Math.max(m, Math.abs(point.xs[i]![k]!));
+    if (m > 0 && Number.isFinite(m)) h = Math.min(h, 0.8 * Math.pow((opts.tolerance * scale) / m, 1 / k));
+  }
+  return Number.isFinite(h) && h > 0 ? h : 1e-6;
+}
+
+function dualStep(dual: SeriesEngine<Dual<number>>, FD: DualArithmetic<number>, x: number[], h: number, order: number, V: Float64Array): Float64Array {
+  const n = x.length;
+  const xd = x.map((v, i) => FD.variable(v, i));
+  dual.run(xd, FD.lift(0), order);
+  const J = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    const c = dual.xs[i]!;
+    x[i] = polyAt(c.map((q) => q.v), h, order);
+    for (let j = 0; j < n; j++) J[i * n + j] = polyAt(c.map((q) => q.d[j] ?? 0), h, order);
+  }
+  const out = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+    let s2 = 0;
+    for (let k = 0; k < n; k++) s2 += J[i * n + k]! * V[k * n + j]!;
+    out[i * n + j] = s2;
+  }
+  return out;
+}

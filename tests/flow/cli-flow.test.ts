@@ -1,0 +1,30 @@
+/**
+ * `prove` on a flow map through the CLI: proven by the fast engine, honestly labelled as not
+ * re-verified (the checker does not handle flows yet), exit 1.
+ */
+import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { afterAll, expect, it } from 'vitest';
+import { runCli } from '../../src/cli/program.js';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
+const scratch = mkdtempSync(join(tmpdir(), 'orbitseal-flow-cli-'));
+afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+
+it('proves the vibrating-bracket example, never says re-verified, exits 1', async () => {
+  const r = await runCli(['prove', join(root, 'examples/flows/vibrating-bracket.yaml'), '--period', '1', '--start', '-1.27,0.62', '--out', scratch]);
+  expect(r.exitCode).toBe(1);
+  expect(r.stdout).toMatch(/not re-verified/);
+  expect(r.stdout).not.toMatch(/proven, re-verified/);
+  const files = readdirSync(scratch);
+  expect(files).toHaveLength(1);
+  const cert = JSON.parse(readFileSync(join(scratch, files[0]!), 'utf8')) as { kind: string; map: { flow: { duration: string } } };
+  expect(cert.kind).toBe('flow-periodic-orbit');
+  expect(cert.map.flow.duration).toBe('2*pi/omega');
+  // the checker refuses a kind it does not handle rather than verifying a different map
+  const c = await runCli(['check', join(scratch, files[0]!)]);
+  expect(c.exitCode).toBe(1);
+  expect(c.stdout).toMatch(/REJECTED/);
+}, 30_000);
