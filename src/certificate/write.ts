@@ -12,6 +12,7 @@ import {
   linkSync,
   mkdirSync,
   openSync,
+  readFileSync,
   renameSync,
   statSync,
   unlinkSync,
@@ -131,9 +132,22 @@ export function mapSlug(title: string): string {
   return slug === '' ? 'map' : slug;
 }
 
-/** `<map-slug>-p<period>-<k>.json`, k >= 1 numbering the orbits of one run. */
-export function certificateFileName(title: string, period: number, k: number): string {
-  return `${mapSlug(title)}-p${period}-${k}.json`;
+/**
+ * `<map-slug>[-<name><value>…]-p<period>-<k>.json`, k >= 1 numbering the orbits of one run. The
+ * parameters given on the command line (`params`, name → "3.83" or [lo, hi]) are part of the
+ * name, so runs at r = 3.83 and r = 3.9 do not collide: `logistic-map-r3.83-p3-1.json`.
+ */
+export function certificateFileName(title: string, period: number, k: number, params: Record<string, string | readonly [string, string]> = {}): string {
+  const tag = Object.keys(params)
+    .sort()
+    .map((name) => {
+      const v = params[name]!;
+      const text = typeof v === 'string' ? v : `${v[0]}_${v[1]}`;
+      return `-${name}${text}`.replace(/[^A-Za-z0-9._+-]/g, '_');
+    })
+    .join('')
+    .slice(0, 80);
+  return `${mapSlug(title)}${tag}-p${period}-${k}.json`;
 }
 
 /** The bytes written for a certificate: pretty JSON (2 spaces) and a final newline. */
@@ -204,7 +218,11 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
       'file already exists; not overwritten',
       'pass --force to replace it, or choose another folder with --out',
     );
-  if (!opts.force && existsSync(target)) throw existsError();
+  if (!opts.force && existsSync(target)) {
+    // the same bytes again (an identical re-run) are not an error: nothing to write
+    if (sameContent(target, text)) return target;
+    throw existsError();
+  }
   ensureDirectory(dir);
   const tmp = join(dir, `.${basename(target)}.${process.pid}.${randomBytes(6).toString('hex')}.tmp`);
   try {
@@ -247,6 +265,14 @@ export function writeFileAtomic(path: string, text: string, opts: WriteOptions =
       `cannot write file: ${describeFsError(e)}`,
       'check that the folder exists or can be created and is writable, or choose another with --out',
     );
+  }
+}
+
+function sameContent(path: string, text: string): boolean {
+  try {
+    return statSync(path).size === Buffer.byteLength(text, 'utf8') && readFileSync(path, 'utf8') === text;
+  } catch {
+    return false;
   }
 }
 

@@ -129,6 +129,8 @@ export interface CheckOptions {
   /** Working precision in significant digits (default 30); hints may raise it. */
   digits?: number;
   limits?: Partial<CheckLimits>;
+  /** checkPaths: called after each file with its report, its 1-based index and the file count. */
+  onReport?: (report: CheckReport, index: number, total: number) => void;
 }
 
 export const DEFAULT_DIGITS = 30;
@@ -646,7 +648,13 @@ function entryKind(ent: Dirent): string {
  */
 export function checkPathsReporting(paths: string[], opts: CheckOptions = {}): { reports: CheckReport[]; skipped: SkippedEntry[] } {
   const { targets, skipped } = listCheckTargets(paths, opts);
-  return { reports: targets.map((t) => (typeof t === 'string' ? checkFile(t, opts) : t)), skipped };
+  // the list of work first, then the checks: a progress display knows the total before the slow part
+  const reports = targets.map((t, i) => {
+    const report = typeof t === 'string' ? checkFile(t, opts) : t;
+    opts.onReport?.(report, i + 1, targets.length);
+    return report;
+  });
+  return { reports, skipped };
 }
 
 /**

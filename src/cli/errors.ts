@@ -58,7 +58,11 @@ export class UsageError extends UserError {
 export function errorResult(e: unknown, json = false): CommandResult {
   if (e instanceof UserError) {
     const stderr = e.render() + '\n';
-    if (json) return { stdout: JSON.stringify({ error: e.toJSON() }, null, 2) + '\n', stderr, exitCode: EXIT_USAGE };
+    if (json) {
+      // the --json envelope of cli/json.ts (written out here: errors.ts is loaded before any command)
+      const doc = { kind: 'error', formatVersion: 1, error: e.toJSON(), exitCode: EXIT_USAGE };
+      return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr, exitCode: EXIT_USAGE };
+    }
     return { stdout: '', stderr, exitCode: EXIT_USAGE };
   }
   const what = e instanceof Error ? `${e.name}: ${e.message}` : String(e);

@@ -6,6 +6,7 @@
  */
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult } from './errors.js';
+import { terminalWidth } from './terminal.js';
 
 // `orbitseal ... | head` closes the pipe early: that is not an error.
 for (const stream of [process.stdout, process.stderr]) {
@@ -24,8 +25,9 @@ async function main(): Promise<void> {
       result = { stdout: `${packageVersion()}\n`, stderr: '', exitCode: 0 as const };
     } else {
       const progress = process.stderr.isTTY ? (text: string) => void process.stderr.write(text) : undefined;
+      const columns = terminalWidth(process.env.COLUMNS, process.stdout.isTTY ? process.stdout.columns : undefined);
       const { runCli } = await import('./program.js');
-      result = await runCli(argv, progress ? { progress } : {});
+      result = await runCli(argv, progress ? { progress, columns } : { columns });
     }
   } catch (e) {
     result = errorResult(e);

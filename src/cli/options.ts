@@ -8,6 +8,9 @@ export const DEFAULT_OUT_DIR = 'orbitseal-proofs';
 /** Default folder of `audit` certificates (one sub-folder per claim). */
 export const DEFAULT_AUDIT_DIR = 'orbitseal-audit';
 
+/** Where `orbitseal report` writes its page unless --out says otherwise. */
+export const DEFAULT_REPORT_FILE = 'orbitseal-report.html';
+
 /** How one whole-number option is checked and explained. */
 export interface WholeNumberSpec {
   /** The option, e.g. `--period`. */

@@ -9,13 +9,15 @@
 import { Command, CommanderError } from 'commander';
 import { packageVersion } from '../certificate/producer.js';
 import { errorResult, EXIT_USAGE, type CommandResult } from './errors.js';
-import { DEFAULT_AUDIT_DIR, DEFAULT_OUT_DIR } from './options.js';
+import { DEFAULT_AUDIT_DIR, DEFAULT_OUT_DIR, DEFAULT_REPORT_FILE } from './options.js';
 import type { CheckCommandOptions } from './commands/check.js';
 import type { CountCommandOptions, MergeCommandOptions } from './commands/count.js';
 import type { DemoCommandOptions } from './commands/demo.js';
 import type { FindCommandOptions } from './commands/find.js';
 import type { ProveCommandOptions } from './commands/prove.js';
 import type { ShowCommandOptions } from './commands/show.js';
+import type { ReportCommandOptions } from './commands/report.js';
+import type { CatalogueCommandOptions } from './commands/catalogue.js';
 import type { WindowCommandOptions } from './commands/window.js';
 import type { EdgesCommandOptions } from './commands/edges.js';
 import type { AuditCommandOptions } from './commands/audit.js';
@@ -30,6 +32,8 @@ export interface RunContext {
   cwd?: string;
   /** Live progress of long commands (main.ts passes stderr only when it is a terminal). */
   progress?: (text: string) => void;
+  /** Terminal width to fit human-readable output to (main.ts: COLUMNS, the terminal, else 80); default no limit. */
+  columns?: number;
 }
 
 const EFFORT_HELP = 'multiply the float search effort by E (default 1; it already grows with the period and the map\'s expansion)';
@@ -41,6 +45,7 @@ const PARAM_HELP = 'override a parameter: name=decimal or name=[lo,hi] (exact de
  */
 export async function runCli(argv: readonly string[], ctx: RunContext = {}): Promise<CommandResult> {
   const cwd = ctx.cwd ?? process.cwd();
+  const columns = ctx.columns ?? Infinity;
   let out = '';
   let err = '';
   let result: CommandResult | undefined;
@@ -61,7 +66,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .addHelpText(
       'after',
       '\nExit codes: 0 all proven / verified, 1 something not proven or rejected, 2 bad input, 3 internal error.\n' +
-        'Examples:\n  orbitseal demo\n  orbitseal show logistic --param r=3.83\n  orbitseal prove logistic --period 3 --param r=3.83\n  orbitseal check orbitseal-proofs/',
+        'Examples:\n  orbitseal demo\n  orbitseal show logistic --param r=3.83\n  orbitseal prove logistic --period 3 --param r=3.83\n  orbitseal check orbitseal-proofs/\n  orbitseal report orbitseal-proofs/ --out report.html',
     );
 
   program
@@ -72,7 +77,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ShowCommandOptions) => {
       wantsJson = !!o.json;
-      return run(async () => (await import('./commands/show.js')).showCommand(map, o, cwd))();
+      return run(async () => (await import('./commands/show.js')).showCommand(map, { ...o, columns }, cwd))();
     });
 
   program
@@ -83,10 +88,11 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--near <x,y,...>', 'look near this point')
     .option('--effort <E>', EFFORT_HELP)
     .option('--param <name=value>', PARAM_HELP, collect)
+    .option('--limit <N>', 'list at most N candidates (the number found is always given)')
     .option('--json', 'print one JSON document')
     .action((map: string, o: FindCommandOptions) => {
       wantsJson = !!o.json;
-      return run(async () => (await import('./commands/find.js')).findCommand(map, o, cwd))();
+      return run(async () => (await import('./commands/find.js')).findCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
   program
@@ -110,7 +116,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
       wantsJson = !!o.json;
-      return run(async () => (await import('./commands/prove.js')).proveCommand(map, o, cwd, ctx.progress))();
+      return run(async () => (await import('./commands/prove.js')).proveCommand(map, { ...o, columns }, cwd, ctx.progress))();
     });
 
   const RANGE_HELP = 'parameter: name=decimal or name=[lo,hi] (exactly one as a range; repeatable)';
@@ -170,7 +176,30 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--json', 'print one JSON document')
     .action((paths: string[], o: CheckCommandOptions) => {
       wantsJson = !!o.json;
-      return run(async () => (await import('./commands/check.js')).checkCommand(paths, o, cwd))();
+      return run(async () => (await import('./commands/check.js')).checkCommand(paths, { ...o, columns }, cwd, ctx.progress))();
+    });
+
+  program
+    .command('report')
+    .description('re-check certificates and write one self-contained HTML page with their claims and plots (no network, no script)')
+    .argument('<paths...>', 'certificate files or folders (all *.json inside)')
+    .option('--out <file>', 'the HTML file to write (replaced if it exists)', DEFAULT_REPORT_FILE)
+    .option('--svg <dir>', 'also write every plot as a stand-alone SVG file into this folder')
+    .option('--title <text>', 'page title')
+    .option('--digits <D>', 'decimal digits for the checker')
+    .option('--json', 'print one JSON document')
+    .action((paths: string[], o: ReportCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/report.js')).reportCommand(paths, o, cwd, ctx.progress))();
+    });
+
+  program
+    .command('catalogue')
+    .description('list the published maps that can be named instead of a map file: formulas, default parameters, region, source')
+    .option('--json', 'print one JSON document')
+    .action((o: CatalogueCommandOptions) => {
+      wantsJson = !!o.json;
+      return run(async () => (await import('./commands/catalogue.js')).catalogueCommand(o))();
     });
 
   program
@@ -232,6 +261,10 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
   if (result === undefined) {
     // no command given
     return { stdout: '', stderr: program.helpInformation(), exitCode: EXIT_USAGE };
+  }
+  if (!wantsJson && Number.isFinite(columns)) {
+    const { fitText } = await import('./format.js');
+    result = { ...result, stdout: fitText(result.stdout, columns) };
   }
   return result;
 }

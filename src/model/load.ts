@@ -278,7 +278,7 @@ export function loadMapFile(path: string): MapDefinition {
       line: 0,
       column: 0,
       text: path,
-      hint: 'check the path, or give a catalogue name (see the catalogue list)',
+      hint: 'check the path, or give a catalogue name (orbitseal catalogue lists them)',
     });
   }
   return parseMapSource(text, path);

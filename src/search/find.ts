@@ -83,9 +83,14 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
     attempt: () => {
       const result = newton.refine(ctx.buf, maxIterations);
       if (result !== null) collector.offer(result);
+      // progress counts Newton attempts (a seed that escapes before Newton is not counted)
+      if (progress) progress(Math.min(++attempts, seedTotal), seedTotal);
     },
     done: () => collector.candidates.length >= enough,
   };
+  const progress = opts.progress;
+  const seedTotal = (grid > 0 ? Math.pow(grid, n) : 0) + randomSeedCount + attractorSeedCount;
+  let attempts = 0;
   // the orbit through `near` itself first: Newton from near, f(near), …, f^{p−1}(near)
   if (opts.near !== undefined) iteratedSeed(ctx, opts.near);
   // attractor seeds first when stopping early on a long shooting vector (what finds such orbits)
@@ -94,6 +99,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   gridSeeds(ctx, grid);
   randomSeeds(ctx, randomSeedCount, rng);
   if (!attractorFirst) attractorSeeds(ctx, attractorSeedCount, rng, collector.tolerance());
+  if (progress) progress(seedTotal, seedTotal);
   return collector.sorted();
 }
 

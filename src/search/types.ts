@@ -61,6 +61,8 @@ export interface SearchOptions {
    * interval value the float search uses the double nearest its midpoint.
    */
   params?: ParamOverrides;
+  /** Called after every seed (`done` of `total` seeds) — for a progress display; must be cheap. */
+  progress?: (done: number, total: number) => void;
 }
 
 /** Options for refining one shooting vector. */

@@ -3,12 +3,13 @@
  * one certificate per proven orbit, and re-verify each written file with the independent checker.
  * The CLI's `prove` and `demo` commands are this function plus rendering and an exit code.
  */
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 import { Decimal } from 'decimal.js';
 import { buildCertificate } from '../certificate/build.js';
 import { renameSync, unlinkSync } from 'node:fs';
 import { OrbitIdentifier } from '../prove/identify.js';
-import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertificate } from '../certificate/write.js';
+import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertificate, writeFileAtomic } from '../certificate/write.js';
+import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
@@ -59,6 +60,8 @@ export interface CertifyOptions {
    * candidate order on this thread, so files and report are those of a one-worker run.
    */
   workers?: number;
+  /** Called after each seed of the float search (`done` of `total`); for a progress display. */
+  searchProgress?: (done: number, total: number) => void;
   /** Folder for certificates; created when missing. */
   outDir: string;
   /** Replace existing certificate files. */
@@ -69,6 +72,26 @@ export interface CertifyOptions {
   /** Digits for the checker (default: the certificate's hint). */
   digits?: number;
   overrides?: Record<string, ParamValue>;
+  /**
+   * The command line to record in the run manifest (`<certificate stem>.run` in `outDir`, JSON),
+   * rewritten after every orbit so an interrupted run leaves a record of what it finished.
+   * Absent: no manifest.
+   */
+  manifestCommand?: string;
+}
+
+/** The run manifest: what was asked, by which version, and which orbits finished. */
+export interface RunManifest {
+  kind: 'run-manifest';
+  formatVersion: 1;
+  command: string;
+  producer: string;
+  map: { title: string; state: string[]; params: Record<string, string | [string, string]> };
+  period: number;
+  candidatesFound: number;
+  toAttempt: number;
+  finished: { index: number; status: OrbitStatus; certificate?: string }[];
+  complete: boolean;
 }
 
 /**
@@ -212,6 +235,13 @@ export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
+/** Command-line parameter values as text for file names (exact "3.83" or [lo, hi]). */
+function overrideTexts(o: Record<string, ParamValue> | undefined): Record<string, string | [string, string]> {
+  const out: Record<string, string | [string, string]> = {};
+  for (const [k, v] of Object.entries(o ?? {})) out[k] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
+  return out;
+}
+
 /**
  * Rename a certificate the checker rejected to `<name>.rejected.json` (atomic rename, replacing an
  * older set-aside file of that name); if the rename fails, remove it. Returns the new path, or
@@ -272,11 +302,11 @@ export async function certifyOrbits(
         searchStopped = true;
       } else {
         // 3. the general search, every candidate sorted by distance (exact nearest-first order)
-        found = findCandidates(compiled, { period: opts.period, near, ...effort });
+        found = findCandidates(compiled, { period: opts.period, near, ...effort, ...(opts.searchProgress ? { progress: opts.searchProgress } : {}) });
       }
     }
   } else {
-    found = findCandidates(compiled, { period: opts.period, ...effort, ...(limit !== null ? { enough: limit } : {}) });
+    found = findCandidates(compiled, { period: opts.period, ...effort, ...(limit !== null ? { enough: limit } : {}), ...(opts.searchProgress ? { progress: opts.searchProgress } : {}) });
     searchStopped = limit !== null && found.length >= limit;
   }
   const order = opts.near ? candidatesByDistance(found, opts.near) : found.map((_, i) => i);
@@ -288,6 +318,28 @@ export async function certifyOrbits(
   const keptIndex: number[] = [];
   let identityUndecided = false;
   let k = 0;
+  const manifestPath = opts.manifestCommand !== undefined
+    ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, overrideTexts(opts.overrides)).replace(/-0\.json$/, '.run'))
+    : undefined;
+  const writeManifest = (complete: boolean): void => {
+    if (manifestPath === undefined) return;
+    const params: Record<string, string | [string, string]> = {};
+    for (const [name, v] of Object.entries({ ...def.params, ...(opts.overrides ?? {}) })) params[name] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
+    const manifest: RunManifest = {
+      kind: 'run-manifest',
+      formatVersion: 1,
+      command: opts.manifestCommand!,
+      producer: `${PRODUCER_NAME} ${packageVersion()}`,
+      map: { title: def.title, state: [...def.state], params },
+      period: opts.period,
+      candidatesFound: found.length,
+      toAttempt: chosen.length,
+      finished: outcomes.map((o) => ({ index: o.index, status: o.status, ...(o.certificatePath ? { certificate: basename(o.certificatePath) } : {}) })),
+      complete,
+    };
+    writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + '\n', { force: true });
+  };
+  writeManifest(false);
   let attemptNo = 0;
   // all cores: the proofs (the parallel part) first, in the pool; progress counts across workers
   const workers = Math.min(opts.workers ?? defaultWorkerCount(), chosen.length);
@@ -314,6 +366,7 @@ export async function certifyOrbits(
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
       outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
+      writeManifest(false);
       continue;
     }
     const orbit = verdict.orbit;
@@ -328,7 +381,7 @@ export async function certifyOrbits(
     if (sameness !== '') identityUndecided = true;
     const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
     k++;
-    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k)), cert, {
+    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
       force: opts.force ?? false,
       dirSync,
     });
@@ -362,10 +415,12 @@ export async function certifyOrbits(
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
     outcomes.push(outcome);
+    writeManifest(false);
   }
   } finally {
     dirSync.flush();
   }
+  writeManifest(true);
 
   // Asked for minimal period P: a solution of the period-P system whose boxes overlap (a fixed
   // point, a shorter cycle run several times) is proven as stated, but not what was asked for.

@@ -15,6 +15,8 @@ export interface CheckManyOptions {
   workers?: number;
   /** Finished certificates so far, across workers. */
   progress?: (done: number, total: number) => void;
+  /** Each finished report as it arrives, with the count of finished certificates so far. */
+  onReport?: (report: CheckReport, done: number, total: number) => void;
 }
 
 const CHECK_TASK = { module: new URL('./check-task.js', import.meta.url).href, exportName: 'checkTask' };
@@ -33,6 +35,7 @@ export async function checkManyReporting(paths: string[], opts: CheckManyOptions
   const checked = await runPool<CheckTask, CheckReport>(CHECK_TASK, tasks, {
     ...(opts.workers !== undefined ? { workers: opts.workers } : {}),
     ...(opts.progress !== undefined ? { progress: opts.progress } : {}),
+    ...(opts.onReport !== undefined ? { onResult: opts.onReport } : {}),
   });
   let k = 0;
   return { reports: targets.map((t) => (typeof t === 'string' ? checked[k++]! : t)), skipped };

@@ -27,11 +27,13 @@ export interface TaskFunction {
   readonly exportName: string;
 }
 
-export interface PoolOptions {
+export interface PoolOptions<O = unknown> {
   /** Number of workers (default: the number of cores). 1 = inline on the calling thread. */
   workers?: number;
   /** Called after each finished task with the count finished so far and the total. */
   progress?: (done: number, total: number) => void;
+  /** Each finished result as it arrives (in finishing order), with the count so far; for streaming displays. */
+  onResult?: (result: O, done: number, total: number) => void;
 }
 
 export { MAX_WORKERS };
@@ -94,15 +96,17 @@ async function loadTask<I, O>(fn: TaskFunction): Promise<(task: I) => O | Promis
 }
 
 /** Runs `fn` on every task; results in task order. */
-export async function runPool<I, O>(fn: TaskFunction, tasks: readonly I[], opts: PoolOptions = {}): Promise<O[]> {
+export async function runPool<I, O>(fn: TaskFunction, tasks: readonly I[], opts: PoolOptions<O> = {}): Promise<O[]> {
   const total = tasks.length;
   const want = Math.max(1, Math.min(opts.workers ?? defaultWorkerCount(), MAX_WORKERS, total));
   if (want <= 1 || !workersAvailable()) {
     const f = await loadTask<I, O>(fn);
     const out: O[] = [];
     for (let i = 0; i < total; i++) {
-      out.push(await f(tasks[i]!));
+      const result = await f(tasks[i]!);
+      out.push(result);
       opts.progress?.(i + 1, total);
+      opts.onResult?.(result, i + 1, total);
     }
     return out;
   }
@@ -134,6 +138,7 @@ export async function runPool<I, O>(fn: TaskFunction, tasks: readonly I[], opts:
             results[m.index] = m.result as O;
             done++;
             opts.progress?.(done, total);
+            opts.onResult?.(m.result as O, done, total);
           } else if (failure === null || m.index < failure.index) {
             failure = { index: m.index, error: m.error! };
           }

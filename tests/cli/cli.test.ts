@@ -74,7 +74,7 @@ describe('orbitseal show', () => {
     const r = await runCli(['show', 'henon', '--json']);
     expect(r.exitCode).toBe(0);
     const doc = JSON.parse(r.stdout);
-    expect(doc.variables.map((v: { name: string }) => v.name)).toEqual(['x', 'y']);
+    expect(doc.map.variables.map((v: { name: string }) => v.name)).toEqual(['x', 'y']);
   });
 });
 

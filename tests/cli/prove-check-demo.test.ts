@@ -30,16 +30,18 @@ describe('orbitseal prove', () => {
     expect(r.stdout).toMatch(/attracting/);
     expect(r.stdout).toMatch(/repelling/);
     expect(r.stdout).toMatch(/summary: 2 proven and re-verified by the independent checker\./);
-    expect(readdirSync(out).sort()).toEqual(['logistic-map-p3-1.json', 'logistic-map-p3-2.json']);
-    const cert = JSON.parse(readFileSync(join(out, 'logistic-map-p3-1.json'), 'utf8'));
+    expect(readdirSync(out).sort()).toEqual(['logistic-map-r3.83-p3-1.json', 'logistic-map-r3.83-p3-2.json', 'logistic-map-r3.83-p3.run']);
+    const cert = JSON.parse(readFileSync(join(out, 'logistic-map-r3.83-p3-1.json'), 'utf8'));
     expect(cert.map.params).toEqual({ r: '3.83' });
     expect(cert.sha256).toBe(certificateHash(cert));
   });
 
-  it('the same command again refuses to overwrite (exit 2, says --force); --force replaces', async () => {
+  it('a different existing file is never overwritten (exit 2, says --force); --force replaces', async () => {
     const out = fresh('again');
     const argv = ['prove', 'logistic', '--period', '1', '--param', 'r=2.5', '--out', out];
     expect((await runCli(argv)).exitCode).toBe(0);
+    expect((await runCli(argv)).exitCode).toBe(0); // an identical re-run is not an error (issue 13)
+    writeFileSync(join(out, 'logistic-map-r2.5-p1-1.json'), '{}\n');
     const again = await runCli(argv);
     expect(again.exitCode).toBe(2);
     expect(again.stderr).toMatch(/cert-exists[\s\S]*already exists[\s\S]*--force/);
@@ -93,7 +95,7 @@ describe('orbitseal prove', () => {
     expect(r.stdout).toMatch(/^1 +not proven/m);
     expect(r.stdout).not.toMatch(/proven, re-verified|fast engine only/);
     expect(r.stdout).toMatch(/summary: 0 proven and re-verified by the independent checker; 1 not proven\./);
-    expect(readdirSync(out)).toEqual([]);
+    expect(readdirSync(out).filter((f) => f.endsWith('.json'))).toEqual([]); // no certificate (only the run manifest)
   });
 
   it('no candidate → nothing proven, exit 1 (logistic r = 3.8 has no period-3 orbit: window opens at 1 + √8; arXiv:1204.0546)', async () => {
@@ -109,11 +111,11 @@ describe('orbitseal check', () => {
     expect((await runCli(['prove', 'logistic', '--period', '2', '--param', 'r=3.2', '--out', out, '--no-check'])).exitCode).toBe(0);
     const ok = await runCli(['check', out]);
     expect(ok.exitCode).toBe(0);
-    expect(ok.stdout).toMatch(/^VERIFIED\s+.*logistic-map-p2-1\.json\s+re-verified: existence/m);
+    expect(ok.stdout).toMatch(/^VERIFIED\s+.*logistic-map-r3\.2-p2-1\.json\s+re-verified: existence/m);
     expect(ok.stdout).toMatch(/1 verified, 0 rejected, 0 unreadable/);
 
     // change r from 3.2 to 3.3 and re-hash: the mathematics must catch it, not the hash
-    const file = join(out, 'logistic-map-p2-1.json');
+    const file = join(out, 'logistic-map-r3.2-p2-1.json');
     const cert = JSON.parse(readFileSync(file, 'utf8'));
     cert.map.params.r = '3.3';
     cert.sha256 = certificateHash(cert);

@@ -64,8 +64,10 @@ describe('prove --limit / --all and progress', () => {
     expect(doc.orbits.length).toBe(20);
     expect(doc.unattempted).toBe(0);
     expect(doc.limit).toBe(20);
-    expect(progress[0]).toBe('\rproving 1/20 …');
-    expect(progress).toContain('\rproving 20/20 …');
+    // cli/progress.ts: the search (seeds), then the proofs (orbits), on one overwritten line
+    const clear = '\r\x1b[K';
+    expect(progress[0]!.startsWith(clear) && /^search {2}1\/\d+ seeds/.test(progress[0]!.slice(clear.length))).toBe(true);
+    expect(progress.some((t) => t.startsWith(clear) && /^prove {2}\d+\/20 orbits/.test(t.slice(clear.length)))).toBe(true);
     expect(progress[progress.length - 1]).toBe('\r\x1b[K');
     expect(r.stderr).toBe('');
   }, 30_000);
@@ -112,7 +114,7 @@ describe('prove --start: one exact point, iterated in multiprecision (precision-
     expect(r.exitCode).toBe(0);
     expect(r.stdout).toMatch(/candidate \(not a proof\): the 50 points from --start/);
     const row = r.stdout.split('\n').find((l) => l.startsWith('1  proven, re-verified'))!;
-    const bits = /\s(\d+)\s+\S+logistic-map-p50-1\.json$/.exec(row)!;
+    const bits = /\s(\d+)\s+\S+logistic-map-r4-p50-1\.json$/.exec(row)!;
     expect(Number(bits[1])).toBeGreaterThan(53);
   }, 60_000);
 

@@ -25,7 +25,7 @@ describe('README.md', () => {
     expect(commands.length).toBeGreaterThanOrEqual(6);
     for (const argv of commands) {
       const args = argv[0] === 'demo' ? [...argv, '--out', join(cwd, 'demo')] : argv;
-      const r = await runCli(args, { cwd });
+      const r = await runCli(args, { cwd, columns: 80 }); // README samples are 80-column output
       const expected = argv.includes('bad.yaml') ? 2 : 0;
       expect(r.exitCode, `orbitseal ${argv.join(' ')}\n${r.stderr}`).toBe(expected);
       // the first line shown in the README is the first line printed

@@ -26,7 +26,9 @@ function valueImports(file: string): string[] {
 
 describe('startup imports', () => {
   it('main.ts loads only the version reader and the error renderer before parsing argv', () => {
-    expect(valueImports('main.ts').sort()).toEqual(['../certificate/producer.js', './errors.js', './program.js']);
+    // ./terminal.js (the terminal width) imports nothing
+    expect(valueImports('main.ts').sort()).toEqual(['../certificate/producer.js', './errors.js', './program.js', './terminal.js']);
+    expect(readFileSync(join(cli, 'terminal.ts'), 'utf8')).not.toMatch(/^import /m);
     // ./program.js is imported dynamically (after the --version fast path)
     expect(readFileSync(join(cli, 'main.ts'), 'utf8')).toMatch(/await import\('\.\/program\.js'\)/);
     expect(readFileSync(join(cli, 'main.ts'), 'utf8')).not.toMatch(/^import .*'\.\/program\.js'/m);

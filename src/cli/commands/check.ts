@@ -2,7 +2,9 @@ import { existsSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
+import { jsonResult } from '../json.js';
 import { parseDigits, parseMaxWork, parseWorkers } from '../options.js';
+import { createProgress, type ProgressSink } from '../progress.js';
 import type { CheckReport, SkippedEntry } from '../../checker/index.js';
 import { checkManyReporting } from '../../workflow/check.js';
 
@@ -11,9 +13,11 @@ export interface CheckCommandOptions {
   maxWork?: string;
   workers?: string;
   json?: boolean;
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
-export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd = process.cwd(), progressSink?: ProgressSink): Promise<CommandResult> {
   if (paths.length === 0) {
     throw new UsageError('no-input', 'arguments', '', 'no certificate file or folder given', 'write e.g. orbitseal check proofs/');
   }
@@ -21,16 +25,21 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   const workers = o.workers !== undefined ? parseWorkers(o.workers) : undefined;
   const maxWork = o.maxWork !== undefined ? parseMaxWork(o.maxWork) : undefined;
   const absolute = paths.map((p) => resolve(cwd, p));
-  absolute.forEach((p, i) => {
-    if (!existsSync(p)) {
-      throw new UsageError('no-input', 'arguments', paths[i]!, 'no such file or folder', 'give certificate files (*.json) or folders holding them');
-    }
-  });
+  // a missing path among others is reported as UNREADABLE and the rest is still checked
+  if (!absolute.some((p) => existsSync(p))) {
+    throw new UsageError('no-input', 'arguments', paths.join(' '), 'no such file or folder', 'give certificate files (*.json) or folders holding them');
+  }
+  const bar = createProgress(progressSink, o.columns);
+  // certificates are checked on all cores (workflow/check.ts); progress counts across workers
   const checked = await checkManyReporting(absolute, {
     ...(digits ? { digits } : {}),
     ...(maxWork ? { limits: { maxWork } } : {}),
     ...(workers !== undefined ? { workers } : {}),
+    ...(progressSink
+      ? { onReport: (r: CheckReport, done: number, total: number) => bar.update('check', done, total, 'certificates', `${r.verdict} ${r.file ? shownPath(r.file, cwd) : ''}`) }
+      : {}),
   });
+  bar.finish();
   const reports = checked.reports.map(clarifyReport);
   const skipped = checked.skipped;
   if (reports.length === 0) {
@@ -38,20 +47,27 @@ export async function checkCommand(paths: string[], o: CheckCommandOptions, cwd 
   }
   const exitCode: ExitCode = reports.every((r) => r.verdict === 'VERIFIED') ? EXIT_OK : EXIT_NOT_PROVEN;
   if (o.json) {
-    return { stdout: JSON.stringify({ reports, skipped, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+    return jsonResult('check', { items: reports, reports, skipped }, exitCode);
   }
-  return { stdout: renderCheck(reports, cwd) + renderSkipped(skipped, cwd) + '\n', stderr: '', exitCode };
+  return { stdout: renderCheck(reports, cwd, o.columns) + renderSkipped(skipped, cwd) + '\n', stderr: '', exitCode };
 }
 
 /**
- * A JSON file without a "format" key is no certificate at all: say so instead of the checker's
- * "unknown format undefined". (Rewrites only that one reason; verdicts are never changed.)
+ * A JSON file without a "format" key is no certificate at all: UNREADABLE with a plain reason
+ * instead of the checker's REJECTED "unknown format undefined" (never turns anything VERIFIED).
  */
 export function clarifyReport(r: CheckReport): CheckReport {
   if (r.verdict !== 'VERIFIED' && r.path === '$.format' && /^unknown format undefined\b/.test(r.reason ?? '')) {
-    return { ...r, reason: "not an orbitseal certificate (no 'format' key)" };
+    // JSON, but no certificate at all: unreadable as a certificate (README "check")
+    return { ...r, verdict: 'UNREADABLE', reason: "not an orbitseal certificate (no 'format' key)" };
   }
   return r;
+}
+
+/** A path relative to `cwd` when it lies below it, else as given. */
+function shownPath(file: string, cwd: string): string {
+  const rel = relative(cwd, file);
+  return rel && !rel.startsWith('..') ? rel : file;
 }
 
 /** What a folder held that was not read, one line each ('' when nothing was skipped). */
@@ -62,7 +78,7 @@ export function renderSkipped(skipped: readonly SkippedEntry[], cwd: string): st
 }
 
 /** Pure renderer: one row per certificate, then a count line. */
-export function renderCheck(reports: readonly CheckReport[], cwd: string): string {
+export function renderCheck(reports: readonly CheckReport[], cwd: string, width = Infinity): string {
   const rows = reports.map((r) => {
     const file = r.file ? relative(cwd, r.file) || r.file : '(input)';
     const detail =
@@ -74,7 +90,7 @@ export function renderCheck(reports: readonly CheckReport[], cwd: string): strin
   });
   const n = (v: CheckReport['verdict']) => reports.filter((r) => r.verdict === v).length;
   return [
-    table(['verdict', 'certificate', 'detail', 'time'], rows),
+    table(['verdict', 'certificate', 'detail', 'time'], rows, width),
     '',
     `${n('VERIFIED')} verified, ${n('REJECTED')} rejected, ${n('UNREADABLE')} unreadable (independent checker, decimal interval arithmetic)`,
   ].join('\n');

@@ -3,11 +3,20 @@ import { isAbsolute, resolve } from 'node:path';
 import type { CompiledMap, MapDefinition, ParamValue } from '../../model/types.js';
 import { compileAnyMap } from '../../flow/compile.js';
 import { parseParamOverride, resolveMap } from '../../model/index.js';
+import { UsageError } from '../errors.js';
 
 export interface LoadedMap {
   def: MapDefinition;
   overrides: Record<string, ParamValue>;
   compiled: CompiledMap;
+  /** Lines for stderr, e.g. a parameter that no step formula uses (each ends with a newline). */
+  warnings: string;
+}
+
+/** Parameters that no step formula mentions (a likely typo, or a --param that changes nothing). */
+export function unusedParameters(def: MapDefinition, names: readonly string[]): string[] {
+  const formulas = def.state.map((s) => def.step[s] ?? '').join('\n');
+  return names.filter((n) => !new RegExp(`(^|[^A-Za-z0-9_])${n.replace(/[^A-Za-z0-9_]/g, '')}([^A-Za-z0-9_(]|$)`).test(formulas));
 }
 
 /**
@@ -25,11 +34,21 @@ export function loadMap(mapArg: string, paramTexts: readonly string[] = [], cwd 
   const overrides: Record<string, ParamValue> = {};
   for (const text of paramTexts) {
     const o = parseParamOverride(text);
+    if (o.name in overrides) {
+      throw new UsageError('bad-param-override', '--param', text, `parameter '${o.name}' is given twice`, `give each parameter once (the other value was ${paramText(overrides[o.name]!)})`);
+    }
     overrides[o.name] = o.value;
   }
   const def = resolveMap(mapArgFrom(mapArg, cwd));
   const compiled = compileAnyMap(def, overrides); // formula maps and flow maps alike
-  return { def, overrides, compiled };
+  // only formula maps (a step formula for every variable); a flow map's parameters live in its ODE
+  const formulaMap = def.step !== undefined && def.state.every((v) => typeof def.step[v] === 'string');
+  const warnings = !formulaMap
+    ? ''
+    : unusedParameters(def, [...new Set([...Object.keys(def.params), ...Object.keys(overrides)])])
+        .map((n) => `warning: parameter '${n}' is not used by any step formula${n in overrides ? ' (its --param changes nothing)' : ''}\n`)
+        .join('');
+  return { def, overrides, compiled, warnings };
 }
 
 /** Parameter value as text: "3.83" or "[3.83, 3.84]". */

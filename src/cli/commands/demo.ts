@@ -1,6 +1,7 @@
 import { resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
-import { formatInterval } from '../format.js';
+import { formatInterval, formatModulus } from '../format.js';
+import { jsonResult } from '../json.js';
 import { statusLabel, type OrbitOutcome } from '../../workflow/certify.js';
 import { runDemo, type DemoReport } from '../../workflow/demo.js';
 import { DEMO_SCENARIOS } from '../../workflow/demo-scenario.js';
@@ -18,6 +19,7 @@ export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): P
       outDir: d.outDir,
       runs: d.runs.map((r) => ({
         scenario: r.scenario,
+        map: r.report.map,
         story: r.story,
         period: r.report.period,
         orbits: r.report.outcomes.map((x) => ({
@@ -29,9 +31,8 @@ export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): P
           reason: x.reason,
         })),
       })),
-      exitCode,
     };
-    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
+    return jsonResult('demo', doc, exitCode);
   }
   return { stdout: renderDemo(d) + '\n', stderr: '', exitCode };
 }
@@ -45,7 +46,7 @@ function orbitText(o: OrbitOutcome, state: string[]): string {
   const stab = s.multiplier
     ? `multiplier Λ ∈ ${formatInterval(s.multiplier, 6)}`
     : s.eigenvalueModuli
-      ? `|eigenvalues| ∈ ${s.eigenvalueModuli.map((m) => formatInterval(m, 6)).join(', ')}`
+      ? `|eigenvalues| ∈ ${s.eigenvalueModuli.map((m) => formatModulus(m, 6)).join(', ')}`
       : '';
   return `${state.length === 1 ? state[0] + ' ∈ ' : `(${state.join(', ')}) ∈ `}${pts.join(' → ')}${stab ? `, ${stab}` : ''}, ${s.class}`;
 }

@@ -1,8 +1,10 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
-import { parseEffort, parseNear, parsePeriod } from '../options.js';
+import { jsonResult } from '../json.js';
+import { parseEffort, parseLimit, parseNear, parsePeriod } from '../options.js';
 import { findCandidates, type Candidate } from '../../search/index.js';
-import { loadMap, paramsLine } from './common.js';
+import { loadMap, paramsLine, paramText } from './common.js';
+import { createProgress, type ProgressSink } from '../progress.js';
 
 export interface FindCommandOptions {
   period: string;
@@ -10,6 +12,10 @@ export interface FindCommandOptions {
   json?: boolean;
   param?: string[];
   effort?: string;
+  /** At most this many candidates in the output (the count found is always given). */
+  limit?: string;
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
 /** The human table lists at most this many candidates; `--json` has them all. */
@@ -17,26 +23,38 @@ export const MAX_CANDIDATES_SHOWN = 50;
 
 export const CANDIDATES_LABEL = 'candidates (float search, not proofs)';
 
-export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
+export async function findCommand(mapArg: string, o: FindCommandOptions, cwd = process.cwd(), progressSink?: ProgressSink): Promise<CommandResult> {
   const period = parsePeriod(o.period);
-  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const effort = o.effort !== undefined ? { effort: parseEffort(o.effort) } : {};
-  const cands = findCandidates(compiled, near ? { period, near, ...effort } : { period, ...effort });
+  const bar = createProgress(progressSink, o.columns);
+  const cands = findCandidates(compiled, {
+    period,
+    ...(near ? { near } : {}),
+    ...effort,
+    ...(progressSink ? { progress: (done: number, total: number) => bar.update('search', done, total, 'seeds') } : {}),
+  });
+  bar.finish();
   const exitCode = cands.length > 0 ? EXIT_OK : EXIT_NOT_PROVEN;
+  const limit = o.limit !== undefined ? parseLimit(o.limit) : undefined;
+  const listed = limit !== undefined ? cands.slice(0, limit) : cands;
   if (o.json) {
+    const params: Record<string, string> = {};
+    for (const [k, v] of Object.entries({ ...def.params, ...overrides })) params[k] = paramText(v);
     const doc = {
-      kind: 'candidates',
       note: 'float search results, not proofs',
-      map: { title: def.title, state: def.state, origin: def.origin },
+      map: { title: def.title, state: def.state, ...(def.origin !== undefined ? { origin: def.origin } : {}), params },
       period,
-      candidates: cands,
-      exitCode,
+      found: cands.length,
+      ...(limit !== undefined ? { limit } : {}),
+      // multipliers always as {re, im} (a real one has im = 0)
+      candidates: listed.map((c) => ({ ...c, multipliers: c.multipliers.map((m) => (typeof m === 'number' ? { re: m, im: 0 } : m)) })),
     };
-    return { stdout: JSON.stringify(doc, null, 2) + '\n', stderr: '', exitCode };
+    return jsonResult('candidates', doc, exitCode, warnings);
   }
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderFind(cands, header, def.state, period) + '\n', stderr: '', exitCode };
+  return { stdout: renderFind(listed, header, def.state, period, o.columns, cands.length) + '\n', stderr: warnings, exitCode };
 }
 
 function multiplierText(m: unknown): string {
@@ -49,8 +67,8 @@ function multiplierText(m: unknown): string {
 }
 
 /** Pure renderer for `find`. Numbers here are floats, labelled with ≈. */
-export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number): string {
-  const lines = [header, `${CANDIDATES_LABEL}: ${cands.length} of minimal period ${period}`];
+export function renderFind(cands: readonly Candidate[], header: string, state: string[], period: number, width = Infinity, found = cands.length): string {
+  const lines = [header, `${CANDIDATES_LABEL}: ${found} of minimal period ${period}${found > cands.length ? ` (--limit: the first ${cands.length} listed)` : ''}`];
   if (cands.length === 0) {
     lines.push('none found in the region. hint: try --near x,... or another --period.');
     return lines.join('\n');
@@ -69,7 +87,7 @@ export function renderFind(cands: readonly Candidate[], header: string, state: s
     c.residual.toExponential(1),
   ]);
   lines.push('');
-  lines.push(table(['#', `points (${state.join(', ')})`, 'multipliers ≈', 'stability', 'residual'], rows));
+  lines.push(table(['#', `points (${state.join(', ')})`, 'multipliers ≈', 'stability', 'residual'], rows, width));
   if (cands.length > listed.length) lines.push(`… ${cands.length - listed.length} more; use --json for all`);
   lines.push('');
   lines.push('These are float approximations. Run `orbitseal prove` to turn them into proofs.');

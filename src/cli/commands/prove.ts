@@ -1,11 +1,14 @@
 import { relative, resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
-import { formatInterval, shortDown, table, widthUp } from '../format.js';
+import { formatInterval, formatModulus, shortDown, table, widthUp } from '../format.js';
 import { nearDecimals, parseDigits, parseEffort, parseLimit, parseMaxBits, parseNear, parsePeriod, parseStart, parseWorkers } from '../options.js';
 import { readPointsFile } from '../points.js';
 import { certifyOrbits, DEFAULT_PROVE_LIMIT, statusLabel, type CertifyReport, type OrbitOutcome } from '../../workflow/certify.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
-import { loadMap, paramsLine } from './common.js';
+import { loadMap, paramsLine, paramText } from './common.js';
+import { jsonResult } from '../json.js';
+import type { MapDefinition, ParamValue } from '../../model/types.js';
+import { createProgress, type ProgressSink } from '../progress.js';
 import { MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS } from '../../certificate/limits.js';
 
 /**
@@ -44,10 +47,11 @@ export interface ProveCommandOptions {
   start?: string;
   points?: string;
   effort?: string;
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
-/** Where live progress goes (e.g. stderr when it is a terminal); absent: no progress. */
-export type ProgressSink = (text: string) => void;
+export type { ProgressSink } from '../progress.js';
 
 export { DEFAULT_OUT_DIR } from '../options.js';
 
@@ -75,20 +79,14 @@ export async function proveCommand(
     throw new UsageError('bad-option', '--points', o.points, '--points proves exactly the orbit given by the file; --start, --near, --limit and --all do not apply', 'leave out --start, --near, --limit and --all');
   }
   const effort = o.effort !== undefined ? parseEffort(o.effort) : undefined;
-  const { def, overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  const { def, overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   checkProblemSize(period, compiled.dim);
   const near = o.near !== undefined ? parseNear(o.near, compiled.dim) : undefined;
   const nearExact = o.near !== undefined ? nearDecimals(o.near) : null;
   const startPoint = o.start !== undefined ? parseStart(o.start, compiled.dim) : undefined;
   const pointsFromFile = o.points !== undefined ? readPointsFile(resolve(cwd, o.points), o.points, period, compiled.dim) : undefined;
   const outDir = resolve(cwd, o.out ?? DEFAULT_OUT_DIR);
-  let shown = false;
-  const progress = progressSink
-    ? (attempt: number, total: number) => {
-        shown = true;
-        progressSink(`\rproving ${attempt}/${total} …`);
-      }
-    : undefined;
+  const bar = createProgress(progressSink, o.columns);
   const report = await certifyOrbits(def, compiled, {
     period,
     outDir,
@@ -98,7 +96,12 @@ export async function proveCommand(
     ...(nearExact ? { nearExact } : {}),
     ...(effort !== undefined ? { effort } : {}),
     ...(limit !== undefined ? { limit } : {}),
-    ...(progress ? { progress } : {}),
+    ...(progressSink
+      ? {
+          searchProgress: (done: number, total: number) => bar.update('search', done, total, 'seeds'),
+          progress: (attempt: number, total: number) => bar.update('prove', attempt - 1, total, 'orbits'),
+        }
+      : {}),
     all: o.all ?? false,
     force: o.force ?? false,
     check: o.check !== false,
@@ -106,12 +109,28 @@ export async function proveCommand(
     ...(digits ? { digits } : {}),
     ...(workers !== undefined ? { workers } : {}),
     overrides,
+    manifestCommand: proveCommandLine(mapArg, o),
   });
-  if (shown) progressSink?.('\r\x1b[K');
+  bar.finish();
   const exitCode = proveExitCode(report);
-  if (o.json) return { stdout: JSON.stringify(proveJson(report), null, 2) + '\n', stderr: '', exitCode };
+  if (o.json) return jsonResult('proofs', proveJson(report, def, overrides), exitCode, warnings);
   const header = `${def.title} — period ${period}; ${paramsLine(def, overrides)}`;
-  return { stdout: renderProve(report, header, cwd) + '\n', stderr: '', exitCode };
+  return { stdout: renderProve(report, header, cwd, o.columns) + '\n', stderr: warnings, exitCode };
+}
+
+/** The command as typed (options in a fixed order), for the run manifest. */
+export function proveCommandLine(mapArg: string, o: ProveCommandOptions): string {
+  const parts = ['orbitseal', 'prove', mapArg, '--period', o.period];
+  for (const p of o.param ?? []) parts.push('--param', p);
+  if (o.near !== undefined) parts.push('--near', o.near);
+  if (o.start !== undefined) parts.push('--start', o.start);
+  if (o.limit !== undefined) parts.push('--limit', o.limit);
+  if (o.all) parts.push('--all');
+  if (o.maxBits !== undefined) parts.push('--max-bits', o.maxBits);
+  if (o.check === false) parts.push('--no-check');
+  if (o.digits !== undefined) parts.push('--digits', o.digits);
+  parts.push('--out', o.out ?? DEFAULT_OUT_DIR);
+  return parts.map((p) => (/^[\w.,=/:+-]+$/.test(p) ? p : JSON.stringify(p))).join(' ');
 }
 
 /** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
@@ -120,9 +139,11 @@ export function proveExitCode(r: CertifyReport): ExitCode {
 }
 
 /** The `--json` document of a prove run. */
-export function proveJson(r: CertifyReport): Record<string, unknown> {
+export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Record<string, ParamValue> = {}): Record<string, unknown> {
+  const params: Record<string, string> = {};
+  if (def) for (const [k, v] of Object.entries({ ...def.params, ...overrides })) params[k] = paramText(v);
   return {
-    map: r.map,
+    map: def ? { ...r.map, params } : r.map,
     period: r.period,
     candidatesFound: r.candidatesFound,
     source: r.source,
@@ -190,12 +211,12 @@ export function stabilityCell(orbit: OrbitOutcome['orbit']): string {
   const s = orbit.stability;
   const lines: string[] = [];
   if (s.multiplier) lines.push(`Λ ∈ ${formatInterval(s.multiplier, 8)}`);
-  if (s.eigenvalueModuli) s.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatInterval(m, 8)}`));
+  if (s.eigenvalueModuli) s.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatModulus(m, 8)}`));
   if (s.trace) lines.push(`tr M ∈ ${formatInterval(s.trace, 8)}`);
   if (s.determinant) lines.push(`det M ∈ ${formatInterval(s.determinant, 8)}`);
   if (s.proverOnly) {
     lines.push('fast engine only, not re-verified:');
-    s.proverOnly.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatInterval(m, 8)}`));
+    s.proverOnly.eigenvalueModuli.forEach((m, i) => lines.push(`|λ${i + 1}| ∈ ${formatModulus(m, 8)}`));
   }
   return lines.join('\n');
 }
@@ -214,7 +235,7 @@ function displayPath(p: string, cwd: string): string {
 }
 
 /** Pure renderer for the human-readable prove output. */
-export function renderProve(r: CertifyReport, header: string, cwd: string): string {
+export function renderProve(r: CertifyReport, header: string, cwd: string, width = Infinity): string {
   const out: string[] = [header];
   out.push(
     r.source === 'start'
@@ -241,7 +262,7 @@ export function renderProve(r: CertifyReport, header: string, cwd: string): stri
     o.certificatePath ? displayPath(o.certificatePath, cwd) : '',
   ]);
   out.push('');
-  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within*', 'bits', 'certificate'], rows));
+  out.push(table(['#', 'status', 'orbit points (enclosures)', 'stability', 'class', 'unique within*', 'bits', 'certificate'], rows, width));
   out.push('');
   if (r.outcomes.some((o) => (o.orbit?.uniquenessRadius ?? null) !== null)) out.push(UNIQUE_WITHIN_NOTE);
   for (const o of r.outcomes) {

@@ -1,5 +1,6 @@
 import { EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
+import { jsonResult } from '../json.js';
 import { intervalArithmetic } from '../../interval/interval-arith.js';
 import { describeMap, type MapDescription } from '../../model/index.js';
 import type { ParamValue } from '../../model/types.js';
@@ -8,19 +9,21 @@ import { loadMap, paramText } from './common.js';
 export interface ShowCommandOptions {
   json?: boolean;
   param?: string[];
+  /** Terminal width for the table (default no limit). */
+  columns?: number;
 }
 
 export async function showCommand(mapArg: string, o: ShowCommandOptions, cwd = process.cwd()): Promise<CommandResult> {
-  const { overrides, compiled } = loadMap(mapArg, o.param ?? [], cwd);
+  const { overrides, compiled, warnings } = loadMap(mapArg, o.param ?? [], cwd);
   const description = describeMap(compiled, intervalArithmetic());
   if (o.json) {
-    return { stdout: JSON.stringify(description, null, 2) + '\n', stderr: '', exitCode: EXIT_OK };
+    return jsonResult('map', { map: description }, EXIT_OK, warnings);
   }
-  return { stdout: renderShow(description, overrides) + '\n', stderr: '', exitCode: EXIT_OK };
+  return { stdout: renderShow(description, overrides, o.columns) + '\n', stderr: warnings, exitCode: EXIT_OK };
 }
 
 /** Pure renderer for `show`: the map as understood, with exact enclosures. */
-export function renderShow(d: MapDescription, overrides: Record<string, ParamValue> = {}): string {
+export function renderShow(d: MapDescription, overrides: Record<string, ParamValue> = {}, width = Infinity): string {
   const lines = [`${d.title}${d.origin ? `  (${d.origin})` : ''}`];
   if (d.description) lines.push(d.description.trim());
   lines.push('', `state variables (vector order): ${d.variables.map((v) => v.name).join(', ')}   (dimension ${d.dim})`);
@@ -35,6 +38,7 @@ export function renderShow(d: MapDescription, overrides: Record<string, ParamVal
           paramText(p.value),
           `[${p.enclosure.lo}, ${p.enclosure.hi}]`,
         ]),
+        width,
       ),
     );
   }
