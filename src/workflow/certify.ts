@@ -318,6 +318,9 @@ export async function certifyOrbits(
   const keptIndex: number[] = [];
   let identityUndecided = false;
   let k = 0;
+  // one folder fsync for the whole run (each file's data is synced as it is written); the run
+  // manifest is rewritten after every orbit and shares it
+  const dirSync = new DirectorySync();
   const manifestPath = opts.manifestCommand !== undefined
     ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, overrideTexts(opts.overrides)).replace(/-0\.json$/, '.run'))
     : undefined;
@@ -337,7 +340,7 @@ export async function certifyOrbits(
       finished: outcomes.map((o) => ({ index: o.index, status: o.status, ...(o.certificatePath ? { certificate: basename(o.certificatePath) } : {}) })),
       complete,
     };
-    writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + '\n', { force: true });
+    writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + '\n', { force: true, dirSync });
   };
   writeManifest(false);
   let attemptNo = 0;
@@ -354,8 +357,6 @@ export async function certifyOrbits(
     }));
     proved = await runPool<ProveTask, ProveTaskResult>(PROVE_TASK, tasks, { workers, ...(opts.progress ? { progress: opts.progress } : {}) });
   }
-  // one folder fsync for the whole run (each file's data is synced as it is written)
-  const dirSync = new DirectorySync();
   try {
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
@@ -417,10 +418,10 @@ export async function certifyOrbits(
     outcomes.push(outcome);
     writeManifest(false);
   }
+  writeManifest(true);
   } finally {
     dirSync.flush();
   }
-  writeManifest(true);
 
   // Asked for minimal period P: a solution of the period-P system whose boxes overlap (a fixed
   // point, a shorter cycle run several times) is proven as stated, but not what was asked for.
