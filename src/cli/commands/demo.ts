@@ -71,11 +71,12 @@ export function renderDemo(d: DemoReport): string {
     lines.push('');
   }
   lines.push(
-    'What this means: for each map exactly as written (3.83 is 383/100, not a nearby double), each',
-    'box above holds exactly one point of a periodic cycle with the stated minimal period and',
-    'stability. "re-verified": an independent checker (decimal interval arithmetic, its own parser)',
-    're-derived every claim from the certificate file alone. Nothing here says how well these',
-    'formulas describe real moths or voles.',
+    // one line for the paragraph: the terminal-width wrapper breaks it where the screen needs
+    'What this means: for each map exactly as written (3.83 is 383/100, not a nearby double), each ' +
+      'box above holds exactly one point of a periodic cycle with the stated minimal period and ' +
+      'stability. "re-verified": an independent checker (decimal interval arithmetic, its own parser) ' +
+      're-derived every claim from the certificate file alone. Nothing here says how well these ' +
+      'formulas describe real moths or voles.',
     '',
     `${files} certificate(s) written to ${d.outDir}`,
     `Check them again any time:  orbitseal check ${d.outDir}`,
