@@ -42,7 +42,7 @@ function pairOf<T>(arith: IntervalArithmetic<T>, x: T): DecimalPair {
  */
 export function orbitStability<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
   if (n === 1) return stability1(arith, blocks, p);
-  if (n === 2) return stability2(arith, blocks, p);
+  if (n === 2) return arith.kind === 'interval' && arith.bits === 53 ? stability2Scaled(arith, blocks, p) : stability2(arith, blocks, p);
   return stabilityN(arith, blocks, p, n);
 }
 
@@ -95,11 +95,31 @@ function scaledProduct<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: num
       if (Math.abs(e) > 1e6) return null;
     }
   }
+  return scaledPair(lo, hi, e);
+}
+
+/** The decimal pair enclosing [lo, hi]·2^e (lo ≤ hi doubles, e an integer), rounded outward, widened. */
+function scaledPair(lo: number, hi: number, e: number): DecimalPair {
   const pow = (r: typeof ExactFloor): Decimal => (e >= 0 ? new r(2).pow(e) : new r(1).div(new (r === ExactFloor ? ExactCeil : ExactFloor)(2).pow(-e)));
   // lower end: lo·2^e rounded down (2^e rounded so that the product moves down)
   const L = lo >= 0 ? ExactFloor.mul(decimalOfDouble(lo), pow(ExactFloor)) : ExactFloor.mul(decimalOfDouble(lo), pow(ExactCeil));
   const H = hi >= 0 ? ExactCeil.mul(decimalOfDouble(hi), pow(ExactCeil)) : ExactCeil.mul(decimalOfDouble(hi), pow(ExactFloor));
   return widenPair(L.toString(), H.toString());
+}
+
+/**
+ * Multiplies every entry of xs by the same exact power of two 2^-k (an interval product, so
+ * rounded outward) when their largest magnitude leaves [2^-200, 2^200]; returns k (the caller
+ * adds it to the common exponent). |k| ≤ 1000, so 2^-k is a normal double.
+ */
+function renormalise<T>(a: IntervalArithmetic<T>, xs: T[]): number {
+  let mag = 0;
+  for (const x of xs) mag = Math.max(mag, a.magUp(x));
+  if (!Number.isFinite(mag) || !(mag > 2 ** 200 || (mag < 2 ** -200 && mag > 0))) return 0;
+  const k = Math.max(-1000, Math.min(1000, Math.floor(Math.log2(mag))));
+  const s = a.fromNumber(2 ** -k);
+  for (let i = 0; i < xs.length; i++) xs[i] = a.mul(xs[i]!, s);
+  return k;
 }
 
 function isBounded<T>(arith: IntervalArithmetic<T>, x: T): boolean {
@@ -204,6 +224,110 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
     moduli = [mod, [mod[0], mod[1]]];
   }
   const out: ProvenStability = { class: 'undecided', trace: tracePair, determinant: detPair };
+  if (moduli === undefined) {
+    out.note = 'the sign of T² − 4D is not decided';
+    return out;
+  }
+  out.eigenvalueModuli = moduli;
+  const below = moduli.map((x) => pairAbsBelowOne(x));
+  const above = moduli.map((x) => pairAbsAboveOne(x));
+  if (below.every(Boolean)) out.class = 'attracting';
+  else if (above.every(Boolean)) out.class = 'repelling';
+  else if ((below[0] && above[1]) || (below[1] && above[0])) out.class = 'saddle';
+  else out.note = 'an eigenvalue modulus enclosure contains 1';
+  return out;
+}
+
+/**
+ * n = 2 for float64 intervals, beyond float64's range: the same moving-frame product as
+ * stability2, with the four entries of the product sharing one power-of-two exponent (renormalised
+ * every step, see renormalise), the determinant a scaled product of the per-step determinants, and
+ * the eigenvalues derived from the scaled trace t·2^eT and determinant d·2^eD:
+ * T² − 4D = 2^(2eT)·(t² − 4d·2^(eD−2eT)); with T certainly ≠ 0, λ₁ = 2^eT·(t + sign(t)·√(·))/2 and
+ * λ₂ = D/λ₁ = 2^(eD − eL)·d/l. When eD − 2eT < −900 the term 4d·2^(eD−2eT) is enclosed by the
+ * hull of ±|4d|·2^−900 (it is smaller in modulus). Complex case: |λ| = √D = 2^(eD/2)·√d (eD even).
+ */
+function stability2Scaled<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
+  const mul2 = (x: readonly T[], y: readonly T[]): T[] => [
+    a.add(a.mul(x[0]!, y[0]!), a.mul(x[1]!, y[2]!)),
+    a.add(a.mul(x[0]!, y[1]!), a.mul(x[1]!, y[3]!)),
+    a.add(a.mul(x[2]!, y[0]!), a.mul(x[3]!, y[2]!)),
+    a.add(a.mul(x[2]!, y[1]!), a.mul(x[3]!, y[3]!)),
+  ];
+  const unbounded = (): ProvenStability => ({ class: 'undecided', note: 'the monodromy enclosure is unbounded (overflow)' });
+  const dv: T[] = [a.fromNumber(1)];
+  let eD = 0;
+  for (let k = 0; k < p; k++) {
+    const b = blocks.slice(k * 4, k * 4 + 4);
+    dv[0] = a.mul(dv[0]!, a.sub(a.mul(b[0]!, b[3]!), a.mul(b[1]!, b[2]!)));
+    eD += renormalise(a, dv);
+  }
+  let qPrevF = new Float64Array([1, 0, 0, 1]);
+  let qPrev: T[] = [a.fromNumber(1), a.fromNumber(0), a.fromNumber(0), a.fromNumber(1)];
+  let prod: T[] = [a.fromNumber(1), a.fromNumber(0), a.fromNumber(0), a.fromNumber(1)];
+  let eP = 0;
+  const midF = new Float64Array(4);
+  const bF = new Float64Array(4);
+  for (let k = 0; k < p; k++) {
+    const blk = blocks.slice(k * 4, k * 4 + 4);
+    for (let e = 0; e < 4; e++) midF[e] = a.midNumber(blk[e]!);
+    bF[0] = midF[0]! * qPrevF[0]! + midF[1]! * qPrevF[2]!;
+    bF[1] = midF[0]! * qPrevF[1]! + midF[1]! * qPrevF[3]!;
+    bF[2] = midF[2]! * qPrevF[0]! + midF[3]! * qPrevF[2]!;
+    bF[3] = midF[2]! * qPrevF[1]! + midF[3]! * qPrevF[3]!;
+    const [c, s] = rotationOf(bF);
+    const qF = new Float64Array([c, -s, s, c]);
+    const q: T[] = [a.fromNumber(c), a.fromNumber(-s), a.fromNumber(s), a.fromNumber(c)];
+    const dq = a.add(a.mul(q[0]!, q[3]!), a.neg(a.mul(q[1]!, q[2]!)));
+    const qInv: T[] = [a.div(q[3]!, dq), a.div(a.neg(q[1]!), dq), a.div(a.neg(q[2]!), dq), a.div(q[0]!, dq)];
+    prod = mul2(mul2(qInv, mul2(blk, qPrev)), prod);
+    eP += renormalise(a, prod);
+    qPrevF = qF;
+    qPrev = q;
+  }
+  const m = mul2(qPrev, prod);
+  const t = a.add(m[0]!, m[3]!);
+  const d = dv[0]!;
+  if (!Number.isFinite(a.magUp(t)) || !Number.isFinite(a.magUp(d)) || Math.abs(eP) > 1e6 || Math.abs(eD) > 1e6) return unbounded();
+  const pairS = (x: T, e: number): DecimalPair => scaledPair(a.loDown(x), a.hiUp(x), e);
+  const out: ProvenStability = { class: 'undecided', trace: pairS(t, eP), determinant: pairS(d, eD) };
+  const zero = a.fromNumber(0);
+  const kk = eD - 2 * eP;
+  let moduli: DecimalPair[] | undefined;
+  if (kk <= 900) {
+    const d4 = a.mul(a.fromNumber(4), d);
+    let s4: T;
+    if (kk >= -900) s4 = a.mul(d4, a.fromNumber(2 ** kk));
+    else {
+      const eps = mulUp(a.magUp(d4), 2 ** -900);
+      s4 = a.hull(a.fromNumber(-eps), a.fromNumber(eps));
+    }
+    const disc = a.sub(a.sqr(t), s4);
+    const half = a.fromNumber(0.5);
+    if (a.certainlyLt(zero, disc)) {
+      const root = a.sqrt(disc);
+      let l1: T | null = null;
+      if (a.certainlyLt(zero, t)) l1 = a.mul(a.add(t, root), half);
+      else if (a.certainlyLt(t, zero)) l1 = a.mul(a.sub(t, root), half);
+      if (l1 !== null && (a.certainlyLt(zero, l1) || a.certainlyLt(l1, zero))) {
+        const l2 = a.div(d, l1);
+        if (Number.isFinite(a.magUp(l1)) && Number.isFinite(a.magUp(l2))) {
+          const m1 = pairS(a.abs(l1), eP);
+          const m2 = pairS(a.abs(l2), eD - eP);
+          moduli = compareLo(m1, m2) <= 0 ? [m1, m2] : [m2, m1];
+        }
+      } else if (l1 === null) {
+        // sign of T undecided: both roots (t ± √disc)/2, same exponent
+        const m1 = pairS(a.abs(a.mul(a.add(t, root), half)), eP);
+        const m2 = pairS(a.abs(a.mul(a.sub(t, root), half)), eP);
+        moduli = compareLo(m1, m2) <= 0 ? [m1, m2] : [m2, m1];
+      }
+    } else if (a.certainlyLt(disc, zero) && a.certainlyLt(zero, d)) {
+      const odd = ((eD % 2) + 2) % 2;
+      const mod = pairS(a.sqrt(a.mul(d, a.fromNumber(2 ** odd))), (eD - odd) / 2);
+      moduli = [mod, [mod[0], mod[1]]];
+    }
+  }
   if (moduli === undefined) {
     out.note = 'the sign of T² − 4D is not decided';
     return out;
