@@ -126,6 +126,44 @@ function isBounded<T>(arith: IntervalArithmetic<T>, x: T): boolean {
   return Number.isFinite(arith.magUp(x)) || arith.kind === 'mp-interval';
 }
 
+
+/** Product of two 2×2 interval matrices (row-major), each entry enclosed. */
+function mul2x2<T>(a: IntervalArithmetic<T>, x: readonly T[], y: readonly T[]): T[] {
+  return [
+    a.add(a.mul(x[0]!, y[0]!), a.mul(x[1]!, y[2]!)),
+    a.add(a.mul(x[0]!, y[1]!), a.mul(x[1]!, y[3]!)),
+    a.add(a.mul(x[2]!, y[0]!), a.mul(x[3]!, y[2]!)),
+    a.add(a.mul(x[2]!, y[1]!), a.mul(x[3]!, y[3]!)),
+  ];
+}
+
+/**
+ * One step of the moving-frame monodromy product (shared by the plain and the scaled n = 2
+ * stability): with the float rotation Q_k that triangularises mid(B_k)·Q_{k-1}, returns
+ * R_k = Q_k^{-1}·B_k·Q_{k-1} enclosed (Q_k^{-1} = adj(Q_k)/det(Q_k), det(Q_k) = c² + s² enclosed),
+ * and Q_k as floats and as point intervals. `midF`, `bF` are caller scratch (4 entries each).
+ */
+function movingFrameStep<T>(
+  a: IntervalArithmetic<T>,
+  blk: T[],
+  qPrevF: Float64Array,
+  qPrev: T[],
+  midF: Float64Array,
+  bF: Float64Array,
+): { rk: T[]; qF: Float64Array<ArrayBuffer>; q: T[] } {
+  for (let e = 0; e < 4; e++) midF[e] = a.midNumber(blk[e]!);
+  bF[0] = midF[0]! * qPrevF[0]! + midF[1]! * qPrevF[2]!;
+  bF[1] = midF[0]! * qPrevF[1]! + midF[1]! * qPrevF[3]!;
+  bF[2] = midF[2]! * qPrevF[0]! + midF[3]! * qPrevF[2]!;
+  bF[3] = midF[2]! * qPrevF[1]! + midF[3]! * qPrevF[3]!;
+  const [c, s] = rotationOf(bF);
+  const qF = new Float64Array([c, -s, s, c]);
+  const q: T[] = [a.fromNumber(c), a.fromNumber(-s), a.fromNumber(s), a.fromNumber(c)];
+  const dq = a.add(a.mul(q[0]!, q[3]!), a.neg(a.mul(q[1]!, q[2]!)));
+  const qInv: T[] = [a.div(q[3]!, dq), a.div(a.neg(q[1]!), dq), a.div(a.neg(q[2]!), dq), a.div(q[0]!, dq)];
+  return { rk: mul2x2(a, qInv, mul2x2(a, blk, qPrev)), qF, q };
+}
+
 /** @heuristic float rotation (c, s) taking the first column of b (2×2 row-major) to (h, 0). */
 function rotationOf(b: Float64Array): [number, number] {
   const x = b[0]!;
@@ -137,12 +175,7 @@ function rotationOf(b: Float64Array): [number, number] {
 
 function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
   const a = arith;
-  const mul2 = (x: readonly T[], y: readonly T[]): T[] => [
-    a.add(a.mul(x[0]!, y[0]!), a.mul(x[1]!, y[2]!)),
-    a.add(a.mul(x[0]!, y[1]!), a.mul(x[1]!, y[3]!)),
-    a.add(a.mul(x[2]!, y[0]!), a.mul(x[3]!, y[2]!)),
-    a.add(a.mul(x[2]!, y[1]!), a.mul(x[3]!, y[3]!)),
-  ];
+  const mul2 = (x: readonly T[], y: readonly T[]): T[] => mul2x2(a, x, y);
   // Determinant: product of the per-step determinants.
   let det = a.fromNumber(1);
   for (let k = 0; k < p; k++) {
@@ -156,19 +189,7 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
   const midF = new Float64Array(4);
   const bF = new Float64Array(4);
   for (let k = 0; k < p; k++) {
-    const blk = blocks.slice(k * 4, k * 4 + 4);
-    for (let e = 0; e < 4; e++) midF[e] = a.midNumber(blk[e]!);
-    bF[0] = midF[0]! * qPrevF[0]! + midF[1]! * qPrevF[2]!;
-    bF[1] = midF[0]! * qPrevF[1]! + midF[1]! * qPrevF[3]!;
-    bF[2] = midF[2]! * qPrevF[0]! + midF[3]! * qPrevF[2]!;
-    bF[3] = midF[2]! * qPrevF[1]! + midF[3]! * qPrevF[3]!;
-    const [c, s] = rotationOf(bF);
-    const qF = new Float64Array([c, -s, s, c]);
-    const q: T[] = [a.fromNumber(c), a.fromNumber(-s), a.fromNumber(s), a.fromNumber(c)];
-    // Q^{-1} enclosed: adj(Q)/det(Q), det(Q) = c² + s² enclosed in intervals.
-    const dq = a.add(a.mul(q[0]!, q[3]!), a.neg(a.mul(q[1]!, q[2]!)));
-    const qInv: T[] = [a.div(q[3]!, dq), a.div(a.neg(q[1]!), dq), a.div(a.neg(q[2]!), dq), a.div(q[0]!, dq)];
-    const rk = mul2(qInv, mul2(blk, qPrev));
+    const { rk, qF, q } = movingFrameStep(a, blocks.slice(k * 4, k * 4 + 4), qPrevF, qPrev, midF, bF);
     prod = mul2(rk, prod);
     qPrevF = qF;
     qPrev = q;
@@ -248,12 +269,7 @@ function stability2<T>(arith: IntervalArithmetic<T>, blocks: readonly T[], p: nu
  * hull of ±|4d|·2^−900 (it is smaller in modulus). Complex case: |λ| = √D = 2^(eD/2)·√d (eD even).
  */
 function stability2Scaled<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number): ProvenStability {
-  const mul2 = (x: readonly T[], y: readonly T[]): T[] => [
-    a.add(a.mul(x[0]!, y[0]!), a.mul(x[1]!, y[2]!)),
-    a.add(a.mul(x[0]!, y[1]!), a.mul(x[1]!, y[3]!)),
-    a.add(a.mul(x[2]!, y[0]!), a.mul(x[3]!, y[2]!)),
-    a.add(a.mul(x[2]!, y[1]!), a.mul(x[3]!, y[3]!)),
-  ];
+  const mul2 = (x: readonly T[], y: readonly T[]): T[] => mul2x2(a, x, y);
   const unbounded = (): ProvenStability => ({ class: 'undecided', note: 'the monodromy enclosure is unbounded (overflow)' });
   const dv: T[] = [a.fromNumber(1)];
   let eD = 0;
@@ -269,18 +285,8 @@ function stability2Scaled<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: 
   const midF = new Float64Array(4);
   const bF = new Float64Array(4);
   for (let k = 0; k < p; k++) {
-    const blk = blocks.slice(k * 4, k * 4 + 4);
-    for (let e = 0; e < 4; e++) midF[e] = a.midNumber(blk[e]!);
-    bF[0] = midF[0]! * qPrevF[0]! + midF[1]! * qPrevF[2]!;
-    bF[1] = midF[0]! * qPrevF[1]! + midF[1]! * qPrevF[3]!;
-    bF[2] = midF[2]! * qPrevF[0]! + midF[3]! * qPrevF[2]!;
-    bF[3] = midF[2]! * qPrevF[1]! + midF[3]! * qPrevF[3]!;
-    const [c, s] = rotationOf(bF);
-    const qF = new Float64Array([c, -s, s, c]);
-    const q: T[] = [a.fromNumber(c), a.fromNumber(-s), a.fromNumber(s), a.fromNumber(c)];
-    const dq = a.add(a.mul(q[0]!, q[3]!), a.neg(a.mul(q[1]!, q[2]!)));
-    const qInv: T[] = [a.div(q[3]!, dq), a.div(a.neg(q[1]!), dq), a.div(a.neg(q[2]!), dq), a.div(q[0]!, dq)];
-    prod = mul2(mul2(qInv, mul2(blk, qPrev)), prod);
+    const { rk, qF, q } = movingFrameStep(a, blocks.slice(k * 4, k * 4 + 4), qPrevF, qPrev, midF, bF);
+    prod = mul2(rk, prod);
     eP += renormalise(a, prod);
     qPrevF = qF;
     qPrev = q;
