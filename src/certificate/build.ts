@@ -11,6 +11,7 @@ import {
   CERTIFICATE_FORMAT,
   CERTIFICATE_FORMAT_VERSION,
   CERTIFICATE_KIND_PERIODIC_ORBIT,
+  type CertificateFlowPlan,
   type CertificateMap,
   type CertificateParam,
   type CertificateStability,
@@ -52,6 +53,8 @@ export interface BuildCertificateOptions {
   overrides?: Record<string, ParamValue>;
   /** Producer version; defaults to the package version. */
   producerVersion?: string;
+  /** A time-T flow map's integration plan (hints for the checker), from `FlowMap.plan`. */
+  flowPlan?: CertificateFlowPlan | null;
 }
 
 /** The parameters in effect: the definition's, with overrides applied. */
@@ -152,6 +155,7 @@ export function buildCertificate(
       stability: stabilitySection(orbit.stability),
     },
     hints: { bits: orbit.bits, digits: Math.max(20, Math.ceil((orbit.bits * 30103) / 100000) + 5) },
+    ...(def.flow !== undefined && opts.flowPlan ? { plan: opts.flowPlan } : {}),
   };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

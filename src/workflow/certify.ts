@@ -12,6 +12,7 @@ import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertific
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
+import type { FlowMap } from '../flow/compile.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
 import { proveOrbit } from '../prove/index.js';
 import type { ProvenOrbit } from '../prove/types.js';
@@ -229,8 +230,8 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
 }
 
-/** Said for every orbit of a flow map: the independent checker cannot re-verify it yet. */
-export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle flows)';
+/** Said for every orbit of a return map of a flow: the independent checker cannot re-verify those yet. */
+export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle return maps of flows)';
 
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
@@ -380,14 +381,16 @@ export async function certifyOrbits(
     }
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
-    const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
+    // a time-T flow map: the integration plan from each written box, as hints for the checker
+    const flowPlan = def.flow !== undefined && 'plan' in compiled ? (compiled as FlowMap).plan(orbit.boxes) : null;
+    const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}) });
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
       force: opts.force ?? false,
       dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
-    if (checkOn && def.flow !== undefined) {
+    if (checkOn && def.flow?.section !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
     } else if (checkOn) {
       const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
