@@ -91,6 +91,7 @@ export function dualArith(c: IvCtx, n: number): CoefArith<Dual> {
     scale: (a, k) => ({ v: c.mul(a.v, k), d: a.d.map((x) => c.mul(x, k)) }),
     fn: (f, a) => {
       const v = elemValue(c, f, a.v);
+      if (a.d.every((x) => x.lo.isZero() && x.hi.isZero())) return { v, d: zeros() }; // e.g. cos(ω·t)
       // derivative of f at a.v
       const dv = f === 'sqrt' ? c.div(c.one, c.scale(new c.Down('2'), v))
         : f === 'exp' ? v

@@ -13,7 +13,9 @@
  *     X̂ stays in Y on [t, t + h] (the first-order Picard–Lindelöf inclusion; Lohner 1987,
  *     "Enclosing the solutions of ordinary initial and boundary value problems", Nedialkov,
  *     Jackson & Corliss 1999, "Validated solutions of initial value problems for ODEs", Thm 1).
- *     The hint only seeds Y: Y₀ = hull(hint, X̂ + [0,h]·F(X̂)) widened; up to four refinements.
+ *     The hint only seeds Y: Y₀ = hull(hint, X̂ + [0,h]·F(X̂)) widened; up to four attempts. An
+ *     accepted Z = X̂ + [0,h]·F(Y) ⊆ Y is refined three times by Z ← X̂ + [0,h]·F(Z): from Z ⊆ Y,
+ *     F(Z) ⊆ F(Y) gives Z' ⊆ Z and then X̂ + [0,h]·F(Z') ⊆ Z', so every iterate is an a priori box.
  *  2. Lagrange remainder. x(t+h) = Σ_{k≤P} h^k x_k(x(t), t) + h^{P+1} x_{P+1}(x(ξ), ξ), ξ ∈ [t, t+h]
  *     componentwise, and (x(ξ), ξ) ∈ Y × (t + [0, h]): R ∈ h^{P+1}·x_{P+1}(Y).
  *  3. Mean value form. With p(x) = Σ_{k≤P} h^k x_k(x, t) and J = Σ h^k ∂x_k/∂x (X̂) (dual series):
@@ -290,6 +292,8 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
       else Y = Y.map((y, i) => widen(c.hull(y, Z[i]!), '0.5'));
     }
     if (!apriori) reject(where(j), `point ${point}, step ${j}: no a priori enclosure (the Picard inclusion X + [0,h]·F(Y) ⊆ Y fails; step too large?)`);
+    // refinement: Z ⊆ Y ⇒ Z' = X + [0,h]·F(Z) ⊆ Z and X + [0,h]·F(Z') ⊆ Z', so each iterate is again an a priori box
+    for (let it = 0; it < 3; it++) apriori = picard(apriori!);
     // 2.–3. Taylor parts
     const hP1 = c.powInt(h, P + 1);
     const xsX = taylor(da, prog, Xh.map((v, i) => ({ v, d: Array.from({ length: n }, (_, q) => (q === i ? c.one : c.zero)) })), t, P);
