@@ -75,6 +75,7 @@ export interface Dual { v: Iv; d: Iv[] }
 
 export function dualArith(c: IvCtx, n: number): CoefArith<Dual> {
   const zeros = (): Iv[] => new Array<Iv>(n).fill(c.zero);
+  const flat = (d: Iv[]): boolean => d.every((x) => x.lo.isZero() && x.hi.isZero());
   const lin = (a: Iv[], ka: Iv | null, b: Iv[], kb: Iv | null): Iv[] =>
     a.map((x, i) => c.add(ka ? c.mul(ka, x) : x, kb ? c.mul(kb, b[i]!) : b[i]!));
   return {
@@ -83,7 +84,12 @@ export function dualArith(c: IvCtx, n: number): CoefArith<Dual> {
     add: (a, b) => ({ v: c.add(a.v, b.v), d: lin(a.d, null, b.d, null) }),
     sub: (a, b) => ({ v: c.sub(a.v, b.v), d: a.d.map((x, i) => c.sub(x, b.d[i]!)) }),
     neg: (a) => ({ v: c.neg(a.v), d: a.d.map((x) => c.neg(x)) }),
-    mul: (a, b) => ({ v: c.mul(a.v, b.v), d: lin(a.d, b.v, b.d, a.v) }),
+    mul: (a, b) => {
+      // a factor without gradient (a constant, the time) contributes no product terms
+      if (flat(a.d)) return { v: c.mul(a.v, b.v), d: flat(b.d) ? zeros() : b.d.map((x) => c.mul(a.v, x)) };
+      if (flat(b.d)) return { v: c.mul(a.v, b.v), d: a.d.map((x) => c.mul(b.v, x)) };
+      return { v: c.mul(a.v, b.v), d: lin(a.d, b.v, b.d, a.v) };
+    },
     div: (a, b) => {
       const v = c.div(a.v, b.v);
       return { v, d: a.d.map((x, i) => c.div(c.sub(x, c.mul(v, b.d[i]!)), b.v)) };
@@ -91,7 +97,7 @@ export function dualArith(c: IvCtx, n: number): CoefArith<Dual> {
     scale: (a, k) => ({ v: c.mul(a.v, k), d: a.d.map((x) => c.mul(x, k)) }),
     fn: (f, a) => {
       const v = elemValue(c, f, a.v);
-      if (a.d.every((x) => x.lo.isZero() && x.hi.isZero())) return { v, d: zeros() }; // e.g. cos(ω·t)
+      if (flat(a.d)) return { v, d: zeros() }; // e.g. cos(ω·t)
       // derivative of f at a.v
       const dv = f === 'sqrt' ? c.div(c.one, c.scale(new c.Down('2'), v))
         : f === 'exp' ? v
@@ -110,6 +116,12 @@ interface Instr { op: Op; a: number; b: number; out: number; aux: number; konst?
 /** The right-hand sides as series instructions (built once per certificate and context). */
 export interface SeriesProgram {
   instrs: Instr[];
+  /**
+   * Polynomial degree in the time offset s of each series, when known (constants 0, the time 1,
+   * sums and products of those); Infinity otherwise. Coefficients above it are exactly 0, so sums
+   * skip those terms (cost only: the skipped products are products with an exact 0).
+   */
+  deg: number[];
   count: number;
   outputs: number[];
   n: number;
@@ -124,10 +136,15 @@ const MAX_CHAIN_POWER = 64;
 export function buildSeries(rhs: readonly Node[], n: number, c: IvCtx, params: ReadonlyMap<string, Iv>): SeriesProgram {
   const ev = new Evaluator(c, params);
   const instrs: Instr[] = [];
+  const deg: number[] = [];
   let count = 0;
   const emit = (op: Op, a = -1, b = -1, extra: Partial<Instr> = {}): number => {
     const out = count++;
     const aux = op === 'sin' || op === 'cos' || op === 'sinh' || op === 'cosh' ? count++ : -1;
+    const da = a >= 0 ? deg[a]! : 0;
+    const db = b >= 0 ? deg[b]! : 0;
+    deg[out] = op === 'konst' ? 0 : op === 'time' ? 1 : op === 'neg' ? da : op === 'add' || op === 'sub' ? Math.max(da, db) : op === 'mul' ? da + db : Infinity;
+    if (aux >= 0) deg[aux] = Infinity;
     instrs.push({ op, a, b, out, aux, ...extra });
     return out;
   };
@@ -187,7 +204,7 @@ export function buildSeries(rhs: readonly Node[], n: number, c: IvCtx, params: R
     }
   };
   const outputs = rhs.map((r) => walk(r));
-  return { instrs, count, outputs, n };
+  return { instrs, deg, count, outputs, n };
 }
 
 /**
@@ -205,9 +222,10 @@ export function taylor<T>(A: CoefArith<T>, prog: SeriesProgram, x0: readonly T[]
     intK.push(lit);
     recipK.push(c.div(c.one, lit));
   }
-  const conv = (a: T[], b: T[], k: number): T => {
+  const deg = prog.deg;
+  const conv = (a: T[], b: T[], da: number, db: number, k: number): T => {
     let s = A.zero;
-    for (let j = 0; j <= k; j++) s = A.add(s, A.mul(a[j]!, b[k - j]!));
+    for (let j = Math.max(0, k - db); j <= Math.min(k, da); j++) s = A.add(s, A.mul(a[j]!, b[k - j]!));
     return s;
   };
   for (let k = 0; k < K; k++) {
@@ -224,7 +242,7 @@ export function taylor<T>(A: CoefArith<T>, prog: SeriesProgram, x0: readonly T[]
         case 'neg': v = A.neg(a[k]!); break;
         case 'add': v = A.add(a[k]!, b[k]!); break;
         case 'sub': v = A.sub(a[k]!, b[k]!); break;
-        case 'mul': v = conv(a, b, k); break;
+        case 'mul': v = conv(a, b, deg[ins.a]!, deg[ins.b]!, k); break;
         case 'div': {
           const self = co[out]!;
           let s: T = a[k]!;
@@ -247,7 +265,7 @@ export function taylor<T>(A: CoefArith<T>, prog: SeriesProgram, x0: readonly T[]
           if (k === 0) v = A.fn('exp', a[0]!);
           else {
             let s = A.zero;
-            for (let j = 1; j <= k; j++) s = A.add(s, A.mul(A.scale(a[j]!, intK[j]!), self[k - j]!));
+            for (let j = 1; j <= Math.min(k, deg[ins.a]!); j++) s = A.add(s, A.mul(A.scale(a[j]!, intK[j]!), self[k - j]!));
             v = A.scale(s, recipK[k]!);
           }
           break;
@@ -275,7 +293,7 @@ export function taylor<T>(A: CoefArith<T>, prog: SeriesProgram, x0: readonly T[]
           } else {
             let s1 = A.zero;
             let s2 = A.zero;
-            for (let j = 1; j <= k; j++) {
+            for (let j = 1; j <= Math.min(k, deg[ins.a]!); j++) {
               const ja = A.scale(a[j]!, intK[j]!);
               s1 = A.add(s1, A.mul(ja, partner[k - j]!));
               s2 = A.add(s2, A.mul(ja, self[k - j]!));
