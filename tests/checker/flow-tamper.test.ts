@@ -12,6 +12,9 @@ import { buildCertificate } from '../../src/certificate/build.js';
 import { compileFlowMap } from '../../src/flow/compile.js';
 import { parseMapSource } from '../../src/model/load.js';
 import { proveOrbit } from '../../src/prove/orbit.js';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { validate } from '../certificate/mini-schema.js';
 import { seal } from './certs.js';
 
 type Doc = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
@@ -58,6 +61,9 @@ describe('prover-written flow certificate, driven damped oscillator (Î¶ = 0.1, Ï
     expect(within(modulus.pow(2), st.determinant)).toBe(true);
     expect(within(trace, st.trace)).toBe(true);
     expect(base.plan.order).toBe(16);
+    const schema = JSON.parse(readFileSync(join(__dirname, '../../schema/certificate-v1.schema.json'), 'utf8')) as Record<string, unknown>;
+    expect(validate(schema, base)).toEqual([]);
+    expect(validate(schema, { ...base, plan: { ...base.plan, extra: 1 } })).toContain('$.plan: unexpected property extra');
   }, 30_000);
 
   // the remaining mutants drop the uniqueness claim (a third of the work) to stay fast
