@@ -55,6 +55,8 @@ export interface BuildCertificateOptions {
   producerVersion?: string;
   /** A time-T flow map's integration plan (hints for the checker), from `FlowMap.plan`. */
   flowPlan?: CertificateFlowPlan | null;
+  /** A time-T flow map's flow period p·duration, from `FlowMap.flowPeriod` (a claim). */
+  flowPeriod?: DecimalInterval | null;
 }
 
 /** The parameters in effect: the definition's, with overrides applied. */
@@ -153,6 +155,7 @@ export function buildCertificate(
       uniqueness: orbit.uniquenessRadius === null ? null : { radius: orbit.uniquenessRadius },
       minimalPeriod: orbit.minimalPeriod,
       stability: stabilitySection(orbit.stability),
+      ...(def.flow !== undefined && opts.flowPeriod ? { flowPeriod: copyInterval(opts.flowPeriod) } : {}),
     },
     hints: { bits: orbit.bits, digits: Math.max(20, Math.ceil((orbit.bits * 30103) / 100000) + 5) },
     ...(def.flow !== undefined && opts.flowPlan ? { plan: opts.flowPlan } : {}),

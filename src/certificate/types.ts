@@ -77,6 +77,8 @@ export interface CertificateClaims {
   /** Equal to `period` when claimed (boxes pairwise disjoint); null when not claimed. */
   minimalPeriod: number | null;
   stability: CertificateStability;
+  /** Kind 'flow-periodic-orbit', time-T map: enclosure of the flow period period·duration. */
+  flowPeriod?: DecimalInterval;
 }
 
 export interface CertificateHints {

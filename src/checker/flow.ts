@@ -39,7 +39,7 @@
  */
 import { Decimal } from 'decimal.js';
 import { MAX_FLOW_ORDER, MAX_FLOW_STEPS } from '../certificate/limits.js';
-import { DomainViolation, fmt, isSubset, type IvCtx, type Iv } from './interval.js';
+import { DomainViolation, Exact, fmt, isSubset, type IvCtx, type Iv } from './interval.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { formulaOps } from './budget.js';
 import { buildSeries, dualArith, FlowUnsupported, horner, ivArith, taylor, type SeriesProgram } from './flow-series.js';
@@ -172,6 +172,17 @@ export function flowImage(fr: FlowRead, c: IvCtx, params: ReadonlyMap<string, Iv
     cache.set(key, r);
     return r;
   };
+}
+
+/**
+ * The flow period of a period-p orbit of the time-T map is p·T (T the duration, from time 0 for a
+ * forced system; for an autonomous flow p·T is a period, not necessarily the least one). The
+ * claimed enclosure must contain the checker's.
+ */
+export function verifyFlowPeriod(fr: FlowRead, c: IvCtx, params: ReadonlyMap<string, Iv>, p: number, claim: [string, string], reject: Reject): void {
+  const T = new Evaluator(c, params).eval(fr.duration, [], false).v;
+  const mine = c.mul(c.literal(String(p)), T);
+  if (!isSubset(mine, { lo: new Exact(claim[0]), hi: new Exact(claim[1]) })) reject('$.claims.flowPeriod', `claimed flow period [${claim[0].slice(0, 30)}, ${claim[1].slice(0, 30)}] does not contain the checker's enclosure ${fmt(mine, 20)} of ${p}·duration`);
 }
 
 type Mat = Iv[]; // row-major n×n

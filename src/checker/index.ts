@@ -68,10 +68,10 @@ import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
 import { checkCount, CountRejection } from './count.js';
-import { flowImage, flowWork, readFlow, type FlowRead } from './flow.js';
+import { flowImage, flowWork, readFlow, verifyFlowPeriod, type FlowRead } from './flow.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count' | 'flow-period';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -199,6 +199,8 @@ interface ReadCertificate {
   digits: number;
   /** Kind "flow-periodic-orbit": the time-T map of an ODE and its integration plan (flow.ts). */
   flow: FlowRead | null;
+  /** Claimed enclosure of the flow period p·duration (flow certificates), or null. */
+  flowPeriod: [string, string] | null;
 }
 
 /** The stability claim as text: the class and the enclosures the certificate states. */
@@ -292,7 +294,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   );
   const claims = obj(d.claims, '$.claims');
   for (const k of Object.keys(claims)) {
-    if (!['existence', 'uniqueness', 'minimalPeriod', 'stability'].includes(k)) reject(`$.claims.${k}`, `unknown claim "${k}" cannot be verified`);
+    if (!['existence', 'uniqueness', 'minimalPeriod', 'stability', ...(isFlow ? ['flowPeriod'] : [])].includes(k)) reject(`$.claims.${k}`, `unknown claim "${k}" cannot be verified`);
   }
   if (claims.existence !== true) reject('$.claims.existence', 'claims.existence must be true');
   let radius: string | null = null;
@@ -330,6 +332,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
       );
     }
   }
+  const flowPeriod = isFlow && claims.flowPeriod !== undefined && claims.flowPeriod !== null ? ivl(claims.flowPeriod, '$.claims.flowPeriod') : null;
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
     const h = obj(d.hints, '$.hints');
@@ -338,7 +341,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
-  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits, flow };
+  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits, flow, flowPeriod };
 }
 
 /** The boxes as intervals of the working context, their exact ends, and the centres. */
@@ -568,6 +571,10 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   if (r.stability) {
     verifyStability(s, D, n, r.stability, kinkOnX);
     verified.push('stability');
+  }
+  if (r.flow && r.flowPeriod) {
+    verifyFlowPeriod(r.flow, c, params, p, r.flowPeriod, reject);
+    verified.push('flow-period');
   }
   return { claims: verified, digits: r.digits };
 }

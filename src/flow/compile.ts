@@ -11,6 +11,7 @@
 import type { Arithmetic, IntervalArithmetic } from '../interval/arithmetic.js';
 import { intervalArithmetic } from '../interval/interval-arith.js';
 import type { Interval } from '../interval/interval.js';
+import { decimalOfDouble } from '../interval/decimal-literal.js';
 import { createFloatArithmetic } from '../interval/float-arith.js';
 import { dualArithmetic, type Dual } from '../expr/dual.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
@@ -39,6 +40,12 @@ export interface FlowMap extends CompiledMap {
    * a return map or when an integration refuses.
    */
   plan(boxes: readonly (readonly (readonly [string, string])[])[]): FlowPlanData | null;
+  /**
+   * Time-T map: an enclosure of p·duration (the flow period of a period-p orbit), decimal
+   * strings widened by a relative 1e-15 so the checker's tighter enclosure lies inside; null for
+   * a return map.
+   */
+  flowPeriod(p: number): [string, string] | null;
 }
 
 /** Structurally the certificate's `plan` (src/certificate/types.ts CertificateFlowPlan). */
@@ -101,6 +108,15 @@ export function compileFlowMap(def: MapDefinition, overrides?: ParamOverrides, o
     enclosures,
     options,
     lastRefusal: () => refusal,
+    flowPeriod(p) {
+      if (section) return null;
+      const A = intervalArithmetic();
+      const v = A.mul(A.fromNumber(p), durationOf(A));
+      const lo = A.loDown(v);
+      const hi = A.hiUp(v);
+      if (!A.status.continuous || !(lo > 0) || !Number.isFinite(hi)) return null;
+      return [decimalOfDouble(lo - lo * 1e-15), decimalOfDouble(hi + hi * 1e-15)];
+    },
     plan(boxes) {
       if (section) return null;
       const A = intervalArithmetic();

@@ -382,8 +382,10 @@ export async function certifyOrbits(
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
     // a time-T flow map: the integration plan from each written box, as hints for the checker
-    const flowPlan = def.flow !== undefined && 'plan' in compiled ? (compiled as FlowMap).plan(orbit.boxes) : null;
-    const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}) });
+    const flowMap = def.flow !== undefined && 'plan' in compiled ? (compiled as FlowMap) : null;
+    const flowPlan = flowMap ? flowMap.plan(orbit.boxes) : null;
+    const flowPeriod = flowMap ? flowMap.flowPeriod(opts.period) : null;
+    const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
       force: opts.force ?? false,

@@ -45,14 +45,16 @@ beforeAll(() => {
   const map = compileFlowMap(def);
   const v = proveOrbit(map, [[x0.toNumber(), v0.toNumber()]], { maxBits: 53 });
   if (v.status !== 'proven') throw new Error(`prover: ${v.reason}`);
-  base = buildCertificate(v.orbit, def, { flowPlan: map.plan(v.orbit.boxes) }) as unknown as Doc;
+  base = buildCertificate(v.orbit, def, { flowPlan: map.plan(v.orbit.boxes), flowPeriod: map.flowPeriod(1) }) as unknown as Doc;
 }, 60_000);
 
 describe('prover-written flow certificate, driven damped oscillator (ζ = 0.1, ω = 1.3)', () => {
   it('VERIFIED with every claim; boxes hold the closed-form fixed point, enclosures the multipliers', () => {
     const r = checkCertificate(base);
     expect(r.verdict, r.reason).toBe('VERIFIED');
-    expect(r.claimsVerified).toEqual(['existence', 'uniqueness', 'minimal-period', 'stability']);
+    expect(r.claimsVerified).toEqual(['existence', 'uniqueness', 'minimal-period', 'stability', 'flow-period']);
+    // flow period 2π/ω (closed form of the duration)
+    expect(within(T, base.claims.flowPeriod)).toBe(true);
     const box = base.orbit.boxes[0] as [string, string][];
     expect(within(x0, box[0]!) && within(v0, box[1]!)).toBe(true);
     const st = base.claims.stability;
@@ -85,6 +87,7 @@ describe('prover-written flow certificate, driven damped oscillator (ζ = 0.1, �
     ['the time variable name', (d) => void (d.map.flow.time = 's'), /unknown name 't'/],
     ['a claimed multiplier modulus', (d) => void (d.claims.stability.eigenvalueModuli[0] = ['0.6167', '0.61672']), /does not contain/],
     ['a claimed trace', (d) => void (d.claims.stability.trace = ['0.12', '0.13']), /does not contain/],
+    ['a claimed flow period (2π/ω ± 1e-13, shifted by 1e-12)', (d) => void (d.claims.flowPeriod = [T.add('1e-12').sub('1e-13').toString(), T.add('1e-12').add('1e-13').toString()]), /claimed flow period/],
     ['an unknown key at the top', (d) => void (d.note = 'all orbits'), /unknown key "note"/],
     ['an unknown key in the plan', (d) => void (d.plan.tolerance = '1e-13'), /unknown key "tolerance"/],
     ['an unknown key in a step', (d) => void (steps(d)[0]!.note = 'x'), /unknown key "note"/],

@@ -68,8 +68,11 @@ describe('flow certificates written from closed forms', () => {
       state: ['x'], params: {}, rhs: { x: '-x + cos(t)' }, time: 't', duration: '2*pi', centre: [['0.5']], rad: '1e-9',
       stability: { class: 'attracting', multiplier: widen(mult, '1e-12') }, steps: Array<string>(12).fill('0.5'), order: 14, apriori: [['-2', '2']],
     });
-    const r = checkCertificate(doc);
+    // flow period 2π (closed form); a claim excluding it is refused
+    doc.claims.flowPeriod = widen(D60.acos(-1).times(2), '1e-25');
+    const r = checkCertificate(seal(doc));
     expect(r.verdict, r.reason).toBe('VERIFIED');
+    expect(r.claimsVerified).toContain('flow-period');
     // the same map without the forcing has the fixed point 0, not 1/2: the time variable is used
     doc.map.flow.rhs.x = '-x';
     const r2 = checkCertificate(seal(doc));
