@@ -82,6 +82,7 @@ export function compileFlowMap(def: MapDefinition, overrides?: ParamOverrides, o
   const map: FlowMap = {
     definition,
     dim: n,
+    float64Only: true,
     kind: section ? 'return-map' : 'time-map',
     program,
     enclosures,
