@@ -87,6 +87,11 @@ export interface CompiledMap {
    * multiprecision arithmetic refuses, so candidate points are iterated with `evalFloat`.
    */
   readonly float64Only?: boolean;
+  /**
+   * True when one float evaluation is costly (flows: every evaluation integrates an ODE over
+   * hundreds of Taylor steps): the float search then uses far fewer seeds, attractor seeds first.
+   */
+  readonly costlyFloat?: boolean;
 }
 
 /** Flag of `intervalImage`/`intervalJacobian`: some operation left its domain of continuity (or overflowed). */

@@ -59,8 +59,9 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const enough = opts.enough === undefined ? Infinity : checkCount(opts.enough, 'enough', 0) || Infinity;
   const needDefault = opts.gridPerAxis === undefined || opts.randomSeeds === undefined || opts.attractorSeeds === undefined;
   // own PRNG stream, so the seeds below are what they were before the estimate existed
-  const expansion = needDefault ? estimateExpansion(map, region.lo, region.hi, createRng((opts.seed ?? 1) ^ 0x5bd1e995), 1e6 * (1 + region.scale)) : 0;
-  const effort = defaultEffort(n, p, expansion, effortFactor);
+  const costly = map.costlyFloat === true;
+  const expansion = needDefault && !costly ? estimateExpansion(map, region.lo, region.hi, createRng((opts.seed ?? 1) ^ 0x5bd1e995), 1e6 * (1 + region.scale)) : 0;
+  const effort = defaultEffort(n, p, expansion, effortFactor, costly);
   const grid = checkCount(opts.gridPerAxis, 'gridPerAxis', effort.grid);
   const randomSeedCount = checkCount(opts.randomSeeds, 'randomSeeds', effort.random);
   const attractorSeedCount = checkCount(opts.attractorSeeds, 'attractorSeeds', effort.attractor);
@@ -94,7 +95,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   // the orbit through `near` itself first: Newton from near, f(near), …, f^{p−1}(near)
   if (opts.near !== undefined) iteratedSeed(ctx, opts.near);
   // attractor seeds first when stopping early on a long shooting vector (what finds such orbits)
-  const attractorFirst = enough !== Infinity && p * n > 50;
+  const attractorFirst = (enough !== Infinity && p * n > 50) || costly;
   if (attractorFirst) attractorSeeds(ctx, attractorSeedCount, rng, collector.tolerance());
   gridSeeds(ctx, grid);
   randomSeeds(ctx, randomSeedCount, rng);
