@@ -19,6 +19,8 @@ import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
 import type { Tape } from '../expr/tape.js';
 import { ValidatedFlow } from './integrate.js';
 import { SeriesEngine } from './taylor.js';
+import { FloatSeries } from './float-series.js';
+import { createFloatArithmetic } from '../interval/float-arith.js';
 
 export interface SectionSpec {
   /** The surface g over the state names, one output. */
@@ -37,6 +39,12 @@ export class ReturnMapEvaluator<T> {
   private readonly sgn: T;
   private readonly gOut: T[];
   private readonly gJac: T[];
+  // @heuristic float side: where to look for the crossing time
+  private readonly floatSeries: FloatSeries;
+  private readonly gFloat: TapeEvaluator<number>;
+  private readonly gFloatOut = [0];
+  private readonly floatX: number[];
+  private readonly sign: number;
 
   constructor(readonly flow: ValidatedFlow<T>, section: SectionSpec, params: readonly ParamEnclosure[]) {
     this.A = flow.A;
@@ -46,6 +54,10 @@ export class ReturnMapEvaluator<T> {
     this.sgn = this.A.fromNumber(section.sign);
     this.gOut = [this.A.fromNumber(0)];
     this.gJac = new Array<T>(this.n).fill(this.A.fromNumber(0));
+    this.floatSeries = new FloatSeries(flow.prog, params, flow.order, false);
+    this.gFloat = new TapeEvaluator<number>(section.tape, createFloatArithmetic(), params);
+    this.floatX = new Array<number>(this.n).fill(0);
+    this.sign = section.sign;
   }
 
   /** s·g over a box. */
@@ -65,6 +77,39 @@ export class ReturnMapEvaluator<T> {
       s = A.add(s, A.mul(this.gJac[i]!, f[i]!));
     }
     return A.mul(this.sgn, s);
+  }
+
+  /**
+   * @heuristic Crossing time in [0, h] of the float trajectory from the point c (bisection on its
+   * Taylor polynomial for s·g from < 0 to ≥ 0); null when s·g is not < 0 at 0 and ≥ 0 at h.
+   * Also leaves that polynomial in `floatSeries` for `floatPointAt`.
+   */
+  private floatCrossing(c: ArrayLike<number>, h: number): number | null {
+    const P = this.floatSeries.maxOrder;
+    this.floatSeries.run(c, 0, P - 1);
+    const sgAt = (t: number): number => {
+      for (let i = 0; i < this.n; i++) this.floatX[i] = this.floatSeries.stateAt(i, 0, t, P);
+      this.gFloat.image(this.floatX, this.gFloatOut);
+      return this.sign * this.gFloatOut[0]!;
+    };
+    if (!(sgAt(0) < 0 && sgAt(h) >= 0)) return null;
+    let lo = 0;
+    let hi = h;
+    for (let it = 0; it < 80 && hi - lo > 0; it++) {
+      const m = 0.5 * (lo + hi);
+      if (m <= lo || m >= hi) break;
+      if (sgAt(m) < 0) lo = m;
+      else hi = m;
+    }
+    return 0.5 * (lo + hi);
+  }
+
+  /** The point (as a degenerate box) of the last float polynomial at time t. */
+  private floatPointAt(t: number): T[] {
+    const P = this.floatSeries.maxOrder;
+    const out = new Array<T>(this.n);
+    for (let i = 0; i < this.n; i++) out[i] = this.A.fromNumber(this.floatSeries.stateAt(i, 0, t, P));
+    return out;
   }
 
   private pos(v: T): boolean {
@@ -152,27 +197,25 @@ export class ReturnMapEvaluator<T> {
     if (endBox === null) throw ValidatedFlow.refusal('the a priori enclosure failed on a repeated step');
     const gEnd = this.sg(endBox);
     if (this.neg(gEnd)) return null;
-    // @heuristic crossing time of the centre: bisection on point probes
-    let lo = 0;
-    let hi = h;
-    for (let it = 0; it < 60 && hi - lo > 1e-15 * (1 + h); it++) {
-      const m = 0.5 * (lo + hi);
-      const bx = probe(A.fromNumber(m), m);
-      if (bx === null) break;
-      const v = A.midNumber(this.sg(bx));
-      if (v < 0) lo = m;
-      else hi = m;
-    }
-    const tStar = 0.5 * (lo + hi);
-    // widen a bracket around tStar until both ends are certain
-    let eps = Math.max(1e-14, 4 * (hi - lo));
+    // @heuristic crossing time of the centre's trajectory, on its float Taylor polynomial (no
+    // validated steps); then a bracket around it whose ends are certain (validated probes)
+    F.restore(start);
+    const startBox = F.box();
+    const tStar = this.floatCrossing(F.centre(), h);
+    if (tStar === null) return { ok: false, reason: 'the crossing time could not be bracketed' };
+    // first half-width: the spread of g over the box divided by the crossing speed
+    const speed = A.midNumber(this.sdg(this.floatPointAt(tStar), new Array<T>(n)));
+    const spread = A.widUp(this.sg(startBox));
+    let eps = Math.max(1e-14 * (1 + h), speed > 0 && Number.isFinite(spread / speed) ? 0.75 * (spread / speed) : 0);
     for (let it = 0; it < 40; it++, eps *= 4) {
       const a = Math.max(0, tStar - eps);
       const b = Math.min(h, tStar + eps);
-      const ga = a === 0 ? null : probe(A.fromNumber(a), a);
-      const aOk = a === 0 ? false : ga !== null && this.neg(this.sg(ga));
-      if (!aOk && a > 0) continue;
-      if (a === 0) return { ok: false, reason: 'the crossing is too close to a step boundary to bracket' };
+      // s·g < 0 at time a for the whole set (at a = 0: on the step's starting box)
+      const ga = a === 0 ? startBox : probe(A.fromNumber(a), a);
+      if (ga === null || !this.neg(this.sg(ga))) {
+        if (a === 0) return { ok: false, reason: 'the crossing is too close to a step boundary to bracket' };
+        continue;
+      }
       const gb = probe(A.fromNumber(b), b);
       if (gb === null || !this.pos(this.sg(gb))) {
         if (b === h) return { ok: false, reason: 'the crossing time could not be bracketed' };
