@@ -36,6 +36,13 @@ describe('Lorenz (sigma = 10, rho = 28, beta = 8/3), section z = 27 crossed down
     expect(orbit.minimalPeriod).toBe(2);
     expect(orbit.boxes[0]![2]![0]).not.toBe(orbit.boxes[0]![2]![1]); // z is enclosed, not assumed
     expect(inPair(27, orbit.boxes[0]![2]!)).toBe(true);
+    // a saddle: the return map's eigenvalues are 0 (the flow direction, cut away by the section),
+    // the stable and the unstable Floquet multiplier (Lorenz 1963: all periodic orbits on the
+    // attractor are unstable); the moduli (fast engine only) separate into two below 1, one above
+    expect(orbit.stability.class).toBe('saddle');
+    const moduli = orbit.stability.proverOnly!.eigenvalueModuli;
+    expect(moduli.filter(([, hi]) => new D(hi).lt(1))).toHaveLength(2);
+    expect(moduli.filter(([lo]) => new D(lo).gt(1))).toHaveLength(1);
   });
 
   it('its flow period encloses T = 1.5586522 to the 7 decimals published (Viswanath 2003, from memory)', () => {
