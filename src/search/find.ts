@@ -65,7 +65,8 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const grid = checkCount(opts.gridPerAxis, 'gridPerAxis', effort.grid);
   const randomSeedCount = checkCount(opts.randomSeeds, 'randomSeeds', effort.random);
   const attractorSeedCount = checkCount(opts.attractorSeeds, 'attractorSeeds', effort.attractor);
-  const maxIterations = checkCount(opts.maxIterations, 'maxIterations', 40);
+  // a flow's Newton step costs milliseconds: seeds that have not converged in 15 steps rarely do
+  const maxIterations = checkCount(opts.maxIterations, 'maxIterations', costly ? 15 : 40);
   const rng = createRng(opts.seed ?? 1);
 
   // The box seeds are drawn from: the region, or a box around `near` clipped to the region.
