@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 import { buildCertificate } from '../src/certificate/build.js';
 import { checkCertificate } from '../src/checker/index.js';
 import { compileFlowMap } from '../src/flow/compile.js';
+import { encloseFlowPeriod } from '../src/flow/period.js';
 import type { MapDefinition } from '../src/model/types.js';
 import { proveOrbit } from '../src/prove/orbit.js';
 
@@ -28,7 +29,8 @@ export async function runFlowCheckBench(): Promise<string[]> {
     const map = compileFlowMap(def);
     const v = proveOrbit(map, [start], { maxBits: 53 });
     if (v.status !== 'proven') throw new Error(`${name}: not proven (${v.reason})`);
-    const cert = buildCertificate(v.orbit, def, { flowPlan: map.plan(v.orbit.boxes), flowPeriod: map.flowPeriod(1) });
+    const period = encloseFlowPeriod(map, v.orbit.boxes);
+    const cert = buildCertificate(v.orbit, def, { flowPlan: map.plan(v.orbit.boxes), ...(period.ok ? { flowPeriod: [period.decimal.lo, period.decimal.hi] as [string, string] } : {}) });
     const prove = performance.now() - t0;
     const t1 = performance.now();
     const r = checkCertificate(cert);

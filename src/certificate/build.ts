@@ -55,7 +55,7 @@ export interface BuildCertificateOptions {
   producerVersion?: string;
   /** A time-T flow map's integration plan (hints for the checker), from `FlowMap.plan`. */
   flowPlan?: CertificateFlowPlan | null;
-  /** A time-T flow map's flow period p·duration, from `FlowMap.flowPeriod` (a claim). */
+  /** A time-T flow map's flow period p·duration, from `encloseFlowPeriod` (src/flow/period.ts; a claim). */
   flowPeriod?: DecimalInterval | null;
 }
 

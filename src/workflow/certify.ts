@@ -12,12 +12,12 @@ import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertific
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
-import type { FlowMap } from '../flow/compile.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
 import { proveOrbit } from '../prove/index.js';
 import type { ProvenOrbit } from '../prove/types.js';
 import { candidatesByDistance, findCandidates, type Candidate } from '../search/index.js';
 import { iterateFromStart } from './start.js';
+import { encloseFlowPeriod, isFlowMap } from '../flow/period.js';
 import { defaultWorkerCount, runPool, workersAvailable } from './pool.js';
 import type { ProveTask, ProveTaskResult } from './prove-task.js';
 
@@ -111,10 +111,15 @@ export interface OrbitOutcome {
   orbit?: ProvenOrbit;
   certificatePath?: string;
   check?: CheckReport;
+  /**
+   * For a proven orbit of a flow map: an enclosure [lo, hi] (exact decimals) of the flow period
+   * (sum of the return times, or p·T for a time-T map; src/flow/period.ts), or why there is none.
+   */
+  flowPeriod?: { lo: string; hi: string } | { refused: string };
 }
 
 export interface CertifyReport {
-  map: { title: string; origin?: string; state: string[] };
+  map: { title: string; origin?: string; state: string[]; flow?: 'time-map' | 'return-map' };
   period: number;
   candidatesFound: number;
   /** Parameters given as intervals (a proof must then hold for every value in them). */
@@ -381,10 +386,12 @@ export async function certifyOrbits(
     }
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
-    // a time-T flow map: the integration plan from each written box, as hints for the checker
-    const flowMap = def.flow !== undefined && 'plan' in compiled ? (compiled as FlowMap) : null;
-    const flowPlan = flowMap ? flowMap.plan(orbit.boxes) : null;
-    const flowPeriod = flowMap ? flowMap.flowPeriod(opts.period) : null;
+    // a flow map: its flow period (shown in the table); a time-T map also records the integration
+    // plan from each written box (hints for the checker) and the period as a claim it verifies
+    const T = isFlowMap(compiled) ? encloseFlowPeriod(compiled, orbit.boxes) : null;
+    const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
+    const flowPlan = timeMap ? timeMap.plan(orbit.boxes) : null;
+    const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
     const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
@@ -392,6 +399,7 @@ export async function certifyOrbits(
       dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
+    if (T) outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
     if (checkOn && def.flow?.section !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
     } else if (checkOn) {
@@ -437,7 +445,12 @@ export async function certifyOrbits(
       (o) => (o.status === 'verified' || (!checkOn && o.status === 'prover-only')) && o.orbit?.minimalPeriod === opts.period,
     );
   return {
-    map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
+    map: {
+      title: def.title,
+      ...(def.origin !== undefined ? { origin: def.origin } : {}),
+      state: [...def.state],
+      ...(isFlowMap(compiled) ? { flow: compiled.kind } : {}),
+    },
     period: opts.period,
     candidatesFound: found.length,
     source,

@@ -10,6 +10,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { checkCertificate } from '../../src/checker/index.js';
 import { buildCertificate } from '../../src/certificate/build.js';
 import { compileFlowMap } from '../../src/flow/compile.js';
+import { encloseFlowPeriod } from '../../src/flow/period.js';
 import { parseMapSource } from '../../src/model/load.js';
 import { proveOrbit } from '../../src/prove/orbit.js';
 import { readFileSync } from 'node:fs';
@@ -45,7 +46,9 @@ beforeAll(() => {
   const map = compileFlowMap(def);
   const v = proveOrbit(map, [[x0.toNumber(), v0.toNumber()]], { maxBits: 53 });
   if (v.status !== 'proven') throw new Error(`prover: ${v.reason}`);
-  base = buildCertificate(v.orbit, def, { flowPlan: map.plan(v.orbit.boxes), flowPeriod: map.flowPeriod(1) }) as unknown as Doc;
+  const period = encloseFlowPeriod(map, v.orbit.boxes);
+  if (!period.ok) throw new Error(`flow period: ${period.reason}`);
+  base = buildCertificate(v.orbit, def, { flowPlan: map.plan(v.orbit.boxes), flowPeriod: [period.decimal.lo, period.decimal.hi] }) as unknown as Doc;
 }, 60_000);
 
 describe('prover-written flow certificate, driven damped oscillator (ζ = 0.1, ω = 1.3)', () => {
