@@ -30,7 +30,11 @@
  *     ∂x_k/∂x (φ(s, x), s)·V(s). With L ≥ ‖DF(Y, t + [0,h])‖∞ and q = h·L < 1, Gronwall gives
  *     ‖V(s) − I‖∞ ≤ e^q − 1 ≤ q/(1 − q) =: ε on [0, h], so V(s) ∈ W = I ± ε entrywise, and
  *     Dφ_h(x) ∈ J + h^{P+1}·∂x_{P+1}/∂x (Y)·W for x ∈ X̂. The map's Jacobian over the start box
- *     is the interval product of these matrices (chain rule, S ⊇ φ(t, start box) at every step).
+ *     is the product of these matrices (chain rule, S ⊇ φ(t, start box) at every step), carried in
+ *     the same frames against wrapping: Dφ_k ∈ B_k·V_k with V_0 = I (B_0 = I) and
+ *     V_{k+1} = B_{k+1}^{-1}·(J_full·B_k)·V_k (the enclosure of B_{k+1}^{-1} from step 4), since
+ *     Dφ_{k+1} = J_full·Dφ_k = B_{k+1}·(B_{k+1}^{-1}·J_full·B_k)·V_k for the exact frame matrices;
+ *     the plain product Π J_full encloses the same matrix, and the result is the intersection.
  * The last step runs from the sum of the hinted step sizes to the duration (an interval: h is then
  * an interval, and steps 1–5 hold for every h in it); it must be positive.
  *
@@ -271,7 +275,10 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
   let m: Iv[] = x.map((v) => c.point(c.midpoint(v)));
   let r: Iv[] = x.map((v, i) => c.sub(v, m[i]!));
   let B: Mat = identity(c, n);
+  // the derivative in the same frames: Dφ ∈ B·V (header, step 5)
   let V: Mat | null = grad ? identity(c, n) : null;
+  let Vplain: Mat | null = grad ? identity(c, n) : null;
+  let Jfull: Mat | null = null;
   let t: Iv = c.zero;
   for (let j = 0; j < steps.length; j++) {
     const hint = steps[j]!;
@@ -334,7 +341,8 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
       const eps = c.Up.div(q, c.Down.sub(1, q));
       const W = identity(c, n).map((v) => c.add(v, c.sym(eps)));
       const R = matMul(c, remD!, W, n);
-      V = matMul(c, J.map((v, k) => c.add(v, R[k]!)), V, n);
+      Jfull = J.map((v, k) => c.add(v, R[k]!));
+      Vplain = matMul(c, Jfull, Vplain!, n);
     }
     // 4. wrapping control
     const JB = matMul(c, J, B, n);
@@ -350,6 +358,7 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
       Bn = identity(c, n);
       Binv = Bn;
     }
+    if (V) V = matMul(c, matMul(c, Binv, matMul(c, Jfull!, B, n), n), V, n);
     const shift = matVec(c, Binv, z, n);
     r = matVec(c, matMul(c, Binv, JB, n), r, n).map((v, i) => c.add(v, shift[i]!));
     m = mNew;
@@ -362,5 +371,15 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     return s;
   });
   for (const v of f) if (!v.lo.isFinite() || !v.hi.isFinite()) throw new DomainViolation('the flow enclosure became unbounded');
-  return { f, jac: V };
+  if (!V) return { f, jac: null };
+  // both products enclose the same exact matrix: their intersection does too
+  const framed = matMul(c, B, V, n);
+  const jac = framed.map((u, k) => {
+    const v = Vplain![k]!;
+    const lo = c.Down.max(u.lo, v.lo);
+    const hi = c.Up.min(u.hi, v.hi);
+    if (lo.gt(hi)) throw new Error('internal: disjoint enclosures of the flow derivative');
+    return { lo, hi };
+  });
+  return { f, jac };
 }
