@@ -20,6 +20,10 @@ const CASES: [string, MapDefinition, number[]][] = [
     title: 'driven', state: ['x', 'v'], params: { zeta: exact('0.1'), omega: exact('1.3') }, step: {}, region: { x: ['-2', '2'], v: ['-2', '2'] },
     flow: { rhs: { x: 'v', v: '-x - 2*zeta*v + cos(omega*t)' }, time: 't', duration: '2*pi/omega' },
   }, [-1.2690822144565, 0.62166636012507]],
+  ['forced Duffing (catalogue), time-2π map, saddle', {
+    title: 'duffing', state: ['x', 'v'], params: { delta: exact('0.25'), gamma: exact('0.3'), omega: exact('1') }, step: {}, region: { x: ['-2', '2'], v: ['-2', '2'] },
+    flow: { rhs: { x: 'v', v: '-delta*v + x - x^3 + gamma*cos(omega*t)' }, time: 't', duration: '2*pi/omega' },
+  }, [-1.10194568415, 0.63646233831]],
 ];
 
 export async function runFlowCheckBench(): Promise<string[]> {
