@@ -61,6 +61,7 @@ export function windowClaimText(cert: WindowCertificateV1): string {
       ? `it is ${[...classes][0]} throughout`
       : `its stability per piece is listed below (${classCounts(cert)})`;
   const gaps = cert.gaps.length;
+  if (n === 0) return `No piece of [${cert.range[0]}, ${cert.range[1]}] is proven: nothing is claimed (the ${gaps} gap${gaps === 1 ? '' : 's'} and their reasons are listed below).`;
   return (
     `For every ${P} in each of the ${n} proven piece${n === 1 ? '' : 's'} of [${cert.range[0]}, ${cert.range[1]}] (total length ${piecesLength(cert)}), ` +
     `the map “${cert.map.title}”${others ? ` (with ${others} exactly)` : ''} has exactly one periodic orbit of period ${p} in that piece's boxes` +

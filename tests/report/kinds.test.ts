@@ -1,12 +1,13 @@
 // The report's views of the other certificate kinds (window, edge, absence, count, flow), on
 // certificates written by the real commands (kinds-fixture.ts) and re-checked by the checker.
 // Check values and their sources are noted beside each.
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { CertificateV1, CountCertificateV1, WindowCertificateV1 } from '../../src/certificate/types.js';
+import { runCli } from '../../src/cli/program.js';
 import { decodeCover } from '../../src/report/count.js';
 import { floatFlow } from '../../src/report/flow-float.js';
 import { collectEntries, kindView, registeredKinds, renderReportHtml, type ReportEntry } from '../../src/report/index.js';
@@ -116,6 +117,27 @@ describe('periodic-orbit-count view', () => {
       expect(count(p.svg, /class="proof-box zero-leaf"/g)).toBe(p.boxes);
       expect(p.svg).toContain('class="depth-cells"');
     }
+  });
+
+  it('a 2-D count (Hénon map) is drawn on the plane of the first point, its undecided leaves highlighted', async () => {
+    // a count whose cover stays partly undecided: the counts are lower bounds and the plot shows where
+    const dir = join(work, 'henon');
+    mkdirSync(dir, { recursive: true });
+    const r = await runCli(['count', 'henon', '--period', '2', '--upto', '--out', 'henon-count.json', '--no-check'], { cwd: dir });
+    expect(r.exitCode, r.stderr).toBeLessThanOrEqual(1);
+    const [e] = collectEntries([join(dir, 'henon-count.json')], dir);
+    expect(e!.verdict).toBe('VERIFIED');
+    const cert = e!.certificate as unknown as CountCertificateV1;
+    const v = kindView('periodic-orbit-count')!.render(e!.certificate!, 'h');
+    cert.counts.forEach((c, i) => {
+      const svg = v.plots[i]!.svg;
+      // the certificate's own (re-verified) numbers of '?' and '*' leaves are what the plot draws
+      expect(count(svg, /class="proof-box undecided-leaf"/g)).toBe(c.claims.undecidedBoxes);
+      expect(count(svg, /class="proof-box zero-leaf"/g)).toBe(c.pieces.join('').split('*').length - 1);
+      expect(svg).toContain(c.period === 1 ? '>y</text>' : '>y_0</text>');
+      if (c.claims.undecidedBoxes > 0) expect(v.claim).toMatch(new RegExp(`period ${c.period}: at least`));
+    });
+    expect(v.summary.stability).toBe(cert.counts.every((c) => c.claims.undecidedBoxes === 0 && c.claims.undecidedZeros === 0) ? 'exact counts' : 'lower bounds');
   });
 
   it('the decoded cover tiles region^p: leaf volumes add up to the region volume (derived by hand: a tiling)', () => {
