@@ -57,6 +57,7 @@ export function floatFlow(map: CertificateMap): FloatFlow | undefined {
   const input = new Float64Array(dim);
   const k = [0, 1, 2, 3].map(() => new Float64Array(dim));
   const tmp = new Float64Array(dim);
+  const before = new Float64Array(dim);
   const evalAt = (y: Float64Array, out: Float64Array) => field.evalFloat(y, out);
   const rk4 = (y: Float64Array, h: number) => {
     evalAt(y, k[0]!);
@@ -111,7 +112,7 @@ export function floatFlow(map: CertificateMap): FloatFlow | undefined {
       let prev = g(input);
       const every = Math.max(1, Math.floor(MAX_STEPS / (KEEP * 50)));
       for (let s = 0; s < MAX_STEPS; s++) {
-        const before = Float64Array.from(input);
+        before.set(input);
         rk4(input, h);
         t += h;
         if (!input.every(Number.isFinite)) return undefined;

@@ -205,6 +205,19 @@ describe('flow-periodic-orbit view', () => {
   });
 });
 
+describe('float flow to a section (illustration only)', () => {
+  it('the harmonic oscillator returns to the section y = 0 (downwards) after 2π at its start point (closed form)', () => {
+    const map = { title: 'rotation', state: ['x', 'y'], params: {}, step: {}, flow: { rhs: { x: 'y', y: '-x' }, section: { surface: 'y', crossing: 'decreasing' as const } } };
+    for (const a of [0.5, 1, 3]) {
+      const seg = floatFlow(map)!.segment([a, 0])!;
+      expect(seg.time).toBeCloseTo(2 * Math.PI, 4);
+      const end = seg.points.at(-1)!;
+      expect(end[0]!).toBeCloseTo(a, 4);
+      expect(Math.abs(end[1]!)).toBeLessThan(1e-4);
+    }
+  });
+});
+
 describe('the folder bifurcation diagram overlays windows, gaps, absences and edges', () => {
   it('one diagram for the logistic map with 1 window band, every gap, 1 absence band and 2 edge lines', () => {
     const { html, plots } = renderReportHtml(entries);
