@@ -193,13 +193,17 @@ function render(raw: object, entryId: string): EntryView {
   for (const s of cert.map.state) facts.push([`${s}'`, cert.map.step[s]!]);
   facts.push(['parameters', paramsText(cert.map.params)]);
   facts.push(['region', cert.map.state.map((s, i) => `${s} ∈ [${cert.region[i]![0]}, ${cert.region[i]![1]}]`).join(', ')]);
-  for (const e of counts) {
+  const rows = counts.map((e) => {
     const minimal = e.claims.orbitsByMinimalPeriod[String(e.period)] ?? 0;
-    facts.push([
-      `period ${e.period}`,
-      `${exact(e) ? '' : 'at least '}${minimal} orbit${minimal === 1 ? '' : 's'} of minimal period ${e.period}; ${e.claims.zeros} points in all (${byPeriodText(e)}); undecided: ${e.claims.undecidedBoxes} leaves, ${e.claims.undecidedZeros} zeros`,
-    ]);
-  }
+    const lower = Object.entries(e.claims.orbitsByMinimalPeriod)
+      .filter(([d, k]) => Number(d) !== e.period && k > 0)
+      .sort((a, b) => Number(a[0]) - Number(b[0]))
+      .map(([d, k]) => `${k}×p${d}`)
+      .join(' ');
+    const undecided = exact(e) ? '—' : `${e.claims.undecidedBoxes} leaves, ${e.claims.undecidedZeros} zeros`;
+    return [String(e.period), `${exact(e) ? '' : '≥ '}${minimal}`, lower || '—', String(e.claims.zeros), undecided];
+  });
+  facts.push(['counts', counts.every(exact) ? 'exact (no undecided leaf or zero)' : 'lower bounds where a period has undecided leaves or zeros']);
   if (chosen.length < counts.length) facts.push(['plots', `periods ${chosen.map((e) => e.period).join(', ')} of ${counts.length} are drawn`]);
   const last = counts[counts.length - 1]!;
   const periods = counts.length === 1 ? `period ${last.period}` : `periods ${counts[0]!.period}–${last.period}`;
@@ -208,6 +212,13 @@ function render(raw: object, entryId: string): EntryView {
     claim: countClaimText(cert),
     facts,
     plots,
+    tables: [
+      {
+        caption: 'Orbits per period: of minimal period p, of the lower periods d dividing p, the points x with f^p(x) = x in the region, and what stayed undecided.',
+        head: ['period p', 'orbits of minimal period p', 'lower periods', 'points', 'undecided'],
+        rows,
+      },
+    ],
     summary: {
       map: cert.map.title,
       what: `count, ${periods}: ${counts.map((e) => `${e.claims.orbitsByMinimalPeriod[String(e.period)] ?? 0}${exact(e) ? '' : '+'}`).join(', ')} orbit(s) of minimal period`,

@@ -45,6 +45,8 @@ export interface EntryView {
   /** Label → value lines (map formulas, parameters, enclosures). */
   facts: [string, string][];
   plots: Plot[];
+  /** Tables shown after the facts (plain text cells; the HTML layer escapes them). */
+  tables?: { caption: string; head: string[]; rows: string[][] }[];
   /** One row of the summary table. */
   summary: { map: string; what: string; parameters: string; stability: string };
 }

@@ -175,17 +175,19 @@ function render(raw: object, entryId: string): EntryView {
   facts.push(['period', String(cert.period)]);
   facts.push([`${P} range`, ivText(cert.range)]);
   facts.push(['proven pieces', `${cert.pieces.length} (${classCounts(cert)}), total length ${piecesLength(cert)}, ${branches(cert)} branch${branches(cert) === 1 ? '' : 'es'} of joined pieces`]);
-  const shown = Math.min(cert.pieces.length, 6);
-  for (let i = 0; i < shown; i++) {
-    const piece = cert.pieces[i]!;
-    const m = piece.stability.multiplier ? `, Λ ∈ ${formatInterval(piece.stability.multiplier, 6)}` : '';
-    facts.push([`piece ${i + 1}`, `${P} ∈ ${ivText(piece.param)}: ${piece.stability.class}${m}`]);
-  }
-  if (cert.pieces.length > shown) facts.push(['', `… ${cert.pieces.length - shown} more pieces in the certificate`]);
   facts.push(['gaps (nothing claimed)', cert.gaps.length === 0 ? 'none' : String(cert.gaps.length)]);
-  cert.gaps.slice(0, 8).forEach((g, i) => facts.push([`gap ${i + 1}`, `${P} ∈ ${ivText(g.param)}: ${g.reason}`]));
-  if (cert.gaps.length > 8) facts.push(['', `… ${cert.gaps.length - 8} more gaps in the certificate`]);
   facts.push(['legend', STABILITY_LEGEND]);
+  // pieces and gaps in parameter order, as one table (long windows: the first rows and a count)
+  const rows: { lo: number; row: string[] }[] = [];
+  cert.pieces.forEach((piece, i) => {
+    const m = piece.stability.multiplier ? formatInterval(piece.stability.multiplier, 6) : '—';
+    rows.push({ lo: num(piece.param[0]), row: [`piece ${i + 1}`, piece.param[0], piece.param[1], piece.stability.class, m] });
+  });
+  cert.gaps.forEach((g, i) => rows.push({ lo: num(g.param[0]), row: [`gap ${i + 1}`, g.param[0], g.param[1], `nothing claimed: ${g.reason}`, '—'] }));
+  rows.sort((a, b) => a.lo - b.lo);
+  const MAX_ROWS = 16;
+  const tableRows = rows.slice(0, MAX_ROWS).map((r) => r.row);
+  if (rows.length > MAX_ROWS) tableRows.push(['…', '', '', `${rows.length - MAX_ROWS} more rows in the certificate`, '']);
 
   const classes = [...new Set(cert.pieces.map((p) => p.stability.class))].join(', ');
   return {
@@ -193,6 +195,7 @@ function render(raw: object, entryId: string): EntryView {
     claim: windowClaimText(cert),
     facts,
     plots,
+    tables: [{ caption: `Pieces (proven for every ${P} in them) and gaps (nothing claimed), in ${P} order.`, head: ['', `${P} from`, 'to', 'orbit', 'multiplier Λ'], rows: tableRows }],
     summary: {
       map: cert.map.title,
       what: `window, period ${cert.period}: ${cert.pieces.length} pieces, ${cert.gaps.length} gaps`,

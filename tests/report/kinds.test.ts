@@ -61,7 +61,9 @@ describe('periodic-window view', () => {
     const mult = v.plots.find((p) => p.id === 'w-multiplier')!;
     expect(count(mult.svg, /class="reference"/g)).toBe(2);
     expect(mult.boxes).toBe(cert.pieces.length);
-    expect(v.facts.find(([k]) => k === 'gap 1')![1]).toMatch(/^r ∈ \[3\.8284, /);
+    const rows = v.tables![0]!.rows;
+    expect(rows[0]!.slice(0, 2)).toEqual(['gap 1', '3.8284']); // the range starts with a gap
+    expect(rows.filter((r) => r[0]!.startsWith('gap')).length).toBe(cert.gaps.length);
   });
 });
 
@@ -108,9 +110,14 @@ describe('periodic-orbit-count view', () => {
     const v = kindView('periodic-orbit-count')!.render(cert, 'c');
     // A001037 (binary Lyndon words = orbits of minimal period n of the full 2-shift): 2, 1, 2, 3, …;
     // for 1 + √8 < r ≤ 4 the logistic map has all of its period-1, 2 and 3 orbits (Saha & Strogatz 1995)
-    expect(v.facts.find(([k]) => k === 'period 1')![1]).toMatch(/^2 orbits of minimal period 1;/);
-    expect(v.facts.find(([k]) => k === 'period 2')![1]).toMatch(/^1 orbit of minimal period 2;/);
-    expect(v.facts.find(([k]) => k === 'period 3')![1]).toMatch(/^2 orbits of minimal period 3;/);
+    const rows = v.tables![0]!.rows;
+    expect(rows.slice(0, 3).map((r) => r.slice(0, 2))).toEqual([
+      ['1', '2'],
+      ['2', '1'],
+      ['3', '2'],
+    ]);
+    expect(rows[2]![2]).toBe('2×p1'); // the two fixed points are period-3 points too
+    expect(rows[2]![3]).toBe('8');
     expect(v.claim).toMatch(/period 3: exactly 8 points/); // 2 fixed points + 2 × 3 (derived by hand)
     expect(v.plots.map((p) => p.id)).toEqual(['c-cover-p1', 'c-cover-p2', 'c-cover-p3', 'c-cover-p4']);
     for (const p of v.plots) {
