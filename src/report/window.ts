@@ -30,10 +30,7 @@ export function piecesLength(cert: WindowCertificateV1): string {
 /** Runs of pieces joined to the next one (the same continued orbit across the joints). */
 export function branches(cert: WindowCertificateV1): number {
   let k = 0;
-  cert.pieces.forEach((p, i) => {
-    if (i === 0 || !cert.pieces[i - 1]!.joinedToNext) k++;
-    void p;
-  });
+  for (let i = 0; i < cert.pieces.length; i++) if (i === 0 || !cert.pieces[i - 1]!.joinedToNext) k++;
   return k;
 }
 
