@@ -7,6 +7,7 @@
  * The cover is decoded as docs/certificate-format.md describes it, in floats (drawing only).
  */
 import { COUNT_ALPHABET, type CountCertificateV1, type CountPeriodEntry } from '../certificate/types.js';
+import { floatMap } from './map-eval.js';
 import { paramsText } from './periodic-orbit.js';
 import { axes, boxRect, clipDefs, esc, FRAME, frameScales, padRange, px, svgDocument, type Frame } from './svg.js';
 import type { EntryView, KindView, Plot } from './types.js';
@@ -172,6 +173,49 @@ export function coverPlot(cert: CountCertificateV1, e: CountPeriodEntry, id: str
   return { id, title, description, svg: svgDocument(id, frame, title, description, parts.join('')), boxes: drawn };
 }
 
+/**
+ * For a 1-D map: the leaves that hold a zero, as boxes (x_i, x_(i+1)) on the graph of f (float,
+ * for orientation) with the diagonal: where the counted orbits' points are.
+ */
+export function orbitPointsPlot(cert: CountCertificateV1, e: CountPeriodEntry, id: string): Plot {
+  const frame: Frame = { ...FRAME, width: 360 };
+  const p = e.period;
+  const [x0, x1] = [num(cert.region[0]![0]), num(cert.region[0]![1])];
+  const range = padRange(x0, x1, 0.04);
+  const { x, y } = frameScales(frame, range, range);
+  const v = cert.map.state[0]!;
+  const parts: string[] = [clipDefs(id, frame), axes(frame, x, y, v, `${v}'`), `<g clip-path="url(#${esc(id)}-clip)">`];
+  parts.push(`<line class="diagonal" x1="${px(x(range[0]))}" y1="${px(y(range[0]))}" x2="${px(x(range[1]))}" y2="${px(y(range[1]))}" stroke="#666" stroke-dasharray="4 3"/>`);
+  const f = floatMap(cert.map, { [v]: cert.region[0]! });
+  if (f) {
+    const d: string[] = [];
+    for (let k = 0; k <= 300; k++) {
+      const t = x0 + ((x1 - x0) * k) / 300;
+      const w = f([t])[0]!;
+      if (Number.isFinite(w)) d.push(`${d.length ? 'L' : 'M'}${px(x(t))} ${px(Math.max(-1e4, Math.min(1e4, y(w))))}`);
+    }
+    parts.push(`<path class="graph" d="${d.join('')}" fill="none" stroke="#000" stroke-width="1.2"/>`);
+  }
+  let drawn = 0;
+  let leaves = 0;
+  decodeCover(cert, e, (l) => {
+    if (l.mark !== '*' || drawn >= MAX_MARKED) return;
+    leaves++;
+    for (let i = 0; i < p && drawn < MAX_MARKED; i++) {
+      const j = (i + 1) % p;
+      parts.push(boxRect(x, y, l.lo[i]!, l.hi[i]!, l.lo[j]!, l.hi[j]!, 'proof-box zero-leaf', 'fill="#1d3557" stroke="#000" stroke-width="1"', `leaf ${leaves}: (${v}_${i}, ${v}_${j})`));
+      drawn++;
+    }
+  });
+  parts.push('</g>');
+  const title = `Counted orbits of period ${p} on the graph of the map`;
+  const description =
+    `For each of the ${leaves} cover leaves that hold one zero, its ${p} pair${p === 1 ? '' : 's'} of consecutive components (${v}_i, ${v}_(i+1)) as boxes, drawn at least 6 px wide: ` +
+    `the points of the counted orbits (a leaf, slightly inflated, holds its zero; neighbouring leaves may share one). Solid curve: the graph of the map in floats; dashed: the diagonal (fixed points).` +
+    (drawn >= MAX_MARKED ? ` Only the first ${drawn} boxes are drawn.` : '');
+  return { id, title, description, svg: svgDocument(id, frame, title, description, parts.join('')), boxes: drawn };
+}
+
 /** The claim in plain words. The caller shows it only for a VERIFIED certificate. */
 export function countClaimText(cert: CountCertificateV1): string {
   const region = cert.map.state.map((s, i) => `${s} ∈ [${cert.region[i]![0]}, ${cert.region[i]![1]}]`).join(', ');
@@ -189,6 +233,8 @@ function render(raw: object, entryId: string): EntryView {
   const counts = cert.counts;
   const chosen = counts.length <= 4 ? counts : [counts[0]!, counts[1]!, counts[counts.length - 2]!, counts[counts.length - 1]!];
   const plots = chosen.map((e) => coverPlot(cert, e, `${entryId}-cover-p${e.period}`));
+  const last = counts[counts.length - 1]!;
+  if (cert.map.state.length === 1) plots.unshift(orbitPointsPlot(cert, last, `${entryId}-orbits-p${last.period}`));
   const facts: [string, string][] = [];
   for (const s of cert.map.state) facts.push([`${s}'`, cert.map.step[s]!]);
   facts.push(['parameters', paramsText(cert.map.params)]);
@@ -205,7 +251,6 @@ function render(raw: object, entryId: string): EntryView {
   });
   facts.push(['counts', counts.every(exact) ? 'exact (no undecided leaf or zero)' : 'lower bounds where a period has undecided leaves or zeros']);
   if (chosen.length < counts.length) facts.push(['plots', `periods ${chosen.map((e) => e.period).join(', ')} of ${counts.length} are drawn`]);
-  const last = counts[counts.length - 1]!;
   const periods = counts.length === 1 ? `period ${last.period}` : `periods ${counts[0]!.period}–${last.period}`;
   return {
     heading: `${cert.map.title} — orbit count, ${periods}`,
