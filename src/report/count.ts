@@ -174,8 +174,9 @@ export function coverPlot(cert: CountCertificateV1, e: CountPeriodEntry, id: str
 }
 
 /**
- * For a 1-D map: the leaves that hold a zero, as boxes (x_i, x_(i+1)) on the graph of f (float,
- * for orientation) with the diagonal: where the counted orbits' points are.
+ * For a 1-D map: the graph of f^p (float, for orientation), the diagonal, and for each leaf that
+ * holds a zero its x_0 interval as a box on the diagonal: the points x with f^p(x) = x, which are
+ * the points of the counted orbits (every point of an orbit is x_0 of one zero, a cyclic shift).
  */
 export function orbitPointsPlot(cert: CountCertificateV1, e: CountPeriodEntry, id: string): Plot {
   const frame: Frame = { ...FRAME, width: 360 };
@@ -184,35 +185,39 @@ export function orbitPointsPlot(cert: CountCertificateV1, e: CountPeriodEntry, i
   const range = padRange(x0, x1, 0.04);
   const { x, y } = frameScales(frame, range, range);
   const v = cert.map.state[0]!;
-  const parts: string[] = [clipDefs(id, frame), axes(frame, x, y, v, `${v}'`), `<g clip-path="url(#${esc(id)}-clip)">`];
+  const power = p === 1 ? 'f' : `f^${p}`;
+  const parts: string[] = [clipDefs(id, frame), axes(frame, x, y, v, `${power}(${v})`), `<g clip-path="url(#${esc(id)}-clip)">`];
   parts.push(`<line class="diagonal" x1="${px(x(range[0]))}" y1="${px(y(range[0]))}" x2="${px(x(range[1]))}" y2="${px(y(range[1]))}" stroke="#666" stroke-dasharray="4 3"/>`);
   const f = floatMap(cert.map, { [v]: cert.region[0]! });
   if (f) {
     const d: string[] = [];
-    for (let k = 0; k <= 300; k++) {
-      const t = x0 + ((x1 - x0) * k) / 300;
-      const w = f([t])[0]!;
-      if (Number.isFinite(w)) d.push(`${d.length ? 'L' : 'M'}${px(x(t))} ${px(Math.max(-1e4, Math.min(1e4, y(w))))}`);
+    let pen = false;
+    for (let k = 0; k <= 800; k++) {
+      let w = x0 + ((x1 - x0) * k) / 800;
+      const t = w;
+      for (let i = 0; i < p && Number.isFinite(w); i++) w = f([w])[0]!;
+      if (!Number.isFinite(w)) {
+        pen = false;
+        continue;
+      }
+      d.push(`${pen ? 'L' : 'M'}${px(x(t))} ${px(Math.max(-1e4, Math.min(1e4, y(w))))}`);
+      pen = true;
     }
-    parts.push(`<path class="graph" d="${d.join('')}" fill="none" stroke="#000" stroke-width="1.2"/>`);
+    parts.push(`<path class="graph" d="${d.join('')}" fill="none" stroke="#000" stroke-width="1"/>`);
   }
   let drawn = 0;
-  let leaves = 0;
   decodeCover(cert, e, (l) => {
     if (l.mark !== '*' || drawn >= MAX_MARKED) return;
-    leaves++;
-    for (let i = 0; i < p && drawn < MAX_MARKED; i++) {
-      const j = (i + 1) % p;
-      parts.push(boxRect(x, y, l.lo[i]!, l.hi[i]!, l.lo[j]!, l.hi[j]!, 'proof-box zero-leaf', 'fill="#1d3557" stroke="#000" stroke-width="1"', `leaf ${leaves}: (${v}_${i}, ${v}_${j})`));
-      drawn++;
-    }
+    drawn++;
+    parts.push(boxRect(x, y, l.lo[0]!, l.hi[0]!, l.lo[0]!, l.hi[0]!, 'proof-box zero-leaf', 'fill="#1d3557" stroke="#000" stroke-width="1"', `${v}_0 ∈ [${l.lo[0]}, ${l.hi[0]}] (leaf ${drawn})`));
   });
   parts.push('</g>');
-  const title = `Counted orbits of period ${p} on the graph of the map`;
+  const title = `Points of period ${p} on the graph of ${power}`;
   const description =
-    `For each of the ${leaves} cover leaves that hold one zero, its ${p} pair${p === 1 ? '' : 's'} of consecutive components (${v}_i, ${v}_(i+1)) as boxes, drawn at least 6 px wide: ` +
-    `the points of the counted orbits (a leaf, slightly inflated, holds its zero; neighbouring leaves may share one). Solid curve: the graph of the map in floats; dashed: the diagonal (fixed points).` +
-    (drawn >= MAX_MARKED ? ` Only the first ${drawn} boxes are drawn.` : '');
+    `For each of the ${drawn} cover leaves that hold one zero, its ${v}_0 interval as a box on the diagonal (drawn at least 6 px wide): ` +
+    `the points x with ${power}(x) = x, that is the points of the counted orbits (a leaf, slightly inflated, holds its zero; neighbouring leaves may share one). ` +
+    `Solid curve: the graph of ${power} in floats, for orientation; dashed: the diagonal.` +
+    (drawn >= MAX_MARKED ? ` Only the first ${drawn} leaves are drawn.` : '');
   return { id, title, description, svg: svgDocument(id, frame, title, description, parts.join('')), boxes: drawn };
 }
 

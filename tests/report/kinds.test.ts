@@ -120,10 +120,9 @@ describe('periodic-orbit-count view', () => {
     expect(rows[2]![3]).toBe('8');
     expect(v.claim).toMatch(/period 3: exactly 8 points/); // 2 fixed points + 2 × 3 (derived by hand)
     expect(v.plots.map((p) => p.id)).toEqual(['c-orbits-p4', 'c-cover-p1', 'c-cover-p2', 'c-cover-p3', 'c-cover-p4']);
-    // period 4 at r = 3.83: 8 points (2 fixed + one 2-cycle + one 4-cycle, the table above); each
-    // leaf with a zero gives 4 boxes (x_i, x_(i+1)) on the graph of f
+    // one box on the diagonal per leaf holding a zero of the period-4 system
     const stars4 = (cert['counts'] as { pieces: string[] }[])[3]!.pieces.join('').split('*').length - 1;
-    expect(v.plots[0]!.boxes).toBe(stars4 * 4);
+    expect(v.plots[0]!.boxes).toBe(stars4);
     for (const p of v.plots) {
       expect(count(p.svg, /class="proof-box zero-leaf"/g)).toBe(p.boxes);
       if (p.id.includes('-cover-')) expect(p.svg).toContain('class="depth-cells"');
