@@ -33,8 +33,8 @@ export interface CertificateMap {
   step: Record<string, string>;
   /**
    * For a map from a flow (kind "flow-periodic-orbit"): right-hand sides, time variable,
-   * duration or section, as source text. The checker re-verifies time-T maps (src/checker/flow.ts);
-   * return maps to a section are not re-verified yet.
+   * duration or section, as source text. The checker re-verifies both (src/checker/flow.ts,
+   * src/checker/flow-section.ts).
    */
   flow?: {
     rhs: Record<string, string>;
@@ -113,11 +113,16 @@ export interface CertificateV1 {
  * How the prover integrated the flow from each orbit point (hints only; src/checker/flow.ts).
  * Every step but the last has a size `h`; the last one runs to the duration. `apriori` is the
  * step's a priori box, `frame` the n×n matrix of the wrapping-control representation m + B·r
- * after the step (the prover's Lohner Q).
+ * after the step (the prover's Lohner Q). For a return map every step has a size and the point
+ * also has the `crossing` step (src/checker/flow-section.ts).
  */
 export interface CertificateFlowPlan {
   order: number;
-  points: { steps: { h?: DecimalString; apriori: DecimalInterval[]; frame?: DecimalString[][] }[] }[];
+  points: {
+    steps: { h?: DecimalString; apriori: DecimalInterval[]; frame?: DecimalString[][] }[];
+    /** Return maps: the crossing step (from the end of `steps`, every time in [0, h]). */
+    crossing?: { h: DecimalString; apriori: DecimalInterval[]; frame?: DecimalString[][] };
+  }[];
 }
 
 /** The document before its hash is attached. */

@@ -38,7 +38,9 @@
  * The last step runs from the sum of the hinted step sizes to the duration (an interval: h is then
  * an interval, and steps 1–5 hold for every h in it); it must be positive.
  *
- * Return maps (`map.flow.section`) are not re-verified here yet: REJECTED with that reason.
+ * Return maps (`map.flow.section`): the plan's steps (all with a size) run to a time t1, then
+ * one crossing step of size h_c runs over [t1, t1 + h_c] with the time an interval; the section
+ * tests on every step are in flow-section.ts (its header argues them).
  * Work is estimated before any arithmetic (`flowWork`) and refused beyond the shared budget.
  */
 import { Decimal } from 'decimal.js';
@@ -46,6 +48,7 @@ import { MAX_FLOW_ORDER, MAX_FLOW_STEPS } from '../certificate/limits.js';
 import { DomainViolation, Exact, fmt, isSubset, type IvCtx, type Iv } from './interval.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { formulaOps } from './budget.js';
+import { readSection, sectionImage, type SectionHooks, type SectionRead } from './flow-section.js';
 import { buildSeries, dualArith, FlowUnsupported, horner, ivArith, taylor, type SeriesProgram } from './flow-series.js';
 
 type Obj = Record<string, unknown>;
@@ -64,7 +67,7 @@ export interface FlowReaders {
   maxFormulaLength: number;
 }
 
-interface StepHint {
+export interface StepHint {
   /** Step size (exact decimal text); null for the last step (to the end time). */
   h: string | null;
   apriori: [string, string][];
@@ -75,7 +78,9 @@ interface StepHint {
 export interface FlowRead {
   rhs: Node[];
   hasTime: boolean;
-  duration: Node;
+  /** The duration (time-T map) or null (return map: `section`). */
+  duration: Node | null;
+  section: SectionRead | null;
   order: number;
   plans: StepHint[][];
   rhsOps: number;
@@ -88,7 +93,6 @@ export function readFlow(d: Obj, map: Obj, state: readonly string[], paramNames:
   if (Object.keys(R.obj(map.step, '$.map.step')).length !== 0) reject('$.map.step', 'a flow map has no step formulas (map.step must be {})');
   const flow = R.obj(map.flow, '$.map.flow');
   R.onlyKeys(flow, ['duration', 'rhs', 'section', 'time'], '$.map.flow');
-  if (flow.section !== undefined) reject('$.map.flow.section', 'return maps to a section are not re-verified by this checker yet (only time-T maps)');
   const names = [...state];
   let hasTime = false;
   if (flow.time !== undefined) {
@@ -109,21 +113,23 @@ export function readFlow(d: Obj, map: Obj, state: readonly string[], paramNames:
   const rhsRaw = R.obj(flow.rhs, '$.map.flow.rhs');
   R.onlyKeys(rhsRaw, state, '$.map.flow.rhs');
   const rhs = state.map((s) => parse(R.str(rhsRaw[s], `$.map.flow.rhs.${s}`), names, `$.map.flow.rhs.${s}`));
-  if (flow.duration === undefined) reject('$.map.flow', 'a flow map needs map.flow.duration (time-T map) or map.flow.section');
-  const duration = parse(R.str(flow.duration, '$.map.flow.duration'), [], '$.map.flow.duration');
+  if ((flow.duration === undefined) === (flow.section === undefined)) reject('$.map.flow', 'a flow map needs exactly one of map.flow.duration (time-T map) and map.flow.section (return map)');
+  const duration = flow.duration === undefined ? null : parse(R.str(flow.duration, '$.map.flow.duration'), [], '$.map.flow.duration');
+  const section = flow.section === undefined ? null : readSection(R.obj(flow.section, '$.map.flow.section'), R, (src, path) => parse(src, state, path));
   const plan = R.obj(d.plan, '$.plan');
   R.onlyKeys(plan, ['order', 'points'], '$.plan');
   const order = R.int(plan.order, '$.plan.order', 1, MAX_FLOW_ORDER);
   const plans = R.arr(plan.points, '$.plan.points', p).map((pt, i) => {
     const path = `$.plan.points[${i}]`;
     const po = R.obj(pt, path);
-    R.onlyKeys(po, ['steps'], path);
-    const steps = R.arr(po.steps, `${path}.steps`);
+    R.onlyKeys(po, section ? ['crossing', 'steps'] : ['steps'], path);
+    // a return map: every step has a size, and the crossing step comes last
+    const steps = section ? [...R.arr(po.steps, `${path}.steps`), R.obj(po.crossing, `${path}.crossing`)] : R.arr(po.steps, `${path}.steps`);
     if (steps.length < 1 || steps.length > MAX_FLOW_STEPS) reject(`${path}.steps`, `${steps.length} steps outside [1, ${MAX_FLOW_STEPS}]`);
     return steps.map((st, j): StepHint => {
-      const sp = `${path}.steps[${j}]`;
+      const sp = section && j === steps.length - 1 ? `${path}.crossing` : `${path}.steps[${j}]`;
       const so = R.obj(st, sp);
-      const last = j === steps.length - 1;
+      const last = !section && j === steps.length - 1;
       R.onlyKeys(so, last ? ['apriori', 'frame'] : ['apriori', 'frame', 'h'], sp);
       let h: string | null = null;
       if (!last) {
@@ -137,7 +143,8 @@ export function readFlow(d: Obj, map: Obj, state: readonly string[], paramNames:
   });
   let rhsOps = 0;
   for (const node of rhs) rhsOps += formulaOps(node, 0, 30);
-  return { rhs, hasTime, duration, order, plans, rhsOps };
+  if (section) rhsOps += formulaOps(section.g, 0, 30);
+  return { rhs, hasTime, duration, section, order, plans, rhsOps };
 }
 
 /**
@@ -165,14 +172,16 @@ export function flowImage(fr: FlowRead, c: IvCtx, params: ReadonlyMap<string, Iv
     throw e;
   }
   const ev = new Evaluator(c, params);
-  const T = ev.eval(fr.duration, [], false).v;
-  if (!T.lo.gt(0)) reject('$.map.flow.duration', `the duration ${fmt(T)} is not positive`);
+  const T = fr.duration ? ev.eval(fr.duration, [], false).v : c.zero;
+  if (fr.duration && !T.lo.gt(0)) reject('$.map.flow.duration', `the duration ${fmt(T)} is not positive`);
   const cache = new Map<string, { f: Iv[]; jac: Iv[] | null }>();
   return (x, grad, point) => {
     const key = `${point}|${x.map((v) => `${v.lo.toString()},${v.hi.toString()}`).join(';')}`;
     const hit = cache.get(key);
     if (hit && (hit.jac || !grad)) return hit;
-    const r = integrate(fr, prog, ev, c, n, T, x, grad, point, reject);
+    const r = fr.section
+      ? sectionImage(fr.section, fr, ev, c, n, point, reject, (hooks) => integrate(fr, prog, ev, c, n, T, x, grad, point, reject, hooks))
+      : integrate(fr, prog, ev, c, n, T, x, grad, point, reject);
     cache.set(key, r);
     return r;
   };
@@ -184,7 +193,8 @@ export function flowImage(fr: FlowRead, c: IvCtx, params: ReadonlyMap<string, Iv
  * claimed enclosure must contain the checker's.
  */
 export function verifyFlowPeriod(fr: FlowRead, c: IvCtx, params: ReadonlyMap<string, Iv>, p: number, claim: [string, string], reject: Reject): void {
-  const T = new Evaluator(c, params).eval(fr.duration, [], false).v;
+  if (!fr.duration) reject('$.claims.flowPeriod', 'a flow period claim for a return map is not verified by this checker');
+  const T = new Evaluator(c, params).eval(fr.duration!, [], false).v;
   const mine = c.mul(c.literal(String(p)), T);
   if (!isSubset(mine, { lo: new Exact(claim[0]), hi: new Exact(claim[1]) })) reject('$.claims.flowPeriod', `claimed flow period [${claim[0].slice(0, 30)}, ${claim[1].slice(0, 30)}] does not contain the checker's enclosure ${fmt(mine, 20)} of ${p}·duration`);
 }
@@ -266,7 +276,7 @@ function encloseInverse(c: IvCtx, B: Mat, n: number): Mat | null {
 }
 
 /** Integrates the box x over the duration T following plan `point`; {image, Jacobian} or a Refusal. */
-function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n: number, T: Iv, x: readonly Iv[], grad: boolean, point: number, reject: Reject): { f: Iv[]; jac: Iv[] | null } {
+function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n: number, T: Iv, x: readonly Iv[], grad: boolean, point: number, reject: Reject, hooks?: SectionHooks): { f: Iv[]; jac: Iv[] | null } {
   const steps = fr.plans[point]!;
   const P = fr.order;
   const where = (j: number): string => `$.plan.points[${point}].steps[${j}]`;
@@ -282,8 +292,11 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
   let t: Iv = c.zero;
   for (let j = 0; j < steps.length; j++) {
     const hint = steps[j]!;
-    const h: Iv = hint.h !== null ? c.literal(hint.h) : c.sub(T, t);
-    if (!h.lo.gt(0)) reject(where(j), `the hinted step sizes add up to ${fmt(t)}, not below the duration ${fmt(T)}: no time left for the last step`);
+    // a return map's crossing step (last): every time in [t, t + h_c], the end h_c used for the section tests
+    const crossing = hooks !== undefined && j === steps.length - 1;
+    const hEnd: Iv = hint.h !== null ? c.literal(hint.h) : c.sub(T, t);
+    const h: Iv = crossing ? { lo: new c.Down('0'), hi: hEnd.hi } : hEnd;
+    if (!hEnd.lo.gt(0)) reject(where(j), `the hinted step sizes add up to ${fmt(t)}, not below the duration ${fmt(T)}: no time left for the last step`);
     const span: Iv = { lo: new c.Down('0'), hi: h.hi };
     const tSpan = c.add(t, span);
     const Xh = m.map((mi, i) => {
@@ -318,12 +331,12 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     const J: Mat = new Array<Iv>(n * n);
     for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) J[i * n + q] = horner(c, xsX[i]!.map((co) => co.d[q]!), h, P);
     const xsM = taylor(ia, prog, m, t, P);
-    let remV: Iv[];
+    let coefY: Iv[];
     let remD: Mat | null = null;
     let DF: Mat | null = null;
     if (grad) {
       const xsY = taylor(da, prog, apriori!.map((v, i) => ({ v, d: Array.from({ length: n }, (_, q) => (q === i ? c.one : c.zero)) })), tSpan, P + 1);
-      remV = xsY.map((s) => c.mul(hP1, s[P + 1]!.v));
+      coefY = xsY.map((s) => s[P + 1]!.v);
       remD = [];
       DF = [];
       for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) {
@@ -331,8 +344,9 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
         DF.push(xsY[i]![1]!.d[q]!);
       }
     } else {
-      remV = taylor(ia, prog, apriori!, tSpan, P + 1).map((s) => c.mul(hP1, s[P + 1]!));
+      coefY = taylor(ia, prog, apriori!, tSpan, P + 1).map((s) => s[P + 1]!);
     }
+    const remV = coefY.map((v) => c.mul(hP1, v));
     const That = xsM.map((s, i) => c.add(horner(c, s, h, P), remV[i]!));
     // 5. derivative: Jfull = J + h^{P+1}·∂x_{P+1}/∂x(Y)·W
     if (V) {
@@ -346,6 +360,20 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     }
     // 4. wrapping control
     const JB = matMul(c, J, B, n);
+    if (hooks) {
+      // the state at the step's end t + h_end: p(m) + R + (J·B)·r at h_end (mean value form, header step 3)
+      let endT = That;
+      let endJB = JB;
+      if (crossing) {
+        const hP1e = c.powInt(hEnd, P + 1);
+        endT = xsM.map((s, i) => c.add(horner(c, s, hEnd, P), c.mul(hP1e, coefY[i]!)));
+        const Je: Mat = new Array<Iv>(n * n);
+        for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) Je[i * n + q] = horner(c, xsX[i]!.map((co) => co.d[q]!), hEnd, P);
+        endJB = matMul(c, Je, B, n);
+      }
+      const lin = matVec(c, endJB, r, n);
+      hooks.step(j, crossing, apriori!, tSpan, endT.map((v, i) => c.add(v, lin[i]!)));
+    }
     const mNew = That.map((v) => c.point(c.midpoint(v)));
     const z = That.map((v, i) => c.sub(v, mNew[i]!));
     let Bn: Mat | null = null;

@@ -18,7 +18,7 @@ import { checkedWithOverrides, compileMap, paramBounds, type ParamOverrides } fr
 import type { CompiledMap, MapDefinition, MapEvaluator } from '../model/types.js';
 import { ValidatedFlow, type IntegratorOptions } from './integrate.js';
 import { buildSeriesProgram, type SeriesProgram } from './taylor.js';
-import { ReturnMapEvaluator, type SectionSpec } from './section.js';
+import { ReturnMapEvaluator, type SectionPlan, type SectionSpec } from './section.js';
 import { FloatFlow } from './float-flow.js';
 
 export interface FlowMap extends CompiledMap {
@@ -35,8 +35,9 @@ export interface FlowMap extends CompiledMap {
   flowTimes(): readonly unknown[];
   /**
    * The integration plan from each box (decimal [lo, hi] per coordinate) of a time-T map, as the
-   * certificate records it for the checker (hints: steps, a priori boxes, Lohner frames); null for
-   * a return map or when an integration refuses.
+   * certificate records it for the checker (hints: steps, a priori boxes, Lohner frames; for a
+   * return map the steps up to the crossing step and the crossing step); null when an integration
+   * refuses.
    */
   plan(boxes: readonly (readonly (readonly [string, string])[])[]): FlowPlanData | null;
 }
@@ -44,7 +45,7 @@ export interface FlowMap extends CompiledMap {
 /** Structurally the certificate's `plan` (src/certificate/types.ts CertificateFlowPlan). */
 export interface FlowPlanData {
   order: number;
-  points: { steps: { h?: string; apriori: [string, string][]; frame?: string[][] }[] }[];
+  points: { steps: { h?: string; apriori: [string, string][]; frame?: string[][] }[]; crossing?: { h: string; apriori: [string, string][]; frame?: string[][] } }[];
 }
 
 /** The right compiler for any definition: formula maps to `compileMap`, flows to `compileFlowMap`. */
@@ -98,9 +99,22 @@ export function compileFlowMap(def: MapDefinition, overrides?: ParamOverrides, o
     options,
     lastRefusal: () => refusal,
     plan(boxes) {
-      if (section) return null;
       const A = intervalArithmetic();
       const vf = new ValidatedFlow<Interval>(program, A, enclosures, options);
+      if (section) {
+        const rm = new ReturnMapEvaluator<Interval>(vf, section, enclosures);
+        const points: FlowPlanData['points'] = [];
+        const out = new Array<Interval>(n);
+        for (const box of boxes) {
+          const rec: SectionPlan = { steps: [], crossing: { h: '0', apriori: [], frame: [] } };
+          rm.record = rec;
+          const r = rm.evaluate(box.map(([lo, hi]) => A.constant(lo, hi)), out, null);
+          rm.record = null;
+          if (!r.ok || rec.crossing.apriori.length === 0) return null;
+          points.push({ steps: rec.steps, crossing: rec.crossing });
+        }
+        return { order: options.order, points };
+      }
       const duration = durationOf(A);
       if (!A.status.continuous) return null;
       const points: FlowPlanData['points'] = [];

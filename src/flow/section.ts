@@ -29,6 +29,19 @@ export interface SectionSpec {
   readonly sign: 1 | -1;
 }
 
+/** One step of the certificate's plan for a return map (hints for src/checker/flow-section.ts). */
+export interface SectionPlanStep {
+  h: string;
+  apriori: [string, string][];
+  frame: string[][];
+}
+
+/** The steps up to the crossing step's start, and the crossing step (its time span [0, h]). */
+export interface SectionPlan {
+  steps: SectionPlanStep[];
+  crossing: SectionPlanStep;
+}
+
 export type ReturnResult<T> = { ok: true; time: T } | { ok: false; reason: string };
 
 export class ReturnMapEvaluator<T> {
@@ -45,6 +58,13 @@ export class ReturnMapEvaluator<T> {
   private readonly gFloatOut = [0];
   private readonly floatX: number[];
   private readonly sign: number;
+  /** When set, `evaluate` records the plan of its accepted steps here (hints for the checker). */
+  record: SectionPlan | null = null;
+  private lastRec: SectionPlanStep | null = null;
+
+  private keep(): void {
+    if (this.record && this.lastRec) this.record.steps.push(this.lastRec);
+  }
 
   constructor(readonly flow: ValidatedFlow<T>, section: SectionSpec, params: readonly ParamEnclosure[]) {
     this.A = flow.A;
@@ -134,12 +154,21 @@ export class ReturnMapEvaluator<T> {
     const n = this.n;
     const f = new Array<T>(n);
     F.start(X0, A.fromNumber(0), jac !== null);
+    if (this.record) {
+      this.record.steps = [];
+      F.onStep = (h, Y, Q) => {
+        const frame: string[][] = [];
+        for (let i = 0; i < n; i++) frame.push(Array.from(Q.subarray(i * n, i * n + n), (q) => String(q)));
+        this.lastRec = { h: String(A.loDown(h)), apriori: Y.map((y) => [String(A.loDown(y)), String(A.hiUp(y))]), frame };
+      };
+    }
     try {
       // phase A: leave the section
       let left = false;
       while (!left) {
         if (F.overBudget()) return { ok: false, reason: 'too many steps before leaving the section' };
         F.stepDown(F.proposeStep());
+        this.keep();
         const Y = F.lastApriori;
         if (this.meetsZero(this.sg(Y)) && !this.pos(this.sdg(Y, f))) {
           return { ok: false, reason: 'the flow may be tangent to the section at the start (∇g·F not of the crossing sign)' };
@@ -155,9 +184,15 @@ export class ReturnMapEvaluator<T> {
           F.restore(before);
           h = F.stepDown(h);
           const Y = F.lastApriori;
-          if (!this.meetsZero(this.sg(Y))) break; // no crossing at all in this step
+          if (!this.meetsZero(this.sg(Y))) {
+            this.keep();
+            break; // no crossing at all in this step
+          }
           const d = this.sdg(Y, f);
-          if (this.neg(d)) break; // only crossings the other way
+          if (this.neg(d)) {
+            this.keep();
+            break; // only crossings the other way
+          }
           if (this.pos(d)) {
             // a counted crossing may lie in this step: locate it, from the step's start
             F.restore(before);
@@ -165,6 +200,7 @@ export class ReturnMapEvaluator<T> {
             if (r !== null) return r;
             F.restore(before);
             F.stepDown(h); // no counted crossing in [0, h]: go on
+            this.keep();
             break;
           }
           h *= 0.25;
@@ -174,6 +210,8 @@ export class ReturnMapEvaluator<T> {
     } catch (e) {
       if (ValidatedFlow.isRefusal(e)) return { ok: false, reason: e.message };
       throw e;
+    } finally {
+      if (this.record) F.onStep = undefined;
     }
   }
 
@@ -212,6 +250,7 @@ export class ReturnMapEvaluator<T> {
       const b = Math.min(h, tStar + eps);
       // s·g < 0 at time a for the whole set (at a = 0: on the step's starting box)
       const ga = a === 0 ? startBox : probe(A.fromNumber(a), a);
+      const recA = this.lastRec;
       if (ga === null || !this.neg(this.sg(ga))) {
         if (a === 0) return { ok: false, reason: 'the crossing is too close to a step boundary to bracket' };
         continue;
@@ -225,6 +264,11 @@ export class ReturnMapEvaluator<T> {
       const tau = A.hull(A.fromNumber(a), A.fromNumber(b));
       const Xc = probe(tau, b);
       if (Xc === null) return { ok: false, reason: 'the a priori enclosure failed on the crossing interval' };
+      if (this.record && this.lastRec) {
+        // the checker's plan: a step to a (if a > 0), then the crossing step over [a, b]
+        if (a > 0 && recA) this.record.steps.push(recA);
+        this.record.crossing = { ...this.lastRec, h: String(b - a) };
+      }
       const f = new Array<T>(n);
       const d = this.sdg(Xc, f); // fills gJac = ∇g(Xc), f = F(Xc)
       if (!this.pos(d)) return { ok: false, reason: 'the crossing may be tangent (∇g·F may vanish at the crossing)' };

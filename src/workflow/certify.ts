@@ -390,7 +390,7 @@ export async function certifyOrbits(
     // plan from each written box (hints for the checker) and the period as a claim it verifies
     const T = isFlowMap(compiled) ? encloseFlowPeriod(compiled, orbit.boxes) : null;
     const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
-    const flowPlan = timeMap ? timeMap.plan(orbit.boxes) : null;
+    const flowPlan = isFlowMap(compiled) ? compiled.plan(orbit.boxes) : null;
     const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
     const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
     k++;

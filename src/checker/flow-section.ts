@@ -1,0 +1,130 @@
+/**
+ * Checker part for RETURN maps of an ODE x' = F(t, x) to a section {g = 0} crossed in one
+ * direction s (s = +1: g increasing, −1: decreasing) — `map.flow.section`. The integration itself
+ * is flow.ts's (same plan format, same a priori boxes, remainders, frames); this file adds the
+ * section tests on each step and the derivative of the return map. Everything in the plan is an
+ * UNTRUSTED hint: a test below that fails is REJECTED, never a wrong proof.
+ *
+ * The map. For a start x, write γ(t) = s·g(φ(t, x)). P(x) = φ(τ(x), x) where τ(x) is the first
+ * zero of γ with γ' > 0 after a time t_A at which γ(t_A) > 0 and such that every zero of γ on
+ * [0, t_A] has γ' > 0. This does not depend on t_A: such zeros are isolated, hence finitely many
+ * on [0, t_A]; between two consecutive upward zeros γ goes from > 0 to < 0, so the intermediate
+ * value theorem gives a zero in between — a contradiction: [0, t_A] holds at most one zero, and
+ * for t_A < t_A' both valid, γ > 0 on [t_A, t_A'] (a zero there would be a second one). For a
+ * start ON the section (γ(0) = 0, γ'(0) > 0) this is the usual first return.
+ * Note γ'(t) = s·∇g(φ)·F(φ, t) ("s·∇g·F"), and along the step [t, t + h] the trajectory lies in
+ * the step's a priori box Y (flow.ts step 1), so s·∇g·F over Y × (t + [0, h]) encloses γ' there.
+ *
+ * Tests, from the hinted steps (sizes h_j, summing to t1) and the crossing step (size h_c):
+ *  (a) leaving (steps until the first one after which s·g > 0 on the whole state enclosure,
+ *      which fixes t_A): on each, s·g(Y) ∌ 0 (no zero) or s·∇g·F > 0 on Y (every zero upward).
+ *      If no step before the crossing step achieves s·g > 0, NOT verified (REJECTED).
+ *  (b) after t_A, up to t1, no upward zero: on each step s·g(Y) ∌ 0, or s·∇g·F < 0 on Y (zeros
+ *      only downward), or s·∇g·F > 0 on Y and s·g < 0 at the step's end (γ increasing and
+ *      negative at the end: negative on the whole step).
+ *  (c) crossing: s·g < 0 at t1 (the last step's end state; t1 > t_A), s·∇g·F > 0 on the crossing
+ *      step's a priori box Y_c over [t1, t1 + h_c] and s·g > 0 at t1 + h_c: γ is strictly
+ *      increasing on [t1, t1 + h_c] from < 0 to > 0, so τ(x) ∈ (t1, t1 + h_c) and is unique there;
+ *      it is the first upward zero after t_A by (b).
+ *  (d) image: P(x) = φ(t1 + θ, x) for some θ ∈ [0, h_c]: the crossing step evaluated with the
+ *      time step an interval [0, h_c] (flow.ts steps 2–4 hold for every h in it) encloses it.
+ *  (e) derivative: τ is C¹ by the implicit function theorem (γ' ≠ 0) with
+ *      Dτ = −∇g·Dφ / (∇g·F), so DP = Dφ + F·Dτ = (I − F·∇gᵀ/(∇g·F))·Dφ, evaluated with F and ∇g
+ *      over the image enclosure (and the crossing time span) and Dφ over [t1, t1 + h_c] (flow.ts
+ *      step 5 with the interval step). ∇g·F ≠ 0 there is required (else REJECTED).
+ * All tests use certain signs of interval enclosures; a domain violation anywhere is REJECTED.
+ */
+import type { IvCtx, Iv } from './interval.js';
+import type { Evaluator, Node } from './formula.js';
+import type { FlowRead, FlowReaders } from './flow.js';
+
+type Obj = Record<string, unknown>;
+type Reject = (path: string, msg: string) => never;
+
+/** The section as read: the surface g over the state, and the counted direction. */
+export interface SectionRead {
+  g: Node;
+  sign: 1 | -1;
+}
+
+/** Called by flow.ts's integration after every step (state enclosure at the step's end). */
+export interface SectionHooks {
+  step(j: number, crossing: boolean, apriori: readonly Iv[], tSpan: Iv, end: readonly Iv[]): void;
+}
+
+export function readSection(o: Obj, R: FlowReaders, parse: (src: string, path: string) => Node): SectionRead {
+  R.onlyKeys(o, ['crossing', 'surface'], '$.map.flow.section');
+  const g = parse(R.str(o.surface, '$.map.flow.section.surface'), '$.map.flow.section.surface');
+  const cr = R.str(o.crossing, '$.map.flow.section.crossing');
+  if (cr !== 'increasing' && cr !== 'decreasing') R.reject('$.map.flow.section.crossing', `crossing must be "increasing" or "decreasing", not ${JSON.stringify(cr.slice(0, 30))}`);
+  return { g, sign: cr === 'increasing' ? 1 : -1 };
+}
+
+const pos = (v: Iv): boolean => v.lo.gt(0);
+const neg = (v: Iv): boolean => v.hi.lt(0);
+
+/**
+ * The return map's image and Jacobian from one box: runs the integration (`run`, with the hooks)
+ * and applies tests (a)–(e) of the header.
+ */
+export function sectionImage(
+  sec: SectionRead, fr: FlowRead, ev: Evaluator, c: IvCtx, n: number, point: number, reject: Reject,
+  run: (hooks: SectionHooks) => { f: Iv[]; jac: Iv[] | null },
+): { f: Iv[]; jac: Iv[] | null } {
+  const s = c.literal(String(sec.sign));
+  const sg = (X: readonly Iv[]): Iv => c.mul(s, ev.eval(sec.g, X, false).v);
+  // s·∇g·F over Y × tSpan, with ∇g(Y) and F(Y) for the derivative
+  const sdg = (Y: readonly Iv[], tSpan: Iv): { v: Iv; grad: Iv[]; F: Iv[] } => {
+    const d = ev.eval(sec.g, Y, true).d ?? new Array<Iv>(n).fill(c.zero);
+    const F = fr.rhs.map((node) => ev.eval(node, fr.hasTime ? [...Y, tSpan] : Y, false).v);
+    let v = c.zero;
+    for (let i = 0; i < n; i++) v = c.add(v, c.mul(d[i]!, F[i]!));
+    return { v: c.mul(s, v), grad: d, F };
+  };
+  const where = (j: number, crossing: boolean): string => (crossing ? `$.plan.points[${point}].crossing` : `$.plan.points[${point}].steps[${j}]`);
+  let left = false;
+  let endSign: Iv | null = null;
+  let crossSpan: Iv | null = null;
+  const hooks: SectionHooks = {
+    step(j, crossing, Y, tSpan, end) {
+      const at = where(j, crossing);
+      if (crossing) {
+        // (c)
+        if (!left) reject(at, `point ${point}: the trajectory is not shown to leave the section before the crossing step (s·g > 0 at some step's end)`);
+        if (endSign === null || !neg(endSign)) reject(at, `point ${point}: g is not shown on the near side of the section at the crossing step's start`);
+        if (!pos(sdg(Y, tSpan).v)) reject(at, `point ${point}: the crossing is not shown transversal in the required direction (s·∇g·F > 0 on the crossing step's a priori box)`);
+        if (!pos(sg(end))) reject(at, `point ${point}: g is not shown past the section at the crossing step's end (no crossing bracketed)`);
+        crossSpan = tSpan;
+        return;
+      }
+      const gy = sg(Y);
+      const meets = !pos(gy) && !neg(gy);
+      const gEnd = sg(end);
+      if (!left) {
+        // (a)
+        if (meets && !pos(sdg(Y, tSpan).v)) reject(at, `point ${point}, step ${j}: leaving the section, the flow is not shown to cross it in the required direction only (s·∇g·F > 0 on the a priori box)`);
+        if (pos(gEnd)) left = true;
+      } else if (meets) {
+        // (b)
+        const d = sdg(Y, tSpan).v;
+        if (!neg(d) && !(pos(d) && neg(gEnd))) reject(at, `point ${point}, step ${j}: a step before the crossing may cross the section in the required direction`);
+      }
+      endSign = gEnd;
+    },
+  };
+  const r = run(hooks);
+  if (crossSpan === null) throw new Error('internal: the crossing step was not run');
+  if (!r.jac) return { f: r.f, jac: null };
+  // (e) DP = Dφ − F·(∇g·Dφ)/(∇g·F) over the image enclosure
+  const { v, grad, F } = sdg(r.f, crossSpan);
+  if (!pos(v)) reject(`$.plan.points[${point}].crossing`, `point ${point}: ∇g·F may vanish on the image (the return map's derivative is not enclosed)`);
+  const gf = c.mul(s, v);
+  const jac = r.jac.slice();
+  for (let col = 0; col < n; col++) {
+    let gv = c.zero;
+    for (let k = 0; k < n; k++) gv = c.add(gv, c.mul(grad[k]!, r.jac[k * n + col]!));
+    const q = c.div(gv, gf);
+    for (let i = 0; i < n; i++) jac[i * n + col] = c.sub(r.jac[i * n + col]!, c.mul(F[i]!, q));
+  }
+  return { f: r.f, jac };
+}
