@@ -26,8 +26,11 @@
  *      step's a priori box Y_c over [t1, t1 + h_c] and s·g > 0 at t1 + h_c: γ is strictly
  *      increasing on [t1, t1 + h_c] from < 0 to > 0, so τ(x) ∈ (t1, t1 + h_c) and is unique there;
  *      it is the first upward zero after t_A by (b).
- *  (d) image: P(x) = φ(t1 + θ, x) for some θ ∈ [0, h_c]: the crossing step evaluated with the
- *      time step an interval [0, h_c] (flow.ts steps 2–4 hold for every h in it) encloses it.
+ *  (d) image: P(x) = φ(t1 + θ(x), x) with θ(x) ∈ Θ = [0, h_c]. Interval Newton (twice): for a
+ *      point θ̃ ∈ Θ, 0 = γ(t1 + θ(x)) = γ(t1 + θ̃) + γ'(ξ)·(θ(x) − θ̃) with ξ between, so
+ *      θ(x) ∈ θ̃ − s·g(φ(t1 + θ̃, X))/(s·∇g·F(Y_c)) ∩ Θ (the denominator > 0 by (c)). The crossing
+ *      step evaluated with the time step the interval Θ (flow.ts steps 2–4 hold for every h in
+ *      it; Y_c stays an a priori box) encloses P(X).
  *  (e) derivative: τ is C¹ by the implicit function theorem (γ' ≠ 0) with
  *      Dτ = −∇g·Dφ / (∇g·F), so DP = Dφ + F·Dτ = (I − F·∇gᵀ/(∇g·F))·Dφ, evaluated with F and ∇g
  *      over the image enclosure (and the crossing time span) and Dφ over [t1, t1 + h_c] (flow.ts
@@ -50,6 +53,8 @@ export interface SectionRead {
 /** Called by flow.ts's integration after every step (state enclosure at the step's end). */
 export interface SectionHooks {
   step(j: number, crossing: boolean, apriori: readonly Iv[], tSpan: Iv, end: readonly Iv[]): void;
+  /** The crossing step: a sub-interval of h = [0, h_c] holding θ(x) for every start x (header (d)). */
+  narrow(apriori: readonly Iv[], tSpan: Iv, h: Iv, stateAt: (hh: Iv) => Iv[]): Iv;
 }
 
 export function readSection(o: Obj, R: FlowReaders, parse: (src: string, path: string) => Node): SectionRead {
@@ -86,6 +91,7 @@ export function sectionImage(
   let endSign: Iv | null = null;
   let crossSpan: Iv | null = null;
   const hooks: SectionHooks = {
+    narrow: (_Y, _t, h) => h,
     step(j, crossing, Y, tSpan, end) {
       const at = where(j, crossing);
       if (crossing) {
@@ -111,6 +117,19 @@ export function sectionImage(
       }
       endSign = gEnd;
     },
+  };
+  hooks.narrow = (Y, tSpan, h, stateAt) => {
+    const d = sdg(Y, tSpan).v; // > 0: tested in step()
+    let th = h;
+    for (let it = 0; it < 2; it++) {
+      const mid = c.point(c.midpoint(th));
+      const N = c.sub(mid, c.div(sg(stateAt(mid)), d));
+      const lo = c.Down.max(th.lo, N.lo);
+      const hi = c.Up.min(th.hi, N.hi);
+      if (lo.gt(hi)) reject(`$.plan.points[${point}].crossing`, `point ${point}: the interval Newton step on the crossing time is empty (inconsistent enclosures)`);
+      th = { lo, hi };
+    }
+    return th;
   };
   const r = run(hooks);
   if (crossSpan === null) throw new Error('internal: the crossing step was not run');

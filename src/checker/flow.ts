@@ -295,7 +295,7 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     // a return map's crossing step (last): every time in [t, t + h_c], the end h_c used for the section tests
     const crossing = hooks !== undefined && j === steps.length - 1;
     const hEnd: Iv = hint.h !== null ? c.literal(hint.h) : c.sub(T, t);
-    const h: Iv = crossing ? { lo: new c.Down('0'), hi: hEnd.hi } : hEnd;
+    let h: Iv = crossing ? { lo: new c.Down('0'), hi: hEnd.hi } : hEnd;
     if (!hEnd.lo.gt(0)) reject(where(j), `the hinted step sizes add up to ${fmt(t)}, not below the duration ${fmt(T)}: no time left for the last step`);
     const span: Iv = { lo: new c.Down('0'), hi: h.hi };
     const tSpan = c.add(t, span);
@@ -325,27 +325,41 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     if (!apriori) reject(where(j), `point ${point}, step ${j}: no a priori enclosure (the Picard inclusion X + [0,h]·F(Y) ⊆ Y fails; step too large?)`);
     // refinement: Z ⊆ Y ⇒ Z' = X + [0,h]·F(Z) ⊆ Z and X + [0,h]·F(Z') ⊆ Z', so each iterate is again an a priori box
     for (let it = 0; it < 3; it++) apriori = picard(apriori!);
-    // 2.–3. Taylor parts
-    const hP1 = c.powInt(h, P + 1);
+    // 2.–3. Taylor parts (the coefficients do not depend on h)
     const xsX = taylor(da, prog, Xh.map((v, i) => ({ v, d: Array.from({ length: n }, (_, q) => (q === i ? c.one : c.zero)) })), t, P);
-    const J: Mat = new Array<Iv>(n * n);
-    for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) J[i * n + q] = horner(c, xsX[i]!.map((co) => co.d[q]!), h, P);
     const xsM = taylor(ia, prog, m, t, P);
     let coefY: Iv[];
-    let remD: Mat | null = null;
+    let coefYD: Mat | null = null;
     let DF: Mat | null = null;
     if (grad) {
       const xsY = taylor(da, prog, apriori!.map((v, i) => ({ v, d: Array.from({ length: n }, (_, q) => (q === i ? c.one : c.zero)) })), tSpan, P + 1);
       coefY = xsY.map((s) => s[P + 1]!.v);
-      remD = [];
+      coefYD = [];
       DF = [];
       for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) {
-        remD.push(c.mul(hP1, xsY[i]![P + 1]!.d[q]!));
+        coefYD.push(xsY[i]![P + 1]!.d[q]!);
         DF.push(xsY[i]![1]!.d[q]!);
       }
     } else {
       coefY = taylor(ia, prog, apriori!, tSpan, P + 1).map((s) => s[P + 1]!);
     }
+    if (hooks) {
+      // the state at t + hh for every hh in the interval hh ⊆ [0, h]: p_hh(m) + R_hh + (J_hh·B)·r
+      // (steps 2–3 with the step an interval; the a priori box covers [t, t + h])
+      const stateAt = (hh: Iv): Iv[] => {
+        const hP1e = c.powInt(hh, P + 1);
+        const Je: Mat = new Array<Iv>(n * n);
+        for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) Je[i * n + q] = horner(c, xsX[i]!.map((co) => co.d[q]!), hh, P);
+        const lin = matVec(c, matMul(c, Je, B, n), r, n);
+        return xsM.map((s, i) => c.add(c.add(horner(c, s, hh, P), c.mul(hP1e, coefY[i]!)), lin[i]!));
+      };
+      hooks.step(j, crossing, apriori!, tSpan, stateAt(hEnd));
+      if (crossing) h = hooks.narrow(apriori!, tSpan, h, stateAt);
+    }
+    const hP1 = c.powInt(h, P + 1);
+    const J: Mat = new Array<Iv>(n * n);
+    for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) J[i * n + q] = horner(c, xsX[i]!.map((co) => co.d[q]!), h, P);
+    const remD: Mat | null = coefYD ? coefYD.map((v) => c.mul(hP1, v)) : null;
     const remV = coefY.map((v) => c.mul(hP1, v));
     const That = xsM.map((s, i) => c.add(horner(c, s, h, P), remV[i]!));
     // 5. derivative: Jfull = J + h^{P+1}·∂x_{P+1}/∂x(Y)·W
@@ -360,20 +374,6 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     }
     // 4. wrapping control
     const JB = matMul(c, J, B, n);
-    if (hooks) {
-      // the state at the step's end t + h_end: p(m) + R + (J·B)·r at h_end (mean value form, header step 3)
-      let endT = That;
-      let endJB = JB;
-      if (crossing) {
-        const hP1e = c.powInt(hEnd, P + 1);
-        endT = xsM.map((s, i) => c.add(horner(c, s, hEnd, P), c.mul(hP1e, coefY[i]!)));
-        const Je: Mat = new Array<Iv>(n * n);
-        for (let i = 0; i < n; i++) for (let q = 0; q < n; q++) Je[i * n + q] = horner(c, xsX[i]!.map((co) => co.d[q]!), hEnd, P);
-        endJB = matMul(c, Je, B, n);
-      }
-      const lin = matVec(c, endJB, r, n);
-      hooks.step(j, crossing, apriori!, tSpan, endT.map((v, i) => c.add(v, lin[i]!)));
-    }
     const mNew = That.map((v) => c.point(c.midpoint(v)));
     const z = That.map((v, i) => c.sub(v, mNew[i]!));
     let Bn: Mat | null = null;

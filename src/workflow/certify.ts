@@ -235,6 +235,22 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
 }
 
+/**
+ * The boxes a return map's plan is made from: the checker integrates the centre, the existence
+ * boxes and the uniqueness boxes along one plan per point, and the bracket of the crossing time
+ * must hold for the widest of them (centre ± uniqueness radius; the checker narrows the crossing
+ * time for the smaller ones by an interval Newton step).
+ */
+function planBoxes(orbit: ProvenOrbit): [string, string][][] {
+  const r = orbit.uniquenessRadius;
+  if (r === null) return orbit.boxes.map((b) => b.map(([lo, hi]) => [lo, hi] as [string, string]));
+  return orbit.centre.map((pt, i) => pt.map((m, k) => {
+    const lo = Decimal.min(new Decimal(m).minus(r), orbit.boxes[i]![k]![0]);
+    const hi = Decimal.max(new Decimal(m).plus(r), orbit.boxes[i]![k]![1]);
+    return [lo.toString(), hi.toString()] as [string, string];
+  }));
+}
+
 /** Said for every orbit of a return map of a flow: the independent checker cannot re-verify those yet. */
 export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle return maps of flows)';
 
@@ -390,7 +406,7 @@ export async function certifyOrbits(
     // plan from each written box (hints for the checker) and the period as a claim it verifies
     const T = isFlowMap(compiled) ? encloseFlowPeriod(compiled, orbit.boxes) : null;
     const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
-    const flowPlan = isFlowMap(compiled) ? compiled.plan(orbit.boxes) : null;
+    const flowPlan = isFlowMap(compiled) ? compiled.plan(compiled.kind === 'return-map' ? planBoxes(orbit) : orbit.boxes) : null;
     const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
     const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
     k++;
