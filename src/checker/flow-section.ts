@@ -26,9 +26,11 @@
  *      step's a priori box Y_c over [t1, t1 + h_c] and s·g > 0 at t1 + h_c: γ is strictly
  *      increasing on [t1, t1 + h_c] from < 0 to > 0, so τ(x) ∈ (t1, t1 + h_c) and is unique there;
  *      it is the first upward zero after t_A by (b).
- *  (d) image: P(x) = φ(t1 + θ(x), x) with θ(x) ∈ Θ = [0, h_c]. Interval Newton (twice): for a
- *      point θ̃ ∈ Θ, 0 = γ(t1 + θ(x)) = γ(t1 + θ̃) + γ'(ξ)·(θ(x) − θ̃) with ξ between, so
- *      θ(x) ∈ θ̃ − s·g(φ(t1 + θ̃, X))/(s·∇g·F(Y_c)) ∩ Θ (the denominator > 0 by (c)). The crossing
+ *  (d) image: P(x) = φ(t1 + θ(x), x) with θ(x) ∈ Θ = [0, h_c]. Interval Newton (repeated while
+ *      Θ shrinks by 10%): for a point θ̃ ∈ Θ, 0 = γ(t1 + θ(x)) = γ(t1 + θ̃) + γ'(ξ)·(θ(x) − θ̃)
+ *      with ξ between, so θ(x) ∈ θ̃ − s·g(φ(t1 + θ̃, X))/(s·∇g·F(S)) ∩ Θ, S ⊇ φ(t1 + Θ, X) (the
+ *      state over the times Θ, intersected with Y_c; the denominator > 0 as ⊆ its value over Y_c,
+ *      tested in (c)). The crossing
  *      step evaluated with the time step the interval Θ (flow.ts steps 2–4 hold for every h in
  *      it; Y_c stays an a priori box) encloses P(X).
  *  (e) derivative: τ is C¹ by the implicit function theorem (γ' ≠ 0) with
@@ -119,15 +121,21 @@ export function sectionImage(
     },
   };
   hooks.narrow = (Y, tSpan, h, stateAt) => {
-    const d = sdg(Y, tSpan).v; // > 0: tested in step()
     let th = h;
-    for (let it = 0; it < 2; it++) {
+    for (let it = 0; it < 12; it++) {
+      // γ' over the times th: along the trajectory, inside Y and inside stateAt(th) (the step
+      // with the time an interval encloses φ(t1 + θ) for every θ in th)
+      const S = stateAt(th).map((v, i) => ({ lo: c.Down.max(v.lo, Y[i]!.lo), hi: c.Up.min(v.hi, Y[i]!.hi) }));
+      const d = S.some((v) => v.lo.gt(v.hi)) ? sdg(Y, tSpan).v : sdg(S, tSpan).v;
+      if (!pos(d)) break; // cannot happen (⊆ the tested enclosure over Y): keep th
       const mid = c.point(c.midpoint(th));
       const N = c.sub(mid, c.div(sg(stateAt(mid)), d));
       const lo = c.Down.max(th.lo, N.lo);
       const hi = c.Up.min(th.hi, N.hi);
       if (lo.gt(hi)) reject(`$.plan.points[${point}].crossing`, `point ${point}: the interval Newton step on the crossing time is empty (inconsistent enclosures)`);
+      const shrunk = c.Up.sub(hi, lo).lt(c.Down.mul(c.Up.sub(th.hi, th.lo), '0.9'));
       th = { lo, hi };
+      if (!shrunk) break;
     }
     return th;
   };
