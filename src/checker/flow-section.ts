@@ -34,7 +34,7 @@
  *      step evaluated with the time step the interval Θ (flow.ts steps 2–4 hold for every h in
  *      it; Y_c stays an a priori box) encloses P(X).
  *  (e) derivative: τ is C¹ by the implicit function theorem (γ' ≠ 0) with
- *      Dτ = −∇g·Dφ / (∇g·F), so DP = Dφ + F·Dτ = (I − F·∇gᵀ/(∇g·F))·Dφ, evaluated with F and ∇g
+ *      Dτ = −∇g·Dφ / (∇g·F), so DP = Dφ + F·Dτ = (I − F·∇gᵀ/(∇g·F))·Dφ (the bracket first), with F and ∇g
  *      over the image enclosure (and the crossing time span) and Dφ over [t1, t1 + h_c] (flow.ts
  *      step 5 with the interval step). ∇g·F ≠ 0 there is required (else REJECTED).
  * All tests use certain signs of interval enclosures; a domain violation anywhere is REJECTED.
@@ -146,12 +146,17 @@ export function sectionImage(
   const { v, grad, F } = sdg(r.f, crossSpan);
   if (!pos(v)) reject(`$.plan.points[${point}].crossing`, `point ${point}: ∇g·F may vanish on the image (the return map's derivative is not enclosed)`);
   const gf = c.mul(s, v);
-  const jac = r.jac.slice();
-  for (let col = 0; col < n; col++) {
-    let gv = c.zero;
-    for (let k = 0; k < n; k++) gv = c.add(gv, c.mul(grad[k]!, r.jac[k * n + col]!));
-    const q = c.div(gv, gf);
-    for (let i = 0; i < n; i++) jac[i * n + col] = c.sub(r.jac[i * n + col]!, c.mul(F[i]!, q));
+  // the projection M = I − F·∇gᵀ/(∇g·F) first, then M·Dφ (an entry 1 − F_i·g_i/(∇g·F) stays narrow
+  // where F_i·g_i dominates ∇g·F, e.g. a coordinate plane; Dφ − F·(∇g·Dφ)/(∇g·F) would not be)
+  const u = F.map((fi) => c.div(fi, gf));
+  const jac: Iv[] = new Array<Iv>(n * n);
+  for (let i = 0; i < n; i++) {
+    const row: Iv[] = grad.map((gk, k) => c.sub(i === k ? c.one : c.zero, c.mul(u[i]!, gk)));
+    for (let col = 0; col < n; col++) {
+      let acc = c.zero;
+      for (let k = 0; k < n; k++) acc = c.add(acc, c.mul(row[k]!, r.jac[k * n + col]!));
+      jac[i * n + col] = acc;
+    }
   }
   return { f: r.f, jac };
 }

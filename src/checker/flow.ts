@@ -14,7 +14,8 @@
  *     "Enclosing the solutions of ordinary initial and boundary value problems", Nedialkov,
  *     Jackson & Corliss 1999, "Validated solutions of initial value problems for ODEs", Thm 1).
  *     The hint only seeds Y: Y₀ = hull(hint, X̂ + [0,h]·F(X̂)) widened; up to four attempts. An
- *     accepted Z = X̂ + [0,h]·F(Y) ⊆ Y is refined three times by Z ← X̂ + [0,h]·F(Z): from Z ⊆ Y,
+ *     accepted Z = X̂ + [0,h]·F(Y) ⊆ Y is refined (at least three times, then while it shrinks
+ *     by 10%, at most 40) by Z ← X̂ + [0,h]·F(Z): from Z ⊆ Y,
  *     F(Z) ⊆ F(Y) gives Z' ⊆ Z and then X̂ + [0,h]·F(Z') ⊆ Z', so every iterate is an a priori box.
  *  2. Lagrange remainder. x(t+h) = Σ_{k≤P} h^k x_k(x(t), t) + h^{P+1} x_{P+1}(x(ξ), ξ), ξ ∈ [t, t+h]
  *     componentwise, and (x(ξ), ξ) ∈ Y × (t + [0, h]): R ∈ h^{P+1}·x_{P+1}(Y).
@@ -324,7 +325,15 @@ function integrate(fr: FlowRead, prog: SeriesProgram, ev: Evaluator, c: IvCtx, n
     }
     if (!apriori) reject(where(j), `point ${point}, step ${j}: no a priori enclosure (the Picard inclusion X + [0,h]·F(Y) ⊆ Y fails; step too large?)`);
     // refinement: Z ⊆ Y ⇒ Z' = X + [0,h]·F(Z) ⊆ Z and X + [0,h]·F(Z') ⊆ Z', so each iterate is again an a priori box
-    for (let it = 0; it < 3; it++) apriori = picard(apriori!);
+    // (at least three times, then while the widths shrink by 10%: a hint made for a wider box —
+    // a return map's plan is made for the uniqueness box — then still gives a tight box)
+    const width = (Z: readonly Iv[]): Decimal => Z.reduce((acc, z) => c.Up.add(acc, c.Up.sub(z.hi, z.lo)), new c.Up('0'));
+    for (let it = 0; it < 40; it++) {
+      const Z = picard(apriori!);
+      const shrunk = width(Z).lt(c.Down.mul(width(apriori!), '0.9'));
+      apriori = Z;
+      if (it >= 2 && !shrunk) break;
+    }
     // 2.–3. Taylor parts (the coefficients do not depend on h)
     const xsX = taylor(da, prog, Xh.map((v, i) => ({ v, d: Array.from({ length: n }, (_, q) => (q === i ? c.one : c.zero)) })), t, P);
     const xsM = taylor(ia, prog, m, t, P);

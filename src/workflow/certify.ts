@@ -251,8 +251,6 @@ function planBoxes(orbit: ProvenOrbit): [string, string][][] {
   }));
 }
 
-/** Said for every orbit of a return map of a flow: the independent checker cannot re-verify those yet. */
-export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle return maps of flows)';
 
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
@@ -402,8 +400,8 @@ export async function certifyOrbits(
     }
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
-    // a flow map: its flow period (shown in the table); a time-T map also records the integration
-    // plan from each written box (hints for the checker) and the period as a claim it verifies
+    // a flow map: its flow period (shown in the table) and the integration plan (hints for the
+    // checker); a time-T map also records the period as a claim the checker verifies
     const T = isFlowMap(compiled) ? encloseFlowPeriod(compiled, orbit.boxes) : null;
     const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
     const flowPlan = isFlowMap(compiled) ? compiled.plan(compiled.kind === 'return-map' ? planBoxes(orbit) : orbit.boxes) : null;
@@ -416,9 +414,7 @@ export async function certifyOrbits(
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
     if (T) outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
-    if (checkOn && def.flow?.section !== undefined) {
-      outcome.reason = FLOW_NOT_REVERIFIED;
-    } else if (checkOn) {
+    if (checkOn) {
       const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;

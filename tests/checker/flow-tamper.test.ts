@@ -96,7 +96,11 @@ describe('prover-written flow certificate, driven damped oscillator (Î¶ = 0.1, Ï
     ['an unknown key in a step', (d) => void (steps(d)[0]!.note = 'x'), /unknown key "note"/],
     ['an unknown key in map.flow', (d) => void (d.map.flow.comment = 'x'), /unknown key "comment"/],
     ['a step size on the last step', (d) => void (steps(d)[steps(d).length - 1]!.h = '0.1'), /unknown key "h"/],
-    ['a section (return maps are not re-verified yet)', (d) => void (d.map.flow.section = { surface: 'x', crossing: 'increasing' }), /return maps/],
+    ['a section beside the duration', (d) => void (d.map.flow.section = { surface: 'x', crossing: 'increasing' }), /exactly one of map.flow.duration/],
+    ['the duration replaced by a section (a time-T plan: no crossing step)', (d) => {
+      delete d.map.flow.duration;
+      d.map.flow.section = { surface: 'x', crossing: 'increasing' };
+    }, /crossing|step/],
     ['the plan removed', (d) => void delete d.plan, /expected an object at \$\.plan/],
     ['an order beyond the limit', (d) => void (d.plan.order = 41), /outside the accepted range/],
     ['the kind (flow read as a formula map)', (d) => void (d.kind = 'periodic-orbit'), /unknown key "(plan|flow)"/],

@@ -87,10 +87,11 @@ describe('flow certificates written from closed forms', () => {
     expect(r.reason).toMatch(/no Taylor recurrence for tan/);
   });
 
-  it('refuses a return map (section) and refuses beyond the work budget before any arithmetic', () => {
+  it('refuses a map with both a duration and a section, and refuses beyond the work budget before any arithmetic', () => {
+    // (return maps themselves: tests/checker/flow-section.test.ts)
     const doc = relax('0.7', widen(D60.exp(-1.5), '1e-15'));
     doc.map.flow.section = { surface: 'x', crossing: 'increasing' };
-    expect(checkCertificate(seal(doc)).reason).toMatch(/return maps/);
+    expect(checkCertificate(seal(doc)).reason).toMatch(/exactly one of map.flow.duration/);
     const big = relax('0.7', widen(D60.exp(-1.5), '1e-15'));
     big.plan.points[0].steps = [...Array<Doc>(5000).fill({ h: '1e-4', apriori: [['0', '1']] }), { apriori: [['0', '1']] }];
     const t0 = performance.now();
