@@ -19,9 +19,11 @@
  *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
  *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
  *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices);
- *     for time-T maps of ODEs (flow.ts, flow-series.ts): the Picard–Lindelöf a priori inclusion,
+ *     for time-T and return maps of ODEs (flow.ts, flow-series.ts): the Picard–Lindelöf a priori inclusion,
  *     Taylor's theorem with the Lagrange remainder, the mean value theorem, Gronwall's inequality
- *     and the Neumann series, each stated in flow.ts's header.
+ *     and the Neumann series, each stated in flow.ts's header; for return maps to a section
+ *     (flow-section.ts) also the intermediate value theorem, the implicit function theorem and
+ *     the interval Newton step, stated in its header.
  *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
