@@ -1,8 +1,8 @@
 /**
- * Independent checker on flow certificates (src/checker/flow.ts): time to prove a time-T fixed
- * point (prover, float64 intervals, plus recording the integration plan) against the time the
- * checker takes to re-verify the certificate (decimal intervals, 30 digits). One run; the ratio
- * is measured in this run.
+ * Independent checker on flow certificates (src/checker/flow.ts, flow-section.ts): time to prove
+ * a time-T fixed point or a Lorenz return-map orbit (prover, float64 intervals, plus recording
+ * the integration plan) against the time the checker takes to re-verify the certificate (decimal
+ * intervals, 30 digits). One run; the ratios are measured in this run.
  */
 import { fileURLToPath } from 'node:url';
 import { buildCertificate } from '../src/certificate/build.js';
@@ -11,6 +11,9 @@ import { compileFlowMap } from '../src/flow/compile.js';
 import { encloseFlowPeriod } from '../src/flow/period.js';
 import type { MapDefinition } from '../src/model/types.js';
 import { proveOrbit } from '../src/prove/orbit.js';
+import { getCatalogueMap } from '../src/model/catalogue.js';
+import { findCandidates } from '../src/search/index.js';
+import { planBoxes } from '../src/workflow/certify.js';
 
 const exact = (value: string) => ({ kind: 'exact' as const, value });
 const CASES: [string, MapDefinition, number[]][] = [
@@ -42,6 +45,27 @@ export async function runFlowCheckBench(): Promise<string[]> {
     if (r.verdict !== 'VERIFIED') throw new Error(`${name}: ${r.verdict} ${r.reason ?? ''}`);
     const steps = cert.plan!.points[0]!.steps.length;
     lines.push(`${name}: ${steps} steps, order ${cert.plan!.order}; prove + plan ${prove.toFixed(0)} ms, check ${check.toFixed(0)} ms (${r.claimsVerified.join(', ')}), check/prove ${(check / prove).toFixed(1)}x`);
+  }
+  // return maps: the catalogue Lorenz map, every orbit the float search finds for periods 2-4
+  const def = getCatalogueMap('lorenz')!;
+  const lorenz = compileFlowMap(def);
+  for (const period of [2, 3, 4]) {
+    for (const c of findCandidates(lorenz, { period })) {
+      const t0 = performance.now();
+      const v = proveOrbit(lorenz, c.points, { maxBits: 53 });
+      if (v.status !== 'proven') {
+        lines.push(`lorenz period ${period}: candidate not proven (${v.reason})`);
+        continue;
+      }
+      const plan = lorenz.plan(planBoxes(v.orbit));
+      const cert = buildCertificate(v.orbit, def, { flowPlan: plan });
+      const prove = performance.now() - t0;
+      const t1 = performance.now();
+      const r = checkCertificate(cert);
+      const check = performance.now() - t1;
+      const steps = cert.plan ? cert.plan.points.reduce((s, p) => s + p.steps.length + 1, 0) : 0;
+      lines.push(`lorenz return map, period ${period}: ${r.verdict}${r.verdict === 'VERIFIED' ? '' : ` (${r.reason ?? ''})`}; ${steps} steps; prove + plan ${prove.toFixed(0)} ms, check ${check.toFixed(0)} ms, check/prove ${(check / prove).toFixed(1)}x`);
+    }
   }
   return lines;
 }

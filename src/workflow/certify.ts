@@ -241,7 +241,7 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
  * must hold for the widest of them (centre ± uniqueness radius; the checker narrows the crossing
  * time for the smaller ones by an interval Newton step).
  */
-function planBoxes(orbit: ProvenOrbit): [string, string][][] {
+export function planBoxes(orbit: ProvenOrbit): [string, string][][] {
   const r = orbit.uniquenessRadius;
   if (r === null) return orbit.boxes.map((b) => b.map(([lo, hi]) => [lo, hi] as [string, string]));
   return orbit.centre.map((pt, i) => pt.map((m, k) => {
