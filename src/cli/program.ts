@@ -112,6 +112,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--no-check', 'do not run the independent checker (results are then labelled "fast engine only")')
     .option('--digits <D>', 'decimal digits for the checker (default: the certificate hint)')
     .option('--workers <K>', 'worker threads (default: the number of cores); certificates are the same for any K')
+    .option('--recheck', 'a re-run resumes the orbits an earlier run of the same command finished; re-check their certificates instead of relying on the recorded verdict')
     .option('--param <name=value>', PARAM_HELP, collect)
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {

@@ -47,6 +47,8 @@ export interface ProveCommandOptions {
   start?: string;
   points?: string;
   effort?: string;
+  /** Re-run the checker on orbits resumed from an earlier run (default: their recorded verdict). */
+  recheck?: boolean;
   /** Terminal width for the table (default no limit). */
   columns?: number;
 }
@@ -110,6 +112,7 @@ export async function proveCommand(
     ...(workers !== undefined ? { workers } : {}),
     overrides,
     manifestCommand: proveCommandLine(mapArg, o),
+    ...(o.recheck ? { recheck: true } : {}),
   });
   bar.finish();
   const exitCode = proveExitCode(report);
@@ -155,10 +158,13 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
     merged: r.merged,
     checked: r.checked,
     outDir: r.outDir,
+    toAttempt: r.toAttempt,
+    resumed: r.resumed,
     orbits: r.outcomes.map((o) => ({
       index: o.index,
       status: o.status,
       label: statusLabel(o.status),
+      ...(o.resumed !== undefined ? { resumed: o.resumed } : {}),
       ...(o.reason !== undefined ? { reason: o.reason } : {}),
       candidatePoints: o.candidate.points,
       ...(o.orbit
@@ -173,7 +179,9 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
       ...(o.certificatePath ? { certificate: o.certificatePath } : {}),
       ...(o.check
         ? { check: { verdict: o.check.verdict, reason: o.check.reason, claimsVerified: o.check.claimsVerified } }
-        : {}),
+        : o.resumed === 'recorded-verdict'
+          ? { check: { verdict: 'VERIFIED', recorded: true, claimsVerified: o.recordedClaims ?? [] } }
+          : {}),
     })),
     exitCode: proveExitCode(r),
   };
@@ -268,6 +276,8 @@ export function renderProve(r: CertifyReport, header: string, cwd: string, width
   for (const o of r.outcomes) {
     if (o.check && o.status === 'verified') {
       out.push(`#${o.index}: the independent checker re-verified: ${o.check.claimsVerified.join(', ')}`);
+    } else if (o.resumed === 'recorded-verdict' && o.status === 'verified') {
+      out.push(`#${o.index}: the independent checker re-verified, in an earlier run (file unchanged since): ${(o.recordedClaims ?? []).join(', ')}`);
     } else if (o.orbit && o.orbit.assumed && o.status !== 'verified') {
       out.push(`#${o.index}: note: the fast engine's enclosures rest on the accuracy of built-in elementary functions`);
     }
@@ -363,6 +373,18 @@ export function summaryLine(r: CertifyReport): string {
   const notMinimal = r.outcomes.filter((o) => o.orbit !== undefined && o.orbit.minimalPeriod !== r.period).length;
   if (notMinimal > 0) parts.push(`${notMinimal} without a proof of minimal period ${r.period}`);
   if (r.merged.length > 0) parts.push(`${r.merged.length} duplicate${r.merged.length === 1 ? '' : 's'} merged`);
-  return `summary: ${parts.join('; ')}.` + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
+  const summary = `summary: ${parts.join('; ')}.`;
+  const resumed = r.resumed > 0 ? `\n${resumedLine(r)}` : '';
+  return summary + resumed + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
 }
 
+
+/** "resumed: k of N already finished …" and how their verdict was established. */
+export function resumedLine(r: CertifyReport): string {
+  const recorded = r.outcomes.filter((o) => o.resumed === 'recorded-verdict').length;
+  const how =
+    recorded > 0
+      ? ` (not proven again; ${recorded} re-verified in that run, verdict recorded for the unchanged file: --recheck checks again)`
+      : ' (not proven again)';
+  return wrap(`resumed: ${r.resumed} of ${r.toAttempt} already finished by an earlier run of this command${how}`, 78, 6);
+}
