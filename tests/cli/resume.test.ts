@@ -104,3 +104,25 @@ describe('prove resumes an interrupted run', () => {
     expect(r6.resumed).toBe(0);
   }, 60_000);
 });
+
+describe('--limit leaves candidates untried: the summary says how many', () => {
+  it('prove logistic r = 4 --period 5 --near 0.1 --limit 2: 2 proven, 4 of the 6 orbits (OEIS A001037) left untried, exit 0', async () => {
+    const argv = ['prove', 'logistic', '--param', 'r=4', '--period', '5', '--near', '0.1', '--limit', '2', '--out', join(work, 'lim')];
+    const t = await runCli(argv, { cwd: work });
+    expect(t.exitCode).toBe(0); // the user asked for 2, not for all
+    expect(t.stdout).toMatch(/summary: 2 proven and re-verified by the independent checker; 4 candidates left\s+untried \(--limit 2\)\./);
+    const j = JSON.parse((await runCli([...argv, '--json'], { cwd: work })).stdout);
+    expect(j.untried).toBe(4);
+    // the search stopping at the limit: the number left is unknown, and said so
+    const s = await runCli(['prove', 'logistic', '--param', 'r=4', '--period', '5', '--limit', '2', '--out', join(work, 'lim2'), '--json'], { cwd: work });
+    expect(JSON.parse(s.stdout).untried).toBeNull();
+  }, 60_000);
+
+  it('with --all, candidates left untried make the exit code 1 (the user asked for all)', async () => {
+    const { proveExitCode } = await import('../../src/cli/commands/prove.js');
+    const base = { limit: null, unattempted: 0, allProven: true } as unknown as Parameters<typeof proveExitCode>[0];
+    expect(proveExitCode(base)).toBe(0);
+    expect(proveExitCode({ ...base, unattempted: 3 })).toBe(1);
+    expect(proveExitCode({ ...base, limit: 2, unattempted: 3 })).toBe(0);
+  });
+});

@@ -136,9 +136,24 @@ export function proveCommandLine(mapArg: string, o: ProveCommandOptions): string
   return parts.map((p) => (/^[\w.,=/:+-]+$/.test(p) ? p : JSON.stringify(p))).join(' ');
 }
 
-/** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
+/**
+ * 0 when every attempted orbit was proven (and re-verified when checked), else 1; also 1 when the
+ * user asked for every candidate (--all) and some were left untried.
+ */
 export function proveExitCode(r: CertifyReport): ExitCode {
+  if (r.limit === null && r.unattempted > 0) return EXIT_NOT_PROVEN;
   return r.allProven ? EXIT_OK : EXIT_NOT_PROVEN;
+}
+
+/**
+ * The summary's part on candidates left untried by a limit: how many, or that the search stopped
+ * at the limit (then more may exist, number unknown); '' when nothing was left.
+ */
+export function untriedText(r: CertifyReport): string {
+  const why = r.limitFrom === 'near' ? '--near' : r.limitFrom === 'default' ? `default limit ${DEFAULT_PROVE_LIMIT}` : `--limit ${r.limit}`;
+  if (r.unattempted > 0) return `${r.unattempted} candidate${r.unattempted === 1 ? '' : 's'} left untried (${why})`;
+  if (r.searchStopped && r.source === 'search' && r.limitFrom !== 'near') return `search stopped at ${why}: more candidates may exist, untried`;
+  return '';
 }
 
 /** The `--json` document of a prove run. */
@@ -153,6 +168,8 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
     searchStopped: r.searchStopped,
     limit: r.limit,
     unattempted: r.unattempted,
+    // candidates left untried: a number, or null when the search stopped at the limit (unknown)
+    untried: r.unattempted > 0 || !(r.searchStopped && r.source === 'search' && r.limitFrom !== 'near') ? r.unattempted : null,
     searchScope: SEARCH_SCOPE,
     duplicatesMerged: r.merged.length,
     merged: r.merged,
@@ -373,6 +390,8 @@ export function summaryLine(r: CertifyReport): string {
   const notMinimal = r.outcomes.filter((o) => o.orbit !== undefined && o.orbit.minimalPeriod !== r.period).length;
   if (notMinimal > 0) parts.push(`${notMinimal} without a proof of minimal period ${r.period}`);
   if (r.merged.length > 0) parts.push(`${r.merged.length} duplicate${r.merged.length === 1 ? '' : 's'} merged`);
+  const untried = untriedText(r);
+  if (untried !== '') parts.push(untried);
   const summary = `summary: ${parts.join('; ')}.`;
   const resumed = r.resumed > 0 ? `\n${resumedLine(r)}` : '';
   return summary + resumed + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
