@@ -1,5 +1,6 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
+import { jsonResult, paramsJson } from '../json.js';
 import { parsePeriod } from '../options.js';
 import { loadMap } from './common.js';
 import { countOrbits, mergeCounts, type CountReport } from '../../workflow/count.js';
@@ -101,8 +102,15 @@ function renderResult(r: CountReport, json: boolean): CommandResult {
   const exitCode = exitOf(r);
   if (json) {
     const { certificate, ...rest } = r;
-    void certificate;
-    return { stdout: JSON.stringify({ ...rest, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+    // the map exactly as certified: title, state, formulas' parameters as exact decimals
+    const map = { title: certificate.map.title, state: [...certificate.map.state], params: paramsJson(certificate.map.params) };
+    const items = r.periods.map((p) => ({
+      period: p.period,
+      outcome: p.exact ? 'exact' : 'lower-bound',
+      orbits: p.claims.orbitsByMinimalPeriod[String(p.period)] ?? 0,
+      check: r.check === null ? null : r.check.verdict,
+    }));
+    return jsonResult('count-report', { ...rest, map, items }, exitCode);
   }
   return { stdout: renderCount(r) + '\n', stderr: '', exitCode };
 }

@@ -8,6 +8,7 @@ import type { EdgeKind } from '../../windows/edges.js';
 import { loadMap } from './common.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
 import { certificateLine } from './window.js';
+import { certificateOutcome, jsonResult, paramsJson } from '../json.js';
 
 export interface EdgesCommandOptions {
   period: string;
@@ -63,7 +64,13 @@ export async function edgesCommand(mapArg: string, o: EdgesCommandOptions, cwd =
   });
   if (shown) progressSink?.('\r\x1b[K');
   const exitCode = report.status === 'proven' ? EXIT_OK : EXIT_NOT_PROVEN;
-  if (o.json) return { stdout: JSON.stringify({ ...report, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+  if (o.json) {
+    return jsonResult('edges-report', {
+      ...report,
+      map: { ...report.map, state: [...def.state], params: paramsJson({ ...def.params, ...overrides }) },
+      items: report.edges.map((e) => ({ kind: e.kind, param: e.param, outcome: certificateOutcome(e.certificate.check) })),
+    }, exitCode);
+  }
   return { stdout: renderEdges(report, cwd) + '\n', stderr: '', exitCode };
 }
 
