@@ -12,6 +12,7 @@ import {
   readResumable,
   RECHECKED_NOTE,
   RECORDED_VERDICT_NOTE,
+  removeStaleTemporaries,
   rereadCertificate,
   sha256Hex,
   UNCHECKED_NOTE,
@@ -343,6 +344,8 @@ export async function certifyOrbits(
   const manifestPath = opts.manifestCommand !== undefined
     ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, paramTexts).replace(/-0\.json$/, '.run'))
     : undefined;
+  // an interrupted earlier run may have left a temporary file of an unfinished atomic write
+  if (manifestPath !== undefined) removeStaleTemporaries(opts.outDir, basename(manifestPath).replace(/\.run$/, ''));
   const certMap = certificateMap(def, opts.overrides);
   const producer = `${PRODUCER_NAME} ${packageVersion()}`;
   const candidateHashes = chosen.map((c) => candidateHash(startPoints ?? c.points));

@@ -14,7 +14,7 @@
  * exactly these bytes (SHA-256 of the file unchanged since). Case (b) is said in the output.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, unlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { canonicalJson } from '../certificate/canonical.js';
 import type { CertificateMap, CertificateV1 } from '../certificate/types.js';
@@ -183,3 +183,41 @@ export const RECHECKED_NOTE = 'resumed: proven in an earlier run; re-checked now
 
 /** Said on a resumed row when the checker is off. */
 export const UNCHECKED_NOTE = 'resumed: proven in an earlier run; file unchanged (SHA-256 in the run manifest)';
+
+function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+/**
+ * Remove the temporary files an interrupted run of this stem left in `outDir` (an atomic write
+ * killed before its rename: `.<file>.<pid>.<random>.tmp`, certificate/write.ts) whose process no
+ * longer runs. Never touches finished files, other runs' names or a live writer's file; never
+ * throws. Returns how many were removed.
+ */
+export function removeStaleTemporaries(outDir: string, stem: string): number {
+  const escaped = stem.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  const pattern = new RegExp(`^\\.${escaped}(?:-\\d+\\.json|\\.run)\\.(\\d+)\\.[0-9a-f]{12}\\.tmp$`);
+  let removed = 0;
+  let names: string[];
+  try {
+    names = readdirSync(outDir);
+  } catch {
+    return 0;
+  }
+  for (const name of names) {
+    const m = pattern.exec(name);
+    if (m === null || processAlive(Number(m[1]))) continue;
+    try {
+      unlinkSync(join(outDir, name));
+      removed++;
+    } catch {
+      // gone already, or not ours to remove
+    }
+  }
+  return removed;
+}

@@ -63,9 +63,15 @@ describe('prove resumes an interrupted run', () => {
     const full = manifest(out, 'logistic-map-r3.83-p3.run');
     expect(full.finished).toHaveLength(2); // two period-3 orbits at r = 3.83 (Zhang, arXiv:1204.0546)
 
-    // as if interrupted after the first orbit: the second file never written
+    // as if interrupted after the first orbit: the second file never written, its temporary left
+    // behind by a process that is gone (a live writer's temporary file is left alone)
     writeFileSync(run, JSON.stringify({ ...full, finished: full.finished.slice(0, 1), complete: false }));
     unlinkSync(join(out, 'logistic-map-r3.83-p3-2.json'));
+    const gone = spawnSync(process.execPath, ['-e', '0']).pid!;
+    const stale = `.logistic-map-r3.83-p3-2.json.${gone}.0123456789ab.tmp`;
+    const live = `.logistic-map-r3.83-p3-2.json.${process.pid}.0123456789ab.tmp`;
+    writeFileSync(join(out, stale), '{"half');
+    writeFileSync(join(out, live), '{"half');
     const r1 = JSON.parse((await runCli([...argv, '--json'], { cwd: work })).stdout);
     expect(r1.exitCode).toBe(0);
     expect(r1.resumed).toBe(1);
@@ -73,6 +79,9 @@ describe('prove resumes an interrupted run', () => {
     expect(r1.orbits[0].check).toMatchObject({ verdict: 'VERIFIED', recorded: true });
     expect(r1.orbits[1].check.verdict).toBe('VERIFIED');
     expect(manifest(out, 'logistic-map-r3.83-p3.run').complete).toBe(true);
+    expect(existsSync(join(out, stale))).toBe(false);
+    expect(existsSync(join(out, live))).toBe(true);
+    unlinkSync(join(out, live));
 
     // the manifest lists a file that is gone: proven again and re-written, not counted as resumed
     unlinkSync(join(out, 'logistic-map-r3.83-p3-1.json'));
