@@ -249,6 +249,9 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
 /** Said for every orbit of a flow map: the independent checker cannot re-verify it yet. */
 export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle flows)';
 
+/** Run manifests with up to this many finished entries are rewritten after every orbit. */
+const MANIFEST_EVERY_ORBIT_UP_TO = 500;
+
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
 
@@ -365,8 +368,15 @@ export async function certifyOrbits(
     return cert === null ? null : { entry, cert };
   });
   let attemptNo = 0;
+  // the manifest grows with the run, so rewriting it after every orbit costs O(N²) bytes: beyond
+  // MANIFEST_EVERY_ORBIT_UP_TO entries it is rewritten at most once a second (an orbit finished
+  // since is then proven again by a resumed run: its file has the same bytes, so no clash)
+  let lastManifestWrite = 0;
   const writeManifest = (complete: boolean): void => {
     if (manifestPath === undefined) return;
+    const now = performance.now();
+    if (!complete && entries.length > MANIFEST_EVERY_ORBIT_UP_TO && now - lastManifestWrite < 1000) return;
+    lastManifestWrite = now;
     const params: Record<string, string | [string, string]> = {};
     for (const [name, v] of Object.entries({ ...def.params, ...(opts.overrides ?? {}) })) params[name] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
     // entries of the earlier run not reached yet stay recorded: a second interruption loses nothing
