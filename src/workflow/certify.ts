@@ -5,7 +5,7 @@
  */
 import { basename, join } from 'node:path';
 import { Decimal } from 'decimal.js';
-import { buildCertificate } from '../certificate/build.js';
+import { buildCertificate, certificateMap } from '../certificate/build.js';
 import {
   candidateHash,
   mapHash,
@@ -24,7 +24,6 @@ import {
 import { renameSync, unlinkSync } from 'node:fs';
 import { OrbitIdentifier } from '../prove/identify.js';
 import { DirectorySync, certificateFileName, checkDirectoryUsable, serializeCertificate, writeFileAtomic } from '../certificate/write.js';
-import { certificateMap } from '../certificate/build.js';
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
@@ -363,7 +362,7 @@ export async function certifyOrbits(
     if (entry.status === 'not-proven') return { entry, cert: null };
     const wantStatus = checkOn && def.flow === undefined ? 'verified' : 'prover-only';
     if (entry.status !== wantStatus) return null;
-    if (wantStatus === 'verified' && !opts.recheck && (entry.check?.verdict !== 'VERIFIED')) return null;
+    if (wantStatus === 'verified' && !opts.recheck && entry.check?.verdict !== 'VERIFIED') return null;
     const cert = rereadCertificate(entry, opts.outDir, certMap, opts.period);
     return cert === null ? null : { entry, cert };
   });
