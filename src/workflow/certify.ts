@@ -405,6 +405,8 @@ export async function certifyOrbits(
     ...(o.certificatePath ? { certificate: basename(o.certificatePath) } : {}),
     ...(o.reason !== undefined ? { reason: o.reason } : {}),
     ...(o.orbit?.assumed ? { assumed: true } : {}),
+    ...(o.orbit?.stability.proverOnly ? { proverOnly: o.orbit.stability.proverOnly } : {}),
+    ...(o.orbit?.stability.note !== undefined ? { stabilityNote: o.orbit.stability.note } : {}),
     ...(o.check ? { check: { verdict: o.check.verdict, claimsVerified: [...o.check.claimsVerified], digits: o.check.digits } } : {}),
     ...extra,
   });

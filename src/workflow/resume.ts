@@ -18,7 +18,7 @@ import { existsSync, readdirSync, readFileSync, unlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { canonicalJson } from '../certificate/canonical.js';
 import type { CertificateMap, CertificateV1 } from '../certificate/types.js';
-import type { ProvenOrbit } from '../prove/types.js';
+import type { ProvenOrbit, ProverOnlyStability } from '../prove/types.js';
 
 /**
  * How far a result got. Only `verified` means proven AND independently re-verified; `prover-only`
@@ -45,6 +45,10 @@ export interface ManifestEntry {
   assumed?: boolean;
   /** Identity against an earlier row undecided (the run cannot count it as a distinct orbit). */
   identityUndecided?: boolean;
+  /** n ≥ 3: the fast engine's own stability class (never in a certificate; shown labelled as such). */
+  proverOnly?: ProverOnlyStability;
+  /** Why the stability class is undecided (the prover's note; not in the certificate). */
+  stabilityNote?: string;
   /** The independent checker's verdict on these bytes, when it ran. */
   check?: { verdict: string; claimsVerified: string[]; digits: number };
 }
@@ -166,6 +170,8 @@ export function rereadCertificate(entry: ManifestEntry, outDir: string, map: Cer
       ...(s.determinant ? { determinant: [s.determinant[0], s.determinant[1]] as [string, string] } : {}),
       ...(s.eigenvalueModuli ? { eigenvalueModuli: s.eigenvalueModuli.map(([lo, hi]) => [lo, hi] as [string, string]) } : {}),
       ...(s.eigenbasis ? { eigenbasis: s.eigenbasis } : {}),
+      ...(entry.proverOnly ? { proverOnly: entry.proverOnly } : {}),
+      ...(entry.stabilityNote !== undefined ? { note: entry.stabilityNote } : {}),
     },
     bits: cert.hints?.bits ?? 53,
     attempts: [],

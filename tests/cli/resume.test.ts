@@ -135,3 +135,22 @@ describe('--limit leaves candidates untried: the summary says how many', () => {
     expect(proveExitCode({ ...base, limit: 2, unattempted: 3 })).toBe(0);
   });
 });
+
+describe('a resumed row shows what the proving run showed', () => {
+  it('3-D map, period 2: same boxes, claims and fast-engine-only stability from the certificate and manifest; x holds the closed-form 2-cycle', async () => {
+    // x' = 3.2x(1 − x) has the 2-cycle x = (r + 1 ± √((r + 1)(r − 3)))/(2r) = (4.2 ± √0.84)/6.4
+    // (closed form, derived by hand); y and z follow contracting linear maps
+    writeFileSync(join(work, 'three.yaml'), 'title: Three\nstate: [x, y, z]\nparams:\n  r: 3.2\nstep:\n  x: r*x*(1 - x)\n  y: 0.5*y + 0.1*x\n  z: 0.3*z + 0.2\nregion:\n  x: [0, 1]\n  y: [0, 1]\n  z: [0, 1]\n');
+    const argv = ['prove', 'three.yaml', '--period', '2', '--out', join(work, 'three'), '--json'];
+    const first = JSON.parse((await runCli(argv, { cwd: work })).stdout);
+    const again = JSON.parse((await runCli(argv, { cwd: work })).stdout);
+    expect(first.exitCode).toBe(0);
+    expect(again.resumed).toBe(first.orbits.length);
+    const shown = (o: Record<string, unknown>) => ({ status: o.status, boxes: o.boxes, uniquenessRadius: o.uniquenessRadius, minimalPeriod: o.minimalPeriod, stability: o.stability, bits: o.bits, certificate: o.certificate });
+    expect(again.orbits.map(shown)).toEqual(first.orbits.map(shown));
+    expect(first.orbits[0].stability.proverOnly).toBeDefined(); // n ≥ 3: fast engine only, kept on resume
+    const s = Math.sqrt(0.84);
+    const xs = first.orbits[0].boxes.map((b: string[][]) => b[0]!);
+    for (const x of [(4.2 - s) / 6.4, (4.2 + s) / 6.4]) expect(xs.some(([lo, hi]: string[]) => Number(lo) - 1e-12 <= x && x <= Number(hi) + 1e-12)).toBe(true);
+  }, 60_000);
+});
