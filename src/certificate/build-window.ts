@@ -82,7 +82,8 @@ export interface EdgeData {
 }
 
 export function buildEdgeCertificate(e: EdgeData, def: MapDefinition, range: DecimalInterval, overrides: Record<string, ParamValue> = {}): EdgeCertificateV1 {
-  if (def.state.length !== 1) throw new CertificateBuildError('edge certificates are for one-dimensional maps');
+  // n = 1: p boxes; n ≥ 2 (det(M ∓ I) edges): p·n boxes, point by point
+  if (e.boxes.length !== e.period * def.state.length || e.centre.length !== e.boxes.length) throw new CertificateBuildError(`edge has ${e.boxes.length} boxes for period ${e.period} and dimension ${def.state.length}`);
   const unsigned: Omit<EdgeCertificateV1, 'sha256'> = {
     format: 'orbitseal-certificate',
     formatVersion: 1,

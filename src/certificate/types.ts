@@ -202,7 +202,9 @@ export type EdgeKindV1 = 'fold' | 'flip' | 'superstable';
 
 /**
  * Exactly one (x_0..x_{p-1}, θ) in boxes × param with x_{i+1 mod p} = f(x_i, θ) and
- * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable). One-dimensional maps.
+ * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable) for one-dimensional maps;
+ * for n ≥ 2 state variables det(M − I) = 0 (fold) or det(M + I) = 0 (flip) with the monodromy
+ * M = Df(x_{p−1})⋯Df(x_0), and `boxes` / `centre.orbit` hold p·n entries, point by point.
  * `map.params[parameter]` holds the range searched (θ* lies in `param`, inside it).
  */
 export interface EdgeCertificateV1 {

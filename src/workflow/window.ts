@@ -12,6 +12,8 @@ import type { MapDefinition, ParamValue } from '../model/types.js';
 import type { DecimalPair } from '../prove/types.js';
 import { coverWindow, type WindowCover } from '../windows/cover.js';
 import { findEdges, type EdgeKind, type ProvenEdge } from '../windows/edges.js';
+import { findEdgesN } from '../windows/edges-n.js';
+import { MAX_EDGE_DIMENSION } from '../certificate/limits.js';
 import { proveAbsenceOverRange } from '../windows/absence.js';
 import { UserError } from '../errors.js';
 
@@ -195,19 +197,27 @@ export interface EdgesReport {
 }
 
 /**
- * Enclose folds, flips and superstable parameters of period-P orbits of a one-dimensional map in
- * the interval parameter's range; one `bifurcation-edge` certificate per edge, each re-verified.
+ * Enclose folds, flips and superstable parameters of period-P orbits of a one-dimensional map
+ * (folds det(M − I) = 0 and flips det(M + I) = 0 for 2 ≤ n ≤ MAX_EDGE_DIMENSION) in the interval
+ * parameter's range; one `bifurcation-edge` certificate per edge, each re-verified.
  * Edges the float seeds miss are not listed (no claim that none exist).
  */
 export function runEdges(req: EdgesRequest): EdgesReport {
   const t0 = performance.now();
   const { name, range, exact } = splitParameters(req.def, req.overrides);
-  if (req.def.state.length !== 1) {
-    throw new UserError('edges-dimension', `edges handles one-dimensional maps; this map has ${req.def.state.length} state variables`, 'use a map with one state variable (n ≥ 2 is not implemented yet)');
+  const n = req.def.state.length;
+  if (n > MAX_EDGE_DIMENSION) {
+    throw new UserError('edges-dimension', `edges handles maps with at most ${MAX_EDGE_DIMENSION} state variables; this map has ${n}`, `use a map with 1 to ${MAX_EDGE_DIMENSION} state variables`);
+  }
+  if (n >= 2 && req.kinds.includes('superstable')) {
+    throw new UserError('edges-superstable-dimension', `superstable parameters are for one-dimensional maps; this map has ${n} state variables`, 'ask for --kind fold,flip (det(M − I) = 0 and det(M + I) = 0)', '--kind');
   }
   if (req.outDir !== undefined) checkDirectoryUsable(req.outDir);
   req.progress?.(0, 1, 'searching');
-  const found: ProvenEdge[] = findEdges(req.def, exact, name, range, req.period, req.kinds, { ...(req.samples ? { samples: req.samples } : {}), ...(req.search !== undefined ? { search: req.search } : {}) });
+  const searchOpts = { ...(req.samples ? { samples: req.samples } : {}), ...(req.search !== undefined ? { search: req.search } : {}) };
+  const found: ProvenEdge[] = n === 1
+    ? findEdges(req.def, exact, name, range, req.period, req.kinds, searchOpts)
+    : findEdgesN(req.def, exact, name, range, req.period, req.kinds.filter((k): k is 'fold' | 'flip' => k !== 'superstable'), searchOpts);
   const edges = found.map((e, k) => {
     const cert = buildEdgeCertificate(e, req.def, range, exact);
     const file = `${mapSlug(req.def.title)}-${e.kind}-p${req.period}-${k + 1}.json`;
