@@ -7,7 +7,9 @@ import { certificateHash } from './canonical.js';
 import { certificateMap, CertificateBuildError } from './build.js';
 import { PRODUCER_NAME, packageVersion } from './producer.js';
 import type {
+  AbsenceCertificateNV1,
   AbsenceCertificateV1,
+  AbsenceNodeV1,
   AbsenceLeafV1,
   CertificateStability,
   DecimalInterval,
@@ -125,6 +127,35 @@ export function buildAbsenceCertificate(a: AbsenceData, def: MapDefinition, over
     region: [a.region[0], a.region[1]],
     ...(a.condition ? { condition: a.condition } : {}),
     pieces: a.pieces.map((p) => ({ param: [p.param[0], p.param[1]], leaves: p.leaves.map((l) => JSON.parse(JSON.stringify(l)) as AbsenceLeafV1) })),
+  };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
+
+export interface AbsenceNData {
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval[];
+  condition?: 'fold' | 'flip';
+  pieces: { param: DecimalInterval; cover: AbsenceNodeV1[] }[];
+}
+
+/** The `periodic-absence` certificate of a map with n ≥ 2 state variables (cover trees per piece). */
+export function buildAbsenceCertificateN(a: AbsenceNData, def: MapDefinition, overrides: Record<string, ParamValue> = {}): AbsenceCertificateNV1 {
+  if (def.state.length < 2 || a.region.length !== def.state.length) throw new CertificateBuildError('n ≥ 2 absence certificates need one region interval per state variable');
+  const value: ParamValue = a.range[0] === a.range[1] ? { kind: 'exact', value: a.range[0] } : { kind: 'interval', lo: a.range[0], hi: a.range[1] };
+  const unsigned: Omit<AbsenceCertificateNV1, 'sha256'> = {
+    format: 'orbitseal-certificate',
+    formatVersion: 1,
+    kind: 'periodic-absence',
+    producer: { name: PRODUCER_NAME, version: packageVersion() },
+    map: certificateMap(def, { ...overrides, [a.parameter]: value }),
+    period: a.period,
+    parameter: a.parameter,
+    range: [a.range[0], a.range[1]],
+    region: a.region.map((r) => [r[0], r[1]] as DecimalInterval),
+    ...(a.condition ? { condition: a.condition } : {}),
+    pieces: a.pieces.map((p) => ({ param: [p.param[0], p.param[1]], cover: p.cover.map((l) => JSON.parse(JSON.stringify(l)) as AbsenceNodeV1) })),
   };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

@@ -257,3 +257,39 @@ export interface AbsenceCertificateV1 {
   pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
   sha256: string;
 }
+
+/** One node of an n ≥ 2 absence cover, in pre-order (src/windows/absence-n.ts). */
+export type AbsenceNodeV1 =
+  | { kind: 'split'; axis: number; at: DecimalString }
+  | { kind: 'empty' }
+  | { kind: 'multiplier' }
+  | {
+      kind: 'lower';
+      divisor: number;
+      /** p·n (and d·n) entries, point by point. */
+      boxes: DecimalInterval[];
+      centre: DecimalString[];
+      lowerBoxes: DecimalInterval[];
+      lowerCentre: DecimalString[];
+    };
+
+/**
+ * `periodic-absence` for maps with n ≥ 2 state variables: `region` is a box (n intervals, in
+ * state order) and each piece's `cover` a bisection tree of it in pre-order (a `split` node
+ * halves the current box along `axis` at `at`, lower half first; other nodes are leaves).
+ * `condition` fold / flip: no zero of the period-p system with det(M − I) = 0 / det(M + I) = 0.
+ */
+export interface AbsenceCertificateNV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-absence';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval[];
+  condition?: 'fold' | 'flip';
+  pieces: { param: DecimalInterval; cover: AbsenceNodeV1[] }[];
+  sha256: string;
+}

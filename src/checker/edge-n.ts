@@ -18,7 +18,8 @@ import { Exact, fmt, isInterior, isSubset, type Iv, type IvCtx } from './interva
 import { derivative, SymbolicError } from './symbolic.js';
 import { floatInverse, header, MAX_EDGE_UNKNOWNS, minimalPeriodShown, parseSteps, Reader, type KindLimits, type Reject } from './window.js';
 
-function det(c: IvCtx, m: readonly Iv[], n: number): Iv {
+/** det of the n×n row-major interval matrix m (cofactor expansion along the first row). */
+export function det(c: IvCtx, m: readonly Iv[], n: number): Iv {
   if (n === 1) return m[0]!;
   let acc = c.zero;
   for (let j = 0; j < n; j++) {

@@ -5,7 +5,7 @@
  */
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
-import { buildAbsenceCertificate, buildEdgeCertificate, buildWindowCertificate } from '../certificate/build-window.js';
+import { buildAbsenceCertificate, buildAbsenceCertificateN, buildEdgeCertificate, buildWindowCertificate } from '../certificate/build-window.js';
 import { checkDirectoryUsable, mapSlug, writeFileAtomic } from '../certificate/write.js';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
@@ -15,6 +15,7 @@ import { findEdges, type EdgeKind, type ProvenEdge } from '../windows/edges.js';
 import { findEdgesN } from '../windows/edges-n.js';
 import { MAX_EDGE_DIMENSION } from '../certificate/limits.js';
 import { proveAbsenceOverRange } from '../windows/absence.js';
+import { proveAbsenceOverRangeN } from '../windows/absence-n.js';
 import { UserError } from '../errors.js';
 
 export const WINDOW_REPORT_KIND = 'window-report';
@@ -274,9 +275,15 @@ export interface AbsenceReport {
   certificate?: CertificateOutcome;
 }
 
-/** Prove that no orbit of minimal period P lies in the map's region for θ in the range. */
+/**
+ * Prove that no orbit of minimal period P lies in the map's region for θ in the range (n = 1:
+ * an interval cover; n ≥ 2: a bisection cover of the region box), or with `condition` that no
+ * period-P fold / flip happens there.
+ */
 export function runAbsence(req: AbsenceRequest): AbsenceReport {
-  if (req.def.state.length !== 1) throw new UserError('absence-dimension', 'absence proofs handle one-dimensional maps', 'use a map with one state variable');
+  const n = req.def.state.length;
+  if (n > MAX_EDGE_DIMENSION && req.condition) throw new UserError('absence-dimension', `fold/flip-free proofs handle maps with at most ${MAX_EDGE_DIMENSION} state variables`, `use a map with 1 to ${MAX_EDGE_DIMENSION} state variables`);
+  if (n >= 2) return runAbsenceN(req);
   const v = proveAbsenceOverRange(req.def, req.overrides, req.parameter, req.range, req.period, req.condition ? { condition: req.condition } : {});
   const base = { kind: 'absence-report' as const, formatVersion: 1 as const, period: req.period, parameter: req.parameter, range: req.range };
   if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `at ${v.parameter} in [${v.at[0]}, ${v.at[1]}]: ${v.reason}` };
@@ -286,4 +293,16 @@ export function runAbsence(req: AbsenceRequest): AbsenceReport {
   const leaves = v.pieces.reduce((n, p) => n + p.leaves.length, 0);
   const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
   return { ...base, status: rejected ? 'rejected' : 'proven', leaves, certificate };
+}
+
+/** runAbsence for n ≥ 2: a bisection cover of the region box per parameter piece (absence-n.ts). */
+function runAbsenceN(req: AbsenceRequest): AbsenceReport {
+  const v = proveAbsenceOverRangeN(req.def, req.overrides, req.parameter, req.range, req.period, req.condition ? { condition: req.condition } : {});
+  const base = { kind: 'absence-report' as const, formatVersion: 1 as const, period: req.period, parameter: req.parameter, range: req.range };
+  if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `at ${v.parameter} in [${v.at[0]}, ${v.at[1]}]: ${v.reason}` };
+  const cert = buildAbsenceCertificateN({ period: req.period, parameter: req.parameter, range: req.range, region: v.region, pieces: v.pieces, ...(req.condition ? { condition: req.condition } : {}) }, req.def, req.overrides);
+  const file = req.file ?? `${mapSlug(req.def.title)}-${req.condition ? `no-${req.condition}` : 'absence'}-p${req.period}.json`;
+  const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
+  const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
+  return { ...base, status: rejected ? 'rejected' : 'proven', leaves: v.leaves, certificate };
 }

@@ -147,7 +147,7 @@ describe('det(M ∓ I) system enclosure (property, against decimal.js, exact)', 
         }
         return true;
       }),
-      { numRuns: 200 },
+      { numRuns: 100 },
     );
   });
 
