@@ -10,6 +10,8 @@ import type {
   AbsenceCertificateNV1,
   AbsenceCertificateV1,
   AbsenceNodeV1,
+  SuperstableCountCertificateV1,
+  SuperstableLeafV1,
   AbsenceLeafV1,
   CertificateStability,
   DecimalInterval,
@@ -159,3 +161,41 @@ export function buildAbsenceCertificateN(a: AbsenceNData, def: MapDefinition, ov
   };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }
+
+/** A `superstable-count` certificate from the prover's leaves (src/windows/superstable-count.ts). */
+export function buildSuperstableCountCertificate(
+  c: { period: number; parameter: string; range: DecimalInterval; region: DecimalInterval; critical: string; count: number; leaves: SuperstableLeafData[] },
+  def: MapDefinition,
+  overrides: Record<string, ParamValue> = {},
+): SuperstableCountCertificateV1 {
+  if (def.state.length !== 1) throw new CertificateBuildError('superstable counts are for one-dimensional maps');
+  const orbit = (o: CriticalOrbitData) => ({ param: [o.param[0], o.param[1]] as DecimalInterval, boxes: o.boxes.map((b) => [b[0], b[1]] as DecimalInterval), centre: { orbit: [...o.centre], param: o.centreParam } });
+  const leaves: SuperstableLeafV1[] = c.leaves.map((l) =>
+    l.kind === 'none'
+      ? { kind: 'none', param: [l.param[0], l.param[1]] }
+      : { kind: 'unique', ...orbit(l), minimalPeriod: l.minimalPeriod, ...(l.lower ? { lower: { ...orbit(l.lower), divisor: l.lower.divisor } } : {}) },
+  );
+  const unsigned: Omit<SuperstableCountCertificateV1, 'sha256'> = {
+    format: 'orbitseal-certificate',
+    formatVersion: 1,
+    kind: 'superstable-count',
+    producer: { name: PRODUCER_NAME, version: packageVersion() },
+    map: certificateMap(def, { ...overrides, [c.parameter]: { kind: 'interval', lo: c.range[0], hi: c.range[1] } }),
+    period: c.period,
+    parameter: c.parameter,
+    range: [c.range[0], c.range[1]],
+    region: [c.region[0], c.region[1]],
+    critical: c.critical,
+    count: c.count,
+    leaves,
+  };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
+
+interface CriticalOrbitData {
+  param: DecimalInterval;
+  boxes: DecimalInterval[];
+  centre: string[];
+  centreParam: string;
+}
+export type SuperstableLeafData = { kind: 'none'; param: DecimalInterval } | (CriticalOrbitData & { kind: 'unique'; minimalPeriod: number | null; lower?: CriticalOrbitData & { divisor: number } });

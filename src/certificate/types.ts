@@ -293,3 +293,37 @@ export interface AbsenceCertificateNV1 {
   pieces: { param: DecimalInterval; cover: AbsenceNodeV1[] }[];
   sha256: string;
 }
+
+export const CERTIFICATE_KIND_SUPERSTABLE_COUNT = 'superstable-count';
+
+/** The orbit of c through the period-q system's boxes x_1..x_{q−1} and θ-box, with the Krawczyk centre. */
+export interface CriticalOrbitV1 {
+  param: DecimalInterval;
+  boxes: DecimalInterval[];
+  centre: { orbit: DecimalString[]; param: DecimalString };
+}
+
+export type SuperstableLeafV1 =
+  | { kind: 'none'; param: DecimalInterval }
+  | (CriticalOrbitV1 & { kind: 'unique'; minimalPeriod: number | null; lower?: CriticalOrbitV1 & { divisor: number } });
+
+/**
+ * Exactly `count` parameters θ in `range` (= map.params[parameter]) whose orbit of the critical
+ * point `critical` (f_x(c, θ) = 0 for every θ in the range) is periodic of minimal period `period`
+ * with all points in `region` (one-dimensional maps). Leaves tile `range` (src/checker/superstable-count.ts).
+ */
+export interface SuperstableCountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'superstable-count';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  critical: DecimalString;
+  count: number;
+  leaves: SuperstableLeafV1[];
+  sha256: string;
+}

@@ -64,6 +64,7 @@ import { prepareCyclic2, type BoxTest } from './cyclic2.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
+import { checkSuperstableCount } from './superstable-count.js';
 import { checkCount, CountRejection } from './count.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
@@ -227,7 +228,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence", "superstable-count" or "${CERTIFICATE_KIND_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
   onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
@@ -497,17 +498,18 @@ function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClai
 function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } | null {
   const d = doc as Record<string, unknown>;
   if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
-  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
+  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence' && d.kind !== 'superstable-count') return null;
   const digits = opts.digits ?? DEFAULT_DIGITS;
   // as for orbits: no key the checker does not read (a person could read it as a claim)
   const common = ['format', 'formatVersion', 'kind', 'producer', 'map', 'period', 'parameter', 'sha256'];
-  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : ['range', 'region', 'condition', 'pieces'];
+  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : d.kind === 'superstable-count' ? ['range', 'region', 'critical', 'count', 'leaves'] : ['range', 'region', 'condition', 'pieces'];
   onlyKeys(d, [...common, ...own], '$');
   onlyKeys(obj(d.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
   if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
   else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
+  else if (d.kind === 'superstable-count') checkSuperstableCount(d, digits, limits, reject);
   else checkAbsence(d, digits, limits, reject);
-  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : ['absence'], digits };
+  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : d.kind === 'superstable-count' ? ['count'] : ['absence'], digits };
 }
 
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
