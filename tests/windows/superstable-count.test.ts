@@ -79,3 +79,55 @@ describe('superstable-count mutants (re-sealed: only the mathematics can reject 
       d.leaves.splice(k + 1, 0, { kind: 'none', param: [cut, doc.leaves[k].param[1]] });
     }).verdict).toBe('REJECTED'));
 });
+
+describe('the system through c (property, against decimal.js, exact)', () => {
+  // logistic, u = (x_1, x_2, r), c = 1/2: G = (x_1 − r/4, x_2 − r·x_1(1 − x_1), 1/2 − r·x_2(1 − x_2));
+  // ∂G_1/∂x_1 = −r(1 − 2x_1), ∂G_i/∂r = −x(1 − x) (derived by hand)
+  const Dx = Decimal.clone({ precision: 2500 });
+  it('G(box) and its Jacobian columns contain the exact values at points of the box', async () => {
+    const fc = (await import('fast-check')).default;
+    const { intervalArithmetic } = await import('../../src/interval/interval-arith.js');
+    const { decimalOfDouble } = await import('../../src/interval/decimal-literal.js');
+    const { compileMap, withParameterAsState } = await import('../../src/model/index.js');
+    const { criticalSystem } = await import('../../src/windows/superstable-count.js');
+    const A = intervalArithmetic();
+    const ev = withParameterAsState(compileMap(logistic, { r: { kind: 'interval', lo: '0', hi: '4' } }), 'r').evaluator(A);
+    const c = A.fromDecimal('0.5');
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 2, maxLength: 2 }),
+        fc.double({ min: 0, max: 4, noNaN: true }),
+        fc.double({ min: 1e-12, max: 1e-3, noNaN: true }),
+        fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 3, maxLength: 3 }),
+        (xs, r, rad, ts) => {
+          const u = [...xs, r];
+          const box = u.map((v) => A.inflate(A.fromNumber(v), rad));
+          const { G, cols } = criticalSystem(A, ev, c, box);
+          const pt = u.map((v, i) => new Dx(decimalOfDouble(v)).plus(new Dx(decimalOfDouble(rad)).times(new Dx(decimalOfDouble(ts[i]!)).times(2).minus(1))));
+          const [x1, x2, rr] = pt as [Decimal, Decimal, Decimal];
+          const f = (x: Decimal) => rr.times(x).times(new Dx(1).minus(x));
+          const half = new Dx('0.5');
+          const exactG = [x1.minus(f(half)), x2.minus(f(x1)), half.minus(f(x2))];
+          const inIv = (iv: { lo: number; hi: number }, x: Decimal) => new Dx(decimalOfDouble(iv.lo)).lte(x) && x.lte(decimalOfDouble(iv.hi));
+          for (let i = 0; i < 3; i++) if (!inIv(G[i]!, exactG[i]!)) return false;
+          // columns: x_1 → rows 1 (−f_x(x_1)), 0 (+1); x_2 → rows 2, 1; r → rows 0, 1, 2 (−f_r)
+          const fx = (x: Decimal) => rr.times(new Dx(1).minus(x.times(2)));
+          const fr = (x: Decimal) => x.times(new Dx(1).minus(x));
+          const expect3 = [
+            [[1, fx(x1).neg()], [0, new Dx(1)]],
+            [[2, fx(x2).neg()], [1, new Dx(1)]],
+            [[0, fr(half).neg()], [1, fr(x1).neg()], [2, fr(x2).neg()]],
+          ] as [number, Decimal][][];
+          for (let k = 0; k < 3; k++) {
+            for (const [row, value] of expect3[k]!) {
+              const q = cols[k]!.rows.indexOf(row);
+              if (q < 0 || !inIv(cols[k]!.values[q]!, value)) return false;
+            }
+          }
+          return true;
+        },
+      ),
+      { numRuns: 60 },
+    );
+  });
+});
