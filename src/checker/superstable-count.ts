@@ -8,7 +8,8 @@
  * G_0 = x_1 − f(c, θ), G_i = x_{i+1} − f(x_i, θ), G_{p−1} = c − f(x_{p−1}, θ).
  *  - `none` Θ: the chain X_1 = f(c, Θ) ∩ D, X_{i+1} = f(X_i, Θ) ∩ D dies or f(X_{p−1}, Θ) ∌ c, or the
  *    mean-value form x_p(m) − c + X'_p·(Θ − m) excludes 0 (X' the θ-derivative over the chain
- *    without ∩ D, by the checker's forward mode; m the lower end of Θ);
+ *    without ∩ D, by the checker's forward mode; m a point of Θ; x_p(m) by the point chain, each
+ *    step the natural and the centred (mean-value in x) enclosure intersected);
  *  - `unique` Θ: K(Z) ⊂ int Z for Z = boxes × Θ (one zero), and f(Y_i, Θ) ∩ D ⊆ boxes_{i+1} along
  *    the chain Y_0 = c (every zero with θ ∈ Θ is in Z): exactly one θ in Θ. Minimal period p by
  *    disjoint boxes (c, boxes), or `lower`: one zero of the period-d system in Y_i ⊆ ∩_k Z_{i+kd}
@@ -81,7 +82,12 @@ export function checkSuperstableCount(d: Record<string, unknown>, digits: number
       const s = step(Xr, T, true);
       dX = c.add(c.mul(s.fx, dX), s.fth);
       Xr = s.v;
-      Xm = step(Xm, mid, false).v;
+      // centred form f(x̃, m) + f_x(X, m)(X − x̃), intersected with the natural enclosure
+      const xm = c.point(c.midpoint(Xm));
+      const xt = xm.lo.lt(Xm.lo) || xm.lo.gt(Xm.hi) ? { lo: Xm.lo, hi: Xm.lo } : xm;
+      const nat = step(Xm, mid, false);
+      const centred = c.add(step(xt, mid, false).v, c.mul(nat.fx, c.sub(Xm, xt)));
+      Xm = meet(nat.v, centred) ?? nat.v;
     }
     const g = c.add(c.sub(Xm, cc), c.mul(dX, c.sub(T, mid)));
     return g.hi.lt(0) || g.lo.gt(0);
