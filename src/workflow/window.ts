@@ -5,7 +5,7 @@
  */
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
-import { buildAbsenceCertificate, buildAbsenceCertificateN, buildEdgeCertificate, buildWindowCertificate } from '../certificate/build-window.js';
+import { buildAbsenceCertificate, buildAbsenceCertificateN, buildEdgeCertificate, buildSuperstableCountCertificate, buildWindowCertificate } from '../certificate/build-window.js';
 import { checkDirectoryUsable, mapSlug, writeFileAtomic } from '../certificate/write.js';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
@@ -16,6 +16,7 @@ import { findEdgesN } from '../windows/edges-n.js';
 import { MAX_EDGE_DIMENSION } from '../certificate/limits.js';
 import { proveAbsenceOverRange } from '../windows/absence.js';
 import { proveAbsenceOverRangeN } from '../windows/absence-n.js';
+import { countSuperstable } from '../windows/superstable-count.js';
 import { UserError } from '../errors.js';
 
 export const WINDOW_REPORT_KIND = 'window-report';
@@ -305,4 +306,53 @@ function runAbsenceN(req: AbsenceRequest): AbsenceReport {
   const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
   const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
   return { ...base, status: rejected ? 'rejected' : 'proven', leaves: v.leaves, certificate };
+}
+
+export interface SuperstableCountRequest {
+  def: MapDefinition;
+  /** Exact parameters, and the one interval parameter (its range). */
+  overrides: Record<string, ParamValue>;
+  period: number;
+  /** The critical point c (exact decimal; the checker verifies f_x(c, θ) = 0 over the range). */
+  critical: string;
+  outDir?: string;
+  force?: boolean;
+  check?: boolean;
+}
+
+export interface SuperstableCountReport {
+  kind: 'superstable-count-report';
+  formatVersion: 1;
+  map: { title: string; origin?: string };
+  period: number;
+  parameter: string;
+  range: DecimalPair;
+  critical: string;
+  status: 'proven' | 'undecided' | 'rejected';
+  /** Parameters of minimal period `period`, and zeros of the period-p system of a lower period. */
+  count?: number;
+  lowerPeriod?: number;
+  leaves?: number;
+  reason?: string;
+  certificate?: CertificateOutcome;
+  elapsedMs: number;
+}
+
+/**
+ * Count the superstable parameters of minimal period P in the interval parameter's range exactly
+ * (src/windows/superstable-count.ts): one `superstable-count` certificate, re-verified.
+ */
+export function runSuperstableCount(req: SuperstableCountRequest): SuperstableCountReport {
+  const t0 = performance.now();
+  const { name, range, exact } = splitParameters(req.def, req.overrides);
+  if (req.def.state.length !== 1) throw new UserError('count-dimension', `superstable counts are for one-dimensional maps; this map has ${req.def.state.length} state variables`, 'use a map with one state variable');
+  if (req.outDir !== undefined) checkDirectoryUsable(req.outDir);
+  const base = { kind: 'superstable-count-report' as const, formatVersion: 1 as const, map: { title: req.def.title, ...(req.def.origin ? { origin: req.def.origin } : {}) }, period: req.period, parameter: name, range, critical: req.critical };
+  const v = countSuperstable(req.def, exact, name, range, req.period, req.critical);
+  if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `${v.reason} (${name} in [${v.at[0].slice(0, 20)}, ${v.at[1].slice(0, 20)}])`, elapsedMs: Math.round(performance.now() - t0) };
+  const cert = buildSuperstableCountCertificate({ period: req.period, parameter: name, range, region: v.region, critical: req.critical, count: v.count, leaves: v.leaves }, req.def, exact);
+  const file = `${mapSlug(req.def.title)}-superstable-count-p${req.period}.json`;
+  const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
+  const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
+  return { ...base, status: rejected ? 'rejected' : 'proven', count: v.count, lowerPeriod: v.lowerPeriod, leaves: v.leaves.length, certificate, elapsedMs: Math.round(performance.now() - t0) };
 }
