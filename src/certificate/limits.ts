@@ -55,3 +55,8 @@ export const MAX_WORKERS = 64;
  * expand determinants and adjugates by cofactors (n! terms).
  */
 export const MAX_EDGE_DIMENSION = 4;
+
+/** Highest Taylor order of a flow integration plan (prover options and the checker's reading). */
+export const MAX_FLOW_ORDER = 40;
+/** Most integration steps per orbit point in a flow certificate's plan. */
+export const MAX_FLOW_STEPS = 20_000;
