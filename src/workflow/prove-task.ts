@@ -9,7 +9,8 @@
 import { buildCertificate } from '../certificate/build.js';
 import { serializeCertificate } from '../certificate/write.js';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
-import { compileMap, type FormulaMap } from '../model/compile.js';
+import { compileAnyMap } from '../flow/compile.js';
+import type { CompiledMap } from '../model/types.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
 import { proveOrbit } from '../prove/index.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
@@ -38,11 +39,11 @@ export interface ProveTaskResult {
   check?: CheckReport;
 }
 
-let cached: { key: string; map: FormulaMap } | undefined;
+let cached: { key: string; map: CompiledMap } | undefined;
 
 export function proveTask(t: ProveTask): ProveTaskResult {
   const key = JSON.stringify(t.map);
-  if (cached?.key !== key) cached = { key, map: compileMap(t.map) };
+  if (cached?.key !== key) cached = { key, map: compileAnyMap(t.map) }; // formula maps and flow maps alike
   const verdict = proveOrbit(cached.map, t.points, t.maxBits ? { maxBits: t.maxBits } : {});
   if (t.check === undefined || verdict.status !== 'proven') return { verdict };
   const certificateText = serializeCertificate(buildCertificate(verdict.orbit, t.def, t.overrides ? { overrides: t.overrides } : {}));
