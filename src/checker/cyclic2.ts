@@ -20,6 +20,7 @@
 import { Decimal } from 'decimal.js';
 import { DomainViolation, fmt, isInterior, type Iv } from './interval.js';
 import { image, type KrawczykOutcome, type Shooting } from './krawczyk.js';
+import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
 
 const Approx: Decimal.Constructor = Decimal.clone({ precision: 20, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
 
@@ -174,16 +175,31 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
       zt[2 * i + r] = new Approx(Number.isFinite(z) ? String(z) : '0');
     }
   }
-  // over the box: R, G
+  // float images of the magnitudes for the (heuristic) sweeps, shared by both paths
+  const magF = Float64Array.from(Emag, (e) => Number(e.toSD(17).toString()));
+  const invMigF = Float64Array.from(invMig, (e) => Number(e.toSD(17).toString()));
+  // the same bound in binary fixed point (fixed.ts), tried first; prepared on first use
+  let fx: FixedCentre2 | null | undefined;
+  const fast = (X: readonly Iv[], inner: readonly Iv[], D: Iv[][]): boolean => {
+    try {
+      fx ??= fixedCentre2(c.digits, M, Fm, At, zt, Pinv, P, Emag, invMig);
+      return fx !== null && fixedBoxTest2(fx, X, inner, D, magF, invMigF, back, p);
+    } catch (e) {
+      if (e instanceof FixedRange) return false;
+      throw e;
+    }
+  };
+  // over the box: R, G (decimal path: decides whenever the fixed-point path did not verify)
   return (X: readonly Iv[], inner: readonly Iv[], lb: string): KrawczykOutcome => {
   label = lb;
+  const D: Iv[][] = new Array(p);
+  for (let i = 0; i < p; i++) D[i] = image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!;
+  if (fast(X, inner, D)) return { ok: true, jacobians: D };
   const G: Decimal[] = new Array(2 * p);
   let gTop = -Infinity;
-  const D: Iv[][] = new Array(p);
   const tiny = new Up('1e-100000');
   for (let i = 0; i < p; i++) {
-    const jac = image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!;
-    D[i] = jac;
+    const jac = D[i]!;
     const nx = ((i + 1) % p) * 2;
     const r: Iv[] = [];
     for (let row = 0; row < 2; row++) {
@@ -204,40 +220,8 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
   // @heuristic ū by float sweeps on G/10^gTop (the inequalities are linear in G)
   const scale = new Up(`1e${gTop}`);
   const Gf = Float64Array.from(G, (g) => Number(Up.div(g, scale).toSD(17).toString()) + 1e-300);
-  const magF = Float64Array.from(Emag, (e) => Number(e.toSD(17).toString()));
-  const invMigF = Float64Array.from(invMig, (e) => Number(e.toSD(17).toString()));
-  const U = new Float64Array(2 * p);
-  for (let sweep = 0; sweep < 40; sweep++) {
-    let change = 0;
-    for (let k = 0; k < 2; k++) {
-      const l = 1 - k;
-      const g = (i: number): number => Gf[2 * i + k]! + magF[4 * i + 2 * k + l]! * U[2 * i + l]!;
-      const before = U[k]!;
-      let t = 0;
-      let prod = 1;
-      if (back[k]) {
-        for (let i = p - 1; i >= 0; i--) {
-          t = (t + g(i)) * invMigF[2 * i + k]!;
-          prod *= invMigF[2 * i + k]!;
-        }
-        t /= 1 - prod;
-        for (let i = p - 1; i >= 0; i--) U[2 * i + k] = t = (t + g(i)) * invMigF[2 * i + k]!;
-      } else {
-        for (let i = 0; i < p; i++) {
-          t = magF[4 * i + 3 * k]! * t + g(i);
-          prod *= magF[4 * i + 3 * k]!;
-        }
-        t /= 1 - prod;
-        for (let i = 0; i < p; i++) {
-          U[2 * i + k] = t;
-          t = magF[4 * i + 3 * k]! * t + g(i);
-        }
-      }
-      if (!(prod < 1)) return fail(`component ${k} does not contract around the cycle`);
-      change = Math.max(change, Math.abs(U[k]! - before) / Math.max(U[k]!, 1e-300));
-    }
-    if (sweep > 0 && change < 1e-9) break;
-  }
+  const U = sweepBound(Gf, magF, invMigF, back, p);
+  if (typeof U === 'string') return fail(U);
   if (!U.every((t) => t > 0 && t < Infinity)) return fail('no finite bound');
   const Ud = Array.from(U, (t) => mulU(new Up(String(t * (1 + 2 ** -20))), scale));
   // rigorous: T ū + G ≤ ū
@@ -265,4 +249,148 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
   }
   return { ok: true, jacobians: D };
   };
+}
+
+/**
+ * @heuristic ū ≥ 0 with T ū + G ≈≤ ū by float Gauss–Seidel sweeps (closed-form cyclic solve per
+ * component), or the reason why none exists (a component does not contract around the cycle).
+ * Only the rigorous check that follows it counts.
+ */
+function sweepBound(Gf: Float64Array, magF: Float64Array, invMigF: Float64Array, back: readonly boolean[], p: number): Float64Array | string {
+  const U = new Float64Array(2 * p);
+  for (let sweep = 0; sweep < 40; sweep++) {
+    let change = 0;
+    for (let k = 0; k < 2; k++) {
+      const l = 1 - k;
+      const g = (i: number): number => Gf[2 * i + k]! + magF[4 * i + 2 * k + l]! * U[2 * i + l]!;
+      const before = U[k]!;
+      let t = 0;
+      let prod = 1;
+      if (back[k]) {
+        for (let i = p - 1; i >= 0; i--) {
+          t = (t + g(i)) * invMigF[2 * i + k]!;
+          prod *= invMigF[2 * i + k]!;
+        }
+        t /= 1 - prod;
+        for (let i = p - 1; i >= 0; i--) U[2 * i + k] = t = (t + g(i)) * invMigF[2 * i + k]!;
+      } else {
+        for (let i = 0; i < p; i++) {
+          t = magF[4 * i + 3 * k]! * t + g(i);
+          prod *= magF[4 * i + 3 * k]!;
+        }
+        t /= 1 - prod;
+        for (let i = 0; i < p; i++) {
+          U[2 * i + k] = t;
+          t = magF[4 * i + 3 * k]! * t + g(i);
+        }
+      }
+      if (!(prod < 1)) return `component ${k} does not contract around the cycle`;
+      change = Math.max(change, Math.abs(U[k]! - before) / Math.max(U[k]!, 1e-300));
+    }
+    if (sweep > 0 && change < 1e-9) break;
+  }
+  return U;
+}
+
+/**
+ * The centre-only data of the structured bound in fixed point (fixed.ts), each an outward
+ * enclosure of the decimal quantity of prepareCyclic2 (exact decimals Ã, z̃, P become the two
+ * fixed-point neighbours around them; enclosures become enclosures; upper bounds round up).
+ */
+interface FixedCentre2 {
+  k: FixCtx;
+  /** M_j enclosures. */
+  M: Fx[];
+  /** e0 = −F(M) − (B z̃) per row, and M + z̃. */
+  e0: Fx[];
+  y0: Fx[];
+  At: Fx[];
+  Pinv: Fx[][];
+  Pabs: bigint[];
+  Emag: bigint[];
+  invMig: bigint[];
+}
+
+function fixedCentre2(digits: number, M: readonly Iv[], Fm: readonly Iv[], At: readonly Decimal[], zt: readonly Decimal[], Pinv: readonly Iv[][], P: readonly Decimal[][], Emag: readonly Decimal[], invMig: readonly Decimal[]): FixedCentre2 | null {
+  const p = M.length / 2;
+  let finest = 0;
+  for (const m of M) if (!m.lo.isZero()) finest = Math.min(finest, m.lo.e);
+  const k = new FixCtx(fracBitsFor(digits, finest));
+  const Mx = M.map((m) => k.fromIv(m));
+  const Atx = At.map((a) => k.fromPoint(a));
+  const ztx = zt.map((z) => k.fromPoint(z));
+  const e0: Fx[] = new Array(2 * p);
+  const y0: Fx[] = new Array(2 * p);
+  for (let i = 0; i < p; i++) {
+    const nx = ((i + 1) % p) * 2;
+    for (let row = 0; row < 2; row++) {
+      const az = k.add(k.mul(Atx[4 * i + 2 * row]!, ztx[2 * i]!), k.mul(Atx[4 * i + 2 * row + 1]!, ztx[2 * i + 1]!));
+      e0[2 * i + row] = k.sub(k.neg(k.fromIv(Fm[2 * i + row]!)), k.sub(ztx[nx + row]!, az));
+      y0[2 * i + row] = k.add(Mx[2 * i + row]!, ztx[2 * i + row]!);
+    }
+  }
+  return {
+    k, M: Mx, e0, y0, At: Atx,
+    Pinv: Pinv.map((q) => q.map((t) => k.fromIv(t))),
+    Pabs: P.flatMap((q) => q.map((t) => k.fromDecimal(t.abs(), true))),
+    Emag: Emag.map((e) => k.fromDecimal(e, true)),
+    invMig: invMig.map((e) => k.fromDecimal(e, true)),
+  };
+}
+
+/**
+ * The box part of the structured bound (header) in fixed point: true when K(X) ⊂ int(inner) is
+ * shown. False means "not shown here" (the decimal path then decides and words the reason).
+ * Every step encloses its decimal counterpart: R and h by interval products, G ≥ |h| + 2^−F > 0,
+ * the fixed-point inequality T ū + G ≤ ū with every product and quotient rounded up, and the
+ * final interior test against the box ends rounded inward (ceil of a lower end, floor of an upper).
+ */
+function fixedBoxTest2(fx: FixedCentre2, X: readonly Iv[], inner: readonly Iv[], D: readonly Iv[][], magF: Float64Array, invMigF: Float64Array, back: readonly boolean[], p: number): boolean {
+  const { k } = fx;
+  const G: bigint[] = new Array(2 * p);
+  let gMax = 0n;
+  for (let i = 0; i < p; i++) {
+    const jac = D[i]!;
+    const z0 = k.sub(k.fromIv(X[2 * i]!), fx.M[2 * i]!);
+    const z1 = k.sub(k.fromIv(X[2 * i + 1]!), fx.M[2 * i + 1]!);
+    const r: Fx[] = [];
+    for (let row = 0; row < 2; row++) {
+      let acc = fx.e0[2 * i + row]!;
+      acc = k.add(acc, k.mul(k.sub(k.fromIv(jac[2 * row]!), fx.At[4 * i + 2 * row]!), z0));
+      acc = k.add(acc, k.mul(k.sub(k.fromIv(jac[2 * row + 1]!), fx.At[4 * i + 2 * row + 1]!), z1));
+      r.push(acc);
+    }
+    const q = fx.Pinv[(i + 1) % p]!;
+    for (let c = 0; c < 2; c++) {
+      const g = k.mag(k.add(k.mul(q[2 * c]!, r[0]!), k.mul(q[2 * c + 1]!, r[1]!))) + 1n;
+      G[2 * i + c] = g;
+      if (g > gMax) gMax = g;
+    }
+  }
+  // @heuristic ū by the float sweeps on G·2^−s (s keeps the floats below 2^62; linear in G)
+  const s = BigInt(Math.max(0, gMax.toString(16).length * 4 - 62));
+  const Gf = Float64Array.from(G, (g) => Number(g >> s) + 1e-300);
+  const U = sweepBound(Gf, magF, invMigF, back, p);
+  if (typeof U === 'string' || !U.every((t) => t > 0 && t < Infinity)) return false;
+  const Ud = Array.from(U, (t) => (BigInt(Math.ceil(t * (1 + 2 ** -20))) + 1n) << s);
+  // rigorous: T ū + G ≤ ū (all terms ≥ 0, every product and quotient rounded up)
+  for (let c = 0; c < 2; c++) {
+    const l = 1 - c;
+    for (let i = 0; i < p; i++) {
+      const cpl = k.mulUp(fx.Emag[4 * i + 2 * c + l]!, Ud[2 * i + l]!) + G[2 * i + c]!;
+      const nx = (i + 1) % p;
+      if (back[c]) {
+        if (!(k.mulUp(Ud[2 * nx + c]! + cpl, fx.invMig[2 * i + c]!) <= Ud[2 * i + c]!)) return false;
+      } else if (!(k.mulUp(fx.Emag[4 * i + 3 * c]!, Ud[2 * i + c]!) + cpl <= Ud[2 * nx + c]!)) return false;
+    }
+  }
+  for (let i = 0; i < p; i++) {
+    for (let row = 0; row < 2; row++) {
+      const rad = k.mulUp(fx.Pabs[4 * i + 2 * row]!, Ud[2 * i]!) + k.mulUp(fx.Pabs[4 * i + 2 * row + 1]!, Ud[2 * i + 1]!);
+      const y = fx.y0[2 * i + row]!;
+      const box = inner[2 * i + row]!;
+      if (!(y.lo - rad > k.fromDecimal(box.lo, true) && y.hi + rad < k.fromDecimal(box.hi, false))) return false;
+    }
+  }
+  return true;
 }
