@@ -20,7 +20,6 @@
 import { Decimal } from 'decimal.js';
 import { DomainViolation, fmt, isInterior, type Iv } from './interval.js';
 import { image, type KrawczykOutcome, type Shooting } from './krawczyk.js';
-import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
 
 const Approx: Decimal.Constructor = Decimal.clone({ precision: 20, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
 
@@ -67,30 +66,7 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
       Af[4 * i + k] = Number(At[4 * i + k]!.toString());
     }
   }
-  // @heuristic directions: v forward (unstable), w backward (stable)
-  const v = new Float64Array(2 * p);
-  const w = new Float64Array(2 * p);
-  const laps = Math.max(3, Math.ceil(300 / p));
-  let x = 0.8;
-  let y = 0.6;
-  for (let lap = 0; lap < laps; lap++) {
-    for (let i = 0; i < p; i++) {
-      v[2 * i] = x;
-      v[2 * i + 1] = y;
-      const o = 4 * i;
-      [x, y] = unit(Af[o]! * x + Af[o + 1]! * y, Af[o + 2]! * x + Af[o + 3]! * y);
-    }
-  }
-  x = 0.6;
-  y = -0.8;
-  for (let lap = 0; lap < laps; lap++) {
-    for (let i = p - 1; i >= 0; i--) {
-      const o = 4 * i;
-      [x, y] = unit(Af[o + 3]! * x - Af[o + 1]! * y, -Af[o + 2]! * x + Af[o]! * y);
-      w[2 * i] = x;
-      w[2 * i + 1] = y;
-    }
-  }
+  const { v, w } = directions(Af, p);
   // P_i exact decimals (from the shortest strings of the floats), P^{-1} enclosed, E_i enclosed
   const P: Decimal[][] = new Array(p);
   const Pinv: Iv[][] = new Array(p);
@@ -139,35 +115,7 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
       hF[2 * i + k] = Number(new Approx(c.midpoint(Pinv[q]![2 * k]!)).toString()) * f0 + Number(new Approx(c.midpoint(Pinv[q]![2 * k + 1]!)).toString()) * f1;
     }
   }
-  const yt = new Float64Array(2 * p);
-  const sweepSigned = (): void => {
-    for (let k = 0; k < 2; k++) {
-      const l = 1 - k;
-      const g = (i: number): number => hF[2 * i + k]! + Emid[4 * i + 2 * k + l]! * yt[2 * i + l]!;
-      // closed-form cyclic solve of y_{k,i+1} = E_kk y_{k,i} + g_i
-      let t = 0;
-      let prod = 1;
-      if (back[k]) {
-        for (let i = p - 1; i >= 0; i--) {
-          t = (t - g(i)) / Emid[4 * i + 3 * k]!;
-          prod /= Emid[4 * i + 3 * k]!;
-        }
-        t /= 1 - prod;
-        for (let i = p - 1; i >= 0; i--) yt[2 * i + k] = t = (t - g(i)) / Emid[4 * i + 3 * k]!;
-      } else {
-        for (let i = 0; i < p; i++) {
-          t = Emid[4 * i + 3 * k]! * t + g(i);
-          prod *= Emid[4 * i + 3 * k]!;
-        }
-        t /= 1 - prod;
-        for (let i = 0; i < p; i++) {
-          yt[2 * i + k] = t;
-          t = Emid[4 * i + 3 * k]! * t + g(i);
-        }
-      }
-    }
-  };
-  for (let sw = 0; sw < 4; sw++) sweepSigned();
+  const yt = signedSolve(hF, Emid, back, p);
   const zt: Decimal[] = new Array(2 * p);
   for (let i = 0; i < p; i++) {
     for (let r = 0; r < 2; r++) {
@@ -178,23 +126,11 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
   // float images of the magnitudes for the (heuristic) sweeps, shared by both paths
   const magF = Float64Array.from(Emag, (e) => Number(e.toSD(17).toString()));
   const invMigF = Float64Array.from(invMig, (e) => Number(e.toSD(17).toString()));
-  // the same bound in binary fixed point (fixed.ts), tried first; prepared on first use
-  let fx: FixedCentre2 | null | undefined;
-  const fast = (X: readonly Iv[], inner: readonly Iv[], D: Iv[][]): boolean => {
-    try {
-      fx ??= fixedCentre2(c.digits, M, Fm, At, zt, Pinv, P, Emag, invMig);
-      return fx !== null && fixedBoxTest2(fx, X, inner, D, magF, invMigF, back, p);
-    } catch (e) {
-      if (e instanceof FixedRange) return false;
-      throw e;
-    }
-  };
-  // over the box: R, G (decimal path: decides whenever the fixed-point path did not verify)
+  // over the box: R, G
   return (X: readonly Iv[], inner: readonly Iv[], lb: string): KrawczykOutcome => {
   label = lb;
   const D: Iv[][] = new Array(p);
   for (let i = 0; i < p; i++) D[i] = image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!;
-  if (fast(X, inner, D)) return { ok: true, jacobians: D };
   const G: Decimal[] = new Array(2 * p);
   let gTop = -Infinity;
   const tiny = new Up('1e-100000');
@@ -256,7 +192,7 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
  * component), or the reason why none exists (a component does not contract around the cycle).
  * Only the rigorous check that follows it counts.
  */
-function sweepBound(Gf: Float64Array, magF: Float64Array, invMigF: Float64Array, back: readonly boolean[], p: number): Float64Array | string {
+export function sweepBound(Gf: Float64Array, magF: Float64Array, invMigF: Float64Array, back: readonly boolean[], p: number): Float64Array | string {
   const U = new Float64Array(2 * p);
   for (let sweep = 0; sweep < 40; sweep++) {
     let change = 0;
@@ -292,105 +228,64 @@ function sweepBound(Gf: Float64Array, magF: Float64Array, invMigF: Float64Array,
   return U;
 }
 
-/**
- * The centre-only data of the structured bound in fixed point (fixed.ts), each an outward
- * enclosure of the decimal quantity of prepareCyclic2 (exact decimals Ã, z̃, P become the two
- * fixed-point neighbours around them; enclosures become enclosures; upper bounds round up).
- */
-interface FixedCentre2 {
-  k: FixCtx;
-  /** M_j enclosures. */
-  M: Fx[];
-  /** e0 = −F(M) − (B z̃) per row, and M + z̃. */
-  e0: Fx[];
-  y0: Fx[];
-  At: Fx[];
-  Pinv: Fx[][];
-  Pabs: bigint[];
-  Emag: bigint[];
-  invMig: bigint[];
-}
-
-function fixedCentre2(digits: number, M: readonly Iv[], Fm: readonly Iv[], At: readonly Decimal[], zt: readonly Decimal[], Pinv: readonly Iv[][], P: readonly Decimal[][], Emag: readonly Decimal[], invMig: readonly Decimal[]): FixedCentre2 | null {
-  const p = M.length / 2;
-  let finest = 0;
-  for (const m of M) if (!m.lo.isZero()) finest = Math.min(finest, m.lo.e);
-  const k = new FixCtx(fracBitsFor(digits, finest));
-  const Mx = M.map((m) => k.fromIv(m));
-  const Atx = At.map((a) => k.fromPoint(a));
-  const ztx = zt.map((z) => k.fromPoint(z));
-  const e0: Fx[] = new Array(2 * p);
-  const y0: Fx[] = new Array(2 * p);
-  for (let i = 0; i < p; i++) {
-    const nx = ((i + 1) % p) * 2;
-    for (let row = 0; row < 2; row++) {
-      const az = k.add(k.mul(Atx[4 * i + 2 * row]!, ztx[2 * i]!), k.mul(Atx[4 * i + 2 * row + 1]!, ztx[2 * i + 1]!));
-      e0[2 * i + row] = k.sub(k.neg(k.fromIv(Fm[2 * i + row]!)), k.sub(ztx[nx + row]!, az));
-      y0[2 * i + row] = k.add(Mx[2 * i + row]!, ztx[2 * i + row]!);
-    }
-  }
-  return {
-    k, M: Mx, e0, y0, At: Atx,
-    Pinv: Pinv.map((q) => q.map((t) => k.fromIv(t))),
-    Pabs: P.flatMap((q) => q.map((t) => k.fromDecimal(t.abs(), true))),
-    Emag: Emag.map((e) => k.fromDecimal(e, true)),
-    invMig: invMig.map((e) => k.fromDecimal(e, true)),
-  };
-}
-
-/**
- * The box part of the structured bound (header) in fixed point: true when K(X) ⊂ int(inner) is
- * shown. False means "not shown here" (the decimal path then decides and words the reason).
- * Every step encloses its decimal counterpart: R and h by interval products, G ≥ |h| + 2^−F > 0,
- * the fixed-point inequality T ū + G ≤ ū with every product and quotient rounded up, and the
- * final interior test against the box ends rounded inward (ceil of a lower end, floor of an upper).
- */
-function fixedBoxTest2(fx: FixedCentre2, X: readonly Iv[], inner: readonly Iv[], D: readonly Iv[][], magF: Float64Array, invMigF: Float64Array, back: readonly boolean[], p: number): boolean {
-  const { k } = fx;
-  const G: bigint[] = new Array(2 * p);
-  let gMax = 0n;
-  for (let i = 0; i < p; i++) {
-    const jac = D[i]!;
-    const z0 = k.sub(k.fromIv(X[2 * i]!), fx.M[2 * i]!);
-    const z1 = k.sub(k.fromIv(X[2 * i + 1]!), fx.M[2 * i + 1]!);
-    const r: Fx[] = [];
-    for (let row = 0; row < 2; row++) {
-      let acc = fx.e0[2 * i + row]!;
-      acc = k.add(acc, k.mul(k.sub(k.fromIv(jac[2 * row]!), fx.At[4 * i + 2 * row]!), z0));
-      acc = k.add(acc, k.mul(k.sub(k.fromIv(jac[2 * row + 1]!), fx.At[4 * i + 2 * row + 1]!), z1));
-      r.push(acc);
-    }
-    const q = fx.Pinv[(i + 1) % p]!;
-    for (let c = 0; c < 2; c++) {
-      const g = k.mag(k.add(k.mul(q[2 * c]!, r[0]!), k.mul(q[2 * c + 1]!, r[1]!))) + 1n;
-      G[2 * i + c] = g;
-      if (g > gMax) gMax = g;
-    }
-  }
-  // @heuristic ū by the float sweeps on G·2^−s (s keeps the floats below 2^62; linear in G)
-  const s = BigInt(Math.max(0, gMax.toString(16).length * 4 - 62));
-  const Gf = Float64Array.from(G, (g) => Number(g >> s) + 1e-300);
-  const U = sweepBound(Gf, magF, invMigF, back, p);
-  if (typeof U === 'string' || !U.every((t) => t > 0 && t < Infinity)) return false;
-  const Ud = Array.from(U, (t) => (BigInt(Math.ceil(t * (1 + 2 ** -20))) + 1n) << s);
-  // rigorous: T ū + G ≤ ū (all terms ≥ 0, every product and quotient rounded up)
-  for (let c = 0; c < 2; c++) {
-    const l = 1 - c;
+/** @heuristic directions along the cocycle Ã_i (floats): v forward (unstable), w backward (stable). */
+export function directions(Af: Float64Array, p: number): { v: Float64Array; w: Float64Array } {
+  const v = new Float64Array(2 * p);
+  const w = new Float64Array(2 * p);
+  const laps = Math.max(3, Math.ceil(300 / p));
+  let x = 0.8;
+  let y = 0.6;
+  for (let lap = 0; lap < laps; lap++) {
     for (let i = 0; i < p; i++) {
-      const cpl = k.mulUp(fx.Emag[4 * i + 2 * c + l]!, Ud[2 * i + l]!) + G[2 * i + c]!;
-      const nx = (i + 1) % p;
-      if (back[c]) {
-        if (!(k.mulUp(Ud[2 * nx + c]! + cpl, fx.invMig[2 * i + c]!) <= Ud[2 * i + c]!)) return false;
-      } else if (!(k.mulUp(fx.Emag[4 * i + 3 * c]!, Ud[2 * i + c]!) + cpl <= Ud[2 * nx + c]!)) return false;
+      v[2 * i] = x;
+      v[2 * i + 1] = y;
+      const o = 4 * i;
+      [x, y] = unit(Af[o]! * x + Af[o + 1]! * y, Af[o + 2]! * x + Af[o + 3]! * y);
     }
   }
-  for (let i = 0; i < p; i++) {
-    for (let row = 0; row < 2; row++) {
-      const rad = k.mulUp(fx.Pabs[4 * i + 2 * row]!, Ud[2 * i]!) + k.mulUp(fx.Pabs[4 * i + 2 * row + 1]!, Ud[2 * i + 1]!);
-      const y = fx.y0[2 * i + row]!;
-      const box = inner[2 * i + row]!;
-      if (!(y.lo - rad > k.fromDecimal(box.lo, true) && y.hi + rad < k.fromDecimal(box.hi, false))) return false;
+  x = 0.6;
+  y = -0.8;
+  for (let lap = 0; lap < laps; lap++) {
+    for (let i = p - 1; i >= 0; i--) {
+      const o = 4 * i;
+      [x, y] = unit(Af[o + 3]! * x - Af[o + 1]! * y, -Af[o + 2]! * x + Af[o]! * y);
+      w[2 * i] = x;
+      w[2 * i + 1] = y;
     }
   }
-  return true;
+  return { v, w };
+}
+
+/** @heuristic ỹ ≈ solution of y_{i+1} = E_i y_i + h_i (float Gauss–Seidel, closed-form cyclic solve per component). */
+export function signedSolve(hF: Float64Array, Emid: Float64Array, back: readonly boolean[], p: number): Float64Array {
+  const yt = new Float64Array(2 * p);
+  const sweepSigned = (): void => {
+    for (let k = 0; k < 2; k++) {
+      const l = 1 - k;
+      const g = (i: number): number => hF[2 * i + k]! + Emid[4 * i + 2 * k + l]! * yt[2 * i + l]!;
+      // closed-form cyclic solve of y_{k,i+1} = E_kk y_{k,i} + g_i
+      let t = 0;
+      let prod = 1;
+      if (back[k]) {
+        for (let i = p - 1; i >= 0; i--) {
+          t = (t - g(i)) / Emid[4 * i + 3 * k]!;
+          prod /= Emid[4 * i + 3 * k]!;
+        }
+        t /= 1 - prod;
+        for (let i = p - 1; i >= 0; i--) yt[2 * i + k] = t = (t - g(i)) / Emid[4 * i + 3 * k]!;
+      } else {
+        for (let i = 0; i < p; i++) {
+          t = Emid[4 * i + 3 * k]! * t + g(i);
+          prod *= Emid[4 * i + 3 * k]!;
+        }
+        t /= 1 - prod;
+        for (let i = 0; i < p; i++) {
+          yt[2 * i + k] = t;
+          t = Emid[4 * i + 3 * k]! * t + g(i);
+        }
+      }
+    }
+  };
+  for (let sw = 0; sw < 4; sw++) sweepSigned();
+  return yt;
 }

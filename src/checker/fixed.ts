@@ -26,8 +26,9 @@
  *    doubles, and BigInt(integer double) is exact (`fromFloatUp`).
  *  - Back to decimals: m·2^−F = m·5^F·10^−F exactly; `toDecimal` builds that string (only for
  *    messages and the decimal fallback, never inside a loop).
- * Special cases: no division by an interval (only upward quotients of nonnegative numbers by
- * positive ones, `divUp`, floor / ceil of an exact BigInt quotient); a value out of range throws
+ * Special cases: the only divisions are `divUp` (upward quotient of a nonnegative number by a
+ * positive one) and `recip` (1/a for a not containing 0: 1/x is decreasing on each sign, so
+ * [floor(2^2F/hi), ceil(2^2F/lo)] in units 2^−F), each the floor / ceil of an exact BigInt quotient; a value out of range throws
  * FixedRange, which the callers treat as "this fast path cannot decide": they run the decimal
  * path, whose verdict is final.
  * Tightness: each directed product loses < 2^−F; F is chosen by the caller well above the working
@@ -163,6 +164,21 @@ export class FixCtx {
   divUp(x: bigint, y: bigint): bigint {
     if (y <= 0n || x < 0n) throw new FixedRange('divUp needs x ≥ 0, y > 0');
     return this.check(ceilDiv(x << this.F, y));
+  }
+
+  /** 1/a for an interval not containing 0: [floor(2^2F/hi), ceil(2^2F/lo)] (1/x decreases on each sign). */
+  recip(a: Fx): Fx {
+    if (a.lo <= 0n && a.hi >= 0n) throw new FixedRange('reciprocal of an interval containing 0');
+    const one2 = this.one << this.F;
+    return { lo: this.check(floorDiv(one2, a.hi)), hi: this.check(ceilDiv(one2, a.lo)) };
+  }
+  /** A point: the interval [m, m]. */
+  point(m: bigint): Fx {
+    return { lo: m, hi: m };
+  }
+  /** @heuristic a fixed-point number near the middle of a (floor of the mean). */
+  mid(a: Fx): bigint {
+    return (a.lo + a.hi) >> 1n;
   }
 
   add(a: Fx, b: Fx): Fx {

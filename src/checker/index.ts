@@ -60,7 +60,8 @@ import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
 import { prepareCyclic } from './cyclic.js';
-import { prepareCyclic2, type BoxTest } from './cyclic2.js';
+import { type BoxTest } from './cyclic2.js';
+import { prepareCyclic2Fast } from './cyclic2-fixed.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
@@ -391,7 +392,7 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
   };
   const cyclic: KrawczykTest = (Y, inner, label) => {
-    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2(s, b.M);
+    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2Fast(s, b.M);
     return prepared(Y, inner, label);
   };
   const forms: KrawczykTest[] = [];
