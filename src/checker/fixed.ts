@@ -77,6 +77,18 @@ function ceilDiv(a: bigint, b: bigint): bigint {
   return -floorDiv(-a, b);
 }
 
+/** Exact decimal string of m·2^s: an integer for s ≥ 0, else m·5^−s with the point −s digits from the right. */
+export function dyadicString(m: bigint, s: number): string {
+  if (s >= 0) return (m << BigInt(s)).toString();
+  const f = -s;
+  const neg = m < 0n;
+  let digits = ((neg ? -m : m) * 5n ** BigInt(f)).toString();
+  if (digits.length <= f) digits = '0'.repeat(f - digits.length + 1) + digits;
+  const ip = digits.slice(0, digits.length - f);
+  const fp = digits.slice(digits.length - f).replace(/0+$/, '');
+  return `${neg ? '-' : ''}${ip}${fp ? `.${fp}` : ''}`;
+}
+
 export class FixCtx {
   readonly frac: number;
   private readonly F: bigint;
@@ -139,13 +151,12 @@ export class FixCtx {
 
   /** Exact decimal string of m·2^−F (m·5^F / 10^F). */
   toDecimalString(m: bigint): string {
-    const neg = m < 0n;
-    let digits = ((neg ? -m : m) * 5n ** this.F).toString();
-    const f = this.frac;
-    if (digits.length <= f) digits = '0'.repeat(f - digits.length + 1) + digits;
-    const ip = digits.slice(0, digits.length - f);
-    const fp = digits.slice(digits.length - f).replace(/0+$/, '');
-    return `${neg ? '-' : ''}${ip}${fp ? `.${fp}` : ''}`;
+    return dyadicString(m, -this.frac);
+  }
+
+  /** Exact decimal string of m·2^(e−F) (a scaled value; `toDecimalString` is e = 0). */
+  toDecimalScaled(m: bigint, e: number): string {
+    return dyadicString(m, e - this.frac);
   }
 
   private check(m: bigint): bigint {

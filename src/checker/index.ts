@@ -62,6 +62,7 @@ import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.
 import { prepareCyclic } from './cyclic.js';
 import { type BoxTest } from './cyclic2.js';
 import { prepareCyclic2Fast } from './cyclic2-fixed.js';
+import { stability2Fixed } from './stability-fixed.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
@@ -467,8 +468,21 @@ function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
 
 /** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
 function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+  // n = 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
+  // those do not verify the claim, so a verdict or a reason never rests on the faster path
+  const fast = n === 2 ? stability2Fixed(s.c, D) : null;
+  if (fast) {
+    try {
+      return verifyStabilityWith(fast, n, claim, kinkOnX);
+    } catch (e) {
+      if (!(e instanceof Refusal)) throw e;
+    }
+  }
   // n >= 3: Gershgorin discs in the certificate's (untrusted) eigenbasis, src/checker/stability-n.ts
-  const st: Stability = n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n);
+  verifyStabilityWith(n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n), n, claim, kinkOnX);
+}
+
+function verifyStabilityWith(st: Stability, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
   const claimed = claim.cls;
   // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
   if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);

@@ -308,7 +308,11 @@ export function stability(c: IvCtx, D: Iv[][], n: number): Stability {
   const detFrames = c.sub(c.mul(Mf[0]!, Mf[3]!), c.mul(Mf[1]!, Mf[2]!));
   const T = direct ? meet(c.add(M[0]!, M[3]!), c.add(Mf[0]!, Mf[3]!)) : c.add(Mf[0]!, Mf[3]!);
   const detDirect = direct ? meet(c.sub(c.mul(M[0]!, M[3]!), c.mul(M[1]!, M[2]!)), detFrames) : detFrames;
-  const det = meet(detDirect, detProd);
+  return fromTraceDet(c, T, meet(detDirect, detProd));
+}
+
+/** n = 2: the class and the moduli from enclosures T ∋ trace and det ∋ determinant of the monodromy. */
+export function fromTraceDet(c: IvCtx, T: Iv, det: Iv): Stability {
   if (det.lo.gt(det.hi) || T.lo.gt(T.hi)) throw new DomainViolation('internal: monodromy enclosures disjoint');
   const disc = c.sub(c.sqr(T), c.scale(new c.Down('4'), det));
   const out: Stability = { cls: 'undecided', trace: T, determinant: det };
