@@ -23,7 +23,8 @@
  */
 import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
 import { DomainViolation, type Iv } from './interval.js';
-import { image, type KrawczykOutcome, type Shooting } from './krawczyk.js';
+import { type KrawczykOutcome, type Shooting } from './krawczyk.js';
+import { FixedEvaluator } from './formula-fixed.js';
 import { directions, prepareCyclic2, signedSolve, sweepBound, type BoxTest } from './cyclic2.js';
 
 /** The box part: ok with the Jacobians over X, or null (not shown here). */
@@ -31,6 +32,7 @@ type FixedTest = (X: readonly Iv[], inner: readonly Iv[]) => KrawczykOutcome | n
 
 interface Centre {
   k: FixCtx;
+  ev: FixedEvaluator;
   M: Fx[];
   e0: Fx[];
   y0: Fx[];
@@ -50,16 +52,17 @@ function centre(s: Shooting, M: readonly Iv[]): Centre | null {
   let finest = 0;
   for (const m of M) if (!m.lo.isZero()) finest = Math.min(finest, m.lo.e);
   const k = new FixCtx(fracBitsFor(c.digits, finest));
+  const ev = new FixedEvaluator(k, c, s.ev.params, 2);
   const Mx = M.map((m) => k.fromIv(m));
   const Fm: Fx[] = new Array(2 * p);
   const At: Fx[] = new Array(4 * p);
   const Af = new Float64Array(4 * p);
   for (let i = 0; i < p; i++) {
-    const { f, jac } = image(s, [M[2 * i]!, M[2 * i + 1]!], true);
+    const { f, jac } = ev.image(s.step, [Mx[2 * i]!, Mx[2 * i + 1]!], true);
     const nx = ((i + 1) % p) * 2;
-    for (let r = 0; r < 2; r++) Fm[2 * i + r] = k.sub(Mx[nx + r]!, k.fromIv(f[r]!));
+    for (let r = 0; r < 2; r++) Fm[2 * i + r] = k.sub(Mx[nx + r]!, f[r]!);
     for (let q = 0; q < 4; q++) {
-      const a = k.mid(k.fromIv(jac![q]!));
+      const a = k.mid(jac![q]!);
       At[4 * i + q] = k.point(a);
       Af[4 * i + q] = k.toFloat(a);
     }
@@ -130,27 +133,29 @@ function centre(s: Shooting, M: readonly Iv[]): Centre | null {
   }
   const magF = Float64Array.from(Emag, (e) => k.toFloat(e));
   const invMigF = Float64Array.from(invMig, (e) => k.toFloat(e));
-  return { k, M: Mx, e0, y0, At, Pinv, Pabs, Emag, invMig, magF, invMigF, back };
+  return { k, ev, M: Mx, e0, y0, At, Pinv, Pabs, Emag, invMig, magF, invMigF, back };
 }
 
 /** The box part of the bound in fixed point (see the header and cyclic2.ts). */
 function boxTest(fx: Centre, s: Shooting, X: readonly Iv[], inner: readonly Iv[]): KrawczykOutcome | null {
   const { k } = fx;
   const p = s.p;
-  const D: Iv[][] = new Array(p);
+  const Df: Fx[][] = new Array(p);
   const G: bigint[] = new Array(2 * p);
   let gMax = 0n;
   for (let i = 0; i < p; i++) {
-    const jac = image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!;
-    D[i] = jac;
-    const z0 = k.sub(k.fromIv(X[2 * i]!), fx.M[2 * i]!);
-    const z1 = k.sub(k.fromIv(X[2 * i + 1]!), fx.M[2 * i + 1]!);
+    const x0 = k.fromIv(X[2 * i]!);
+    const x1 = k.fromIv(X[2 * i + 1]!);
+    const jac = fx.ev.image(s.step, [x0, x1], true).jac!;
+    Df[i] = jac;
+    const z0 = k.sub(x0, fx.M[2 * i]!);
+    const z1 = k.sub(x1, fx.M[2 * i + 1]!);
     // R_i = e0_i + (D_i(X) − Ã_i)(X_i − M_i), h_i = P_{i+1}^{-1} R_i, G ≥ |h| + 2^−F
     const r: Fx[] = [];
     for (let row = 0; row < 2; row++) {
       let acc = fx.e0[2 * i + row]!;
-      acc = k.add(acc, k.mul(k.sub(k.fromIv(jac[2 * row]!), fx.At[4 * i + 2 * row]!), z0));
-      acc = k.add(acc, k.mul(k.sub(k.fromIv(jac[2 * row + 1]!), fx.At[4 * i + 2 * row + 1]!), z1));
+      acc = k.add(acc, k.mul(k.sub(jac[2 * row]!, fx.At[4 * i + 2 * row]!), z0));
+      acc = k.add(acc, k.mul(k.sub(jac[2 * row + 1]!, fx.At[4 * i + 2 * row + 1]!), z1));
       r.push(acc);
     }
     const q = fx.Pinv[(i + 1) % p]!;
@@ -186,7 +191,21 @@ function boxTest(fx: Centre, s: Shooting, X: readonly Iv[], inner: readonly Iv[]
       if (!(y.lo - rad > k.fromDecimal(box.lo, true) && y.hi + rad < k.fromDecimal(box.hi, false))) return null;
     }
   }
-  return { ok: true, jacobians: D };
+  return fixedOutcome(s, k, Df);
+}
+
+/**
+ * The outcome of a shown inclusion: the fixed-point Jacobians over X for the fixed-point stability
+ * (stability-fixed.ts), and their decimal enclosures (exact conversion, rounded outward to the
+ * working precision) made only if a decimal consumer reads them.
+ */
+function fixedOutcome(s: Shooting, k: FixCtx, Df: Fx[][]): KrawczykOutcome {
+  const c = s.c;
+  let D: Iv[][] | undefined;
+  const toIv = (x: Fx): Iv => c.round({ lo: new c.Down(k.toDecimalString(x.lo)), hi: new c.Up(k.toDecimalString(x.hi)) });
+  const out = { ok: true as const, fixedJacobians: { k, D: Df } } as KrawczykOutcome & { jacobians: Iv[][] };
+  Object.defineProperty(out, 'jacobians', { enumerable: true, get: () => (D ??= Df.map((row) => row.map(toIv))) });
+  return out;
 }
 
 function handOver(e: unknown): null {

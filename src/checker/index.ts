@@ -57,7 +57,7 @@ import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type FixedJacobians, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
 import { prepareCyclic } from './cyclic.js';
 import { type BoxTest } from './cyclic2.js';
@@ -418,10 +418,10 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
 }
 
 /** Existence: Krawczyk on the boxes. Returns D = J(X). */
-function verifyExistence(test: KrawczykTest, b: Boxes): { D: Iv[][] } {
+function verifyExistence(test: KrawczykTest, b: Boxes): Extract<KrawczykOutcome, { ok: true }> {
   const kx = test(b.X, b.Xexact, 'existence');
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  return { D: (kx as { jacobians: Iv[][] }).jacobians };
+  return kx as Extract<KrawczykOutcome, { ok: true }>; // its decimal Jacobians may be made on first read
 }
 
 /** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
@@ -467,10 +467,10 @@ function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
 }
 
 /** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
-function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+function verifyStability(s: Shooting, ex: { jacobians: Iv[][]; fixedJacobians?: FixedJacobians }, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
   // n = 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
   // those do not verify the claim, so a verdict or a reason never rests on the faster path
-  const fast = n === 2 ? stability2Fixed(s.c, D) : null;
+  const fast = n === 2 ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : null;
   if (fast) {
     try {
       return verifyStabilityWith(fast, n, claim, kinkOnX);
@@ -479,6 +479,7 @@ function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClai
     }
   }
   // n >= 3: Gershgorin discs in the certificate's (untrusted) eigenbasis, src/checker/stability-n.ts
+  const D = ex.jacobians;
   verifyStabilityWith(n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n), n, claim, kinkOnX);
 }
 
@@ -558,7 +559,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     }
   }
   const test = krawczykForms(r, s, b, plan, limits);
-  const { D } = verifyExistence(test, b);
+  const existence = verifyExistence(test, b);
   const verified: ClaimName[] = ['existence'];
   const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
   if (r.radius !== null) {
@@ -570,7 +571,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     verified.push('minimal-period');
   }
   if (r.stability) {
-    verifyStability(s, D, n, r.stability, kinkOnX);
+    verifyStability(s, existence, n, r.stability, kinkOnX);
     verified.push('stability');
   }
   return { claims: verified, digits: r.digits };

@@ -10,6 +10,7 @@
 import type { Decimal } from 'decimal.js';
 import { DomainViolation, fmt, isInterior, IvCtx, type Iv } from './interval.js';
 import type { Evaluator, Node } from './formula.js';
+import type { FixCtx, Fx } from './fixed.js';
 
 export interface Shooting {
   c: IvCtx;
@@ -172,8 +173,14 @@ function precondWith<T>(s: Shooting, box: readonly Iv[], F: Field<T>): Precond |
   return { cols, vals };
 }
 
+/** Jacobians over X in fixed point (fixed.ts), when a fixed-point path showed the inclusion. */
+export interface FixedJacobians {
+  k: FixCtx;
+  D: Fx[][];
+}
+
 export type KrawczykOutcome =
-  | { ok: true; jacobians: Iv[][] }
+  | { ok: true; jacobians: Iv[][]; fixedJacobians?: FixedJacobians }
   | { ok: false; reason: string };
 
 /**

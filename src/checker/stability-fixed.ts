@@ -25,7 +25,7 @@
  */
 import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
 import { DomainViolation, type Iv, type IvCtx } from './interval.js';
-import { fromTraceDet, type Stability } from './krawczyk.js';
+import { fromTraceDet, type FixedJacobians, type Stability } from './krawczyk.js';
 
 interface Scaled {
   m: Fx[];
@@ -69,8 +69,8 @@ function mat(k: FixCtx, a: readonly Fx[], b: readonly Fx[]): Fx[] {
   ];
 }
 
-/** Stability for n = 2 from D_k ⊇ Df(X_k) (row-major), or null: see the header. */
-export function stability2Fixed(c: IvCtx, D: readonly Iv[][]): Stability | null {
+/** Stability for n = 2 from D_k ⊇ Df(X_k) (row-major; decimal, or fixed point from a fixed-point Krawczyk path), or null: see the header. */
+export function stability2Fixed(c: IvCtx, D: readonly Iv[][] | FixedJacobians): Stability | null {
   try {
     return run(c, D);
   } catch (e) {
@@ -79,16 +79,16 @@ export function stability2Fixed(c: IvCtx, D: readonly Iv[][]): Stability | null 
   }
 }
 
-function run(c: IvCtx, D: readonly Iv[][]): Stability {
-  const k = new FixCtx(fracBitsFor(c.digits));
+function run(c: IvCtx, jac: readonly Iv[][] | FixedJacobians): Stability {
+  const k = 'k' in jac ? jac.k : new FixCtx(fracBitsFor(c.digits));
+  const D = 'k' in jac ? jac.D : jac.map((row) => row.map((x) => k.fromIv(x)));
   const I = [k.point(k.one), k.point(0n), k.point(0n), k.point(k.one)];
   const direct = D.length <= 64; // as krawczyk.ts: past 64 steps the direct product never wins
   let M: Scaled = { m: I, e: 0 };
   let R: Scaled = { m: I, e: 0 };
   let Q = I;
   let detProd: Scaled = { m: [k.point(k.one)], e: 0 };
-  for (const dd of D) {
-    const d = dd.map((x) => k.fromIv(x));
+  for (const d of D) {
     if (direct) M = renorm(k, { m: mat(k, d, M.m), e: M.e });
     detProd = renorm(k, { m: [k.mul(detProd.m[0]!, k.sub(k.mul(d[0]!, d[3]!), k.mul(d[1]!, d[2]!)))], e: detProd.e });
     const B = mat(k, d, Q);
