@@ -21,9 +21,9 @@
  * problem (FixedRange) or a domain violation also hands over to the decimal path, which meets the
  * same domain violation (the same formula evaluations) or decides otherwise.
  */
-import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
+import { FixCtx, FixedRange, fixedPaths, fracBitsFor, type Fx } from './fixed.js';
 import { DomainViolation, type Iv } from './interval.js';
-import { type KrawczykOutcome, type Shooting } from './krawczyk.js';
+import { image, type KrawczykOutcome, type Shooting } from './krawczyk.js';
 import { FixedEvaluator } from './formula-fixed.js';
 import { directions, prepareCyclic2, signedSolve, sweepBound, type BoxTest } from './cyclic2.js';
 
@@ -191,20 +191,19 @@ function boxTest(fx: Centre, s: Shooting, X: readonly Iv[], inner: readonly Iv[]
       if (!(y.lo - rad > k.fromDecimal(box.lo, true) && y.hi + rad < k.fromDecimal(box.hi, false))) return null;
     }
   }
-  return fixedOutcome(s, k, Df);
+  return fixedOutcome(s, X, k, Df);
 }
 
 /**
  * The outcome of a shown inclusion: the fixed-point Jacobians over X for the fixed-point stability
- * (stability-fixed.ts), and their decimal enclosures (exact conversion, rounded outward to the
- * working precision) made only if a decimal consumer reads them.
+ * (stability-fixed.ts), and the decimal evaluator's Jacobians over X (what the decimal path would
+ * have returned) made only if a decimal consumer reads them.
  */
-function fixedOutcome(s: Shooting, k: FixCtx, Df: Fx[][]): KrawczykOutcome {
-  const c = s.c;
+function fixedOutcome(s: Shooting, X: readonly Iv[], k: FixCtx, Df: Fx[][]): KrawczykOutcome {
   let D: Iv[][] | undefined;
-  const toIv = (x: Fx): Iv => c.round({ lo: new c.Down(k.toDecimalString(x.lo)), hi: new c.Up(k.toDecimalString(x.hi)) });
+  const decimalJacobians = (): Iv[][] => Df.map((_, i) => image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!);
   const out = { ok: true as const, fixedJacobians: { k, D: Df } } as KrawczykOutcome & { jacobians: Iv[][] };
-  Object.defineProperty(out, 'jacobians', { enumerable: true, get: () => (D ??= Df.map((row) => row.map(toIv))) });
+  Object.defineProperty(out, 'jacobians', { enumerable: true, get: () => (D ??= decimalJacobians()) });
   return out;
 }
 
@@ -235,7 +234,7 @@ export function prepareCyclic2Fast(s: Shooting, M: readonly Iv[]): BoxTest {
   const fixed = prepareCyclic2Fixed(s, M);
   let decimal: BoxTest | undefined;
   return (X, inner, label) => {
-    const out = fixed(X, inner);
+    const out = fixedPaths.enabled ? fixed(X, inner) : null;
     if (out) return out;
     decimal ??= prepareCyclic2(s, M);
     return decimal(X, inner, label);

@@ -38,6 +38,12 @@
 import type { Decimal } from 'decimal.js';
 import type { Iv } from './interval.js';
 
+/**
+ * The fixed-point paths are on; tests/checker/fixed-differential.test.ts switches them off to
+ * compare every verdict with the decimal-only checker. Nothing else writes it.
+ */
+export const fixedPaths = { enabled: true };
+
 /** A fixed-point interval [lo·2^−F, hi·2^−F] of its context (lo ≤ hi). */
 export interface Fx {
   lo: bigint;

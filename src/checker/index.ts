@@ -63,6 +63,7 @@ import { prepareCyclic } from './cyclic.js';
 import { type BoxTest } from './cyclic2.js';
 import { prepareCyclic2Fast } from './cyclic2-fixed.js';
 import { stability2Fixed } from './stability-fixed.js';
+import { fixedPaths } from './fixed.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
@@ -470,7 +471,7 @@ function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
 function verifyStability(s: Shooting, ex: { jacobians: Iv[][]; fixedJacobians?: FixedJacobians }, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
   // n = 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
   // those do not verify the claim, so a verdict or a reason never rests on the faster path
-  const fast = n === 2 ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : null;
+  const fast = n === 2 && fixedPaths.enabled ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : null;
   if (fast) {
     try {
       return verifyStabilityWith(fast, n, claim, kinkOnX);
