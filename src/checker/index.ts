@@ -59,10 +59,10 @@ import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from '.
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type FixedJacobians, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
-import { prepareCyclic } from './cyclic.js';
+import { prepareCyclicFast } from './cyclic-fixed.js';
 import { type BoxTest } from './cyclic2.js';
 import { prepareCyclic2Fast } from './cyclic2-fixed.js';
-import { stability2Fixed } from './stability-fixed.js';
+import { stability1Fixed, stability2Fixed } from './stability-fixed.js';
 import { fixedPaths } from './fixed.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
@@ -394,7 +394,7 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
   };
   const cyclic: KrawczykTest = (Y, inner, label) => {
-    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2Fast(s, b.M);
+    prepared ??= n === 1 ? prepareCyclicFast(s, b.M) : prepareCyclic2Fast(s, b.M);
     return prepared(Y, inner, label);
   };
   const forms: KrawczykTest[] = [];
@@ -469,9 +469,9 @@ function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
 
 /** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
 function verifyStability(s: Shooting, ex: { jacobians: Iv[][]; fixedJacobians?: FixedJacobians }, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
-  // n = 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
+  // n = 1, 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
   // those do not verify the claim, so a verdict or a reason never rests on the faster path
-  const fast = n === 2 && fixedPaths.enabled ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : null;
+  const fast = !fixedPaths.enabled ? null : n === 2 ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : n === 1 && ex.fixedJacobians ? stability1Fixed(s.c, ex.fixedJacobians) : null;
   if (fast) {
     try {
       return verifyStabilityWith(fast, n, claim, kinkOnX);

@@ -261,7 +261,8 @@ export interface Stability {
   moduli?: Iv[];
 }
 
-function classify(moduli: Iv[]): Stability['cls'] {
+/** The class from enclosures of the eigenvalue moduli. */
+export function classify(moduli: Iv[]): Stability['cls'] {
   if (moduli.every((m) => m.hi.lt(1))) return 'attracting';
   if (moduli.every((m) => m.lo.gt(1))) return 'repelling';
   if (moduli.some((m) => m.hi.lt(1)) && moduli.some((m) => m.lo.gt(1))) return 'saddle';

@@ -25,7 +25,7 @@
  */
 import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
 import { DomainViolation, type Iv, type IvCtx } from './interval.js';
-import { fromTraceDet, type FixedJacobians, type Stability } from './krawczyk.js';
+import { classify, fromTraceDet, type FixedJacobians, type Stability } from './krawczyk.js';
 
 interface Scaled {
   m: Fx[];
@@ -69,6 +69,28 @@ function mat(k: FixCtx, a: readonly Fx[], b: readonly Fx[]): Fx[] {
   ];
 }
 
+/** The exact value of a scaled fixed-point interval, rounded outward to the working precision. */
+function decimalIv(c: IvCtx, k: FixCtx, x: Fx, e: number): Iv {
+  return c.round({ lo: new c.Down(k.toDecimalScaled(x.lo, e)), hi: new c.Up(k.toDecimalScaled(x.hi, e)) });
+}
+
+/**
+ * Stability for n = 1: the multiplier Π f'(X_i) as a scaled fixed-point product (each step one
+ * interval product, then the outward shifts of the header), its class by krawczyk.ts's `classify`.
+ */
+export function stability1Fixed(c: IvCtx, jac: FixedJacobians): Stability | null {
+  try {
+    const k = jac.k;
+    let m: Scaled = { m: [k.point(k.one)], e: 0 };
+    for (const d of jac.D) m = renorm(k, { m: [k.mul(m.m[0]!, d[0]!)], e: m.e });
+    const multiplier = decimalIv(c, k, m.m[0]!, m.e);
+    return { cls: classify([c.abs(multiplier)]), multiplier };
+  } catch (e) {
+    if (e instanceof FixedRange || e instanceof DomainViolation) return null;
+    throw e;
+  }
+}
+
 /** Stability for n = 2 from D_k ⊇ Df(X_k) (row-major; decimal, or fixed point from a fixed-point Krawczyk path), or null: see the header. */
 export function stability2Fixed(c: IvCtx, D: readonly Iv[][] | FixedJacobians): Stability | null {
   try {
@@ -103,7 +125,7 @@ function run(c: IvCtx, jac: readonly Iv[][] | FixedJacobians): Stability {
     R = renorm(k, { m: mat(k, mat(k, Qinv, B), R.m), e: R.e });
     Q = Qn;
   }
-  const toIv = (x: Fx, e: number): Iv => c.round({ lo: new c.Down(k.toDecimalScaled(x.lo, e)), hi: new c.Up(k.toDecimalScaled(x.hi, e)) });
+  const toIv = (x: Fx, e: number): Iv => decimalIv(c, k, x, e);
   const trace = (a: Fx[]): Fx => k.add(a[0]!, a[3]!);
   const det = (a: Fx[]): Fx => k.sub(k.mul(a[0]!, a[3]!), k.mul(a[1]!, a[2]!));
   const meet = (u: Iv, v: Iv): Iv => ({ lo: c.Down.max(u.lo, v.lo), hi: c.Up.min(u.hi, v.hi) });

@@ -17,6 +17,14 @@ import { compileMap } from '../../src/model/index.js';
 import type { MapDefinition } from '../../src/model/types.js';
 import { proveOrbit } from '../../src/prove/orbit.js';
 import { findCandidates } from '../../src/search/index.js';
+import { ivCtx } from '../../src/checker/elementary.js';
+import { Evaluator, parseFormula } from '../../src/checker/formula.js';
+import type { Iv } from '../../src/checker/interval.js';
+import type { FixedJacobians, Shooting } from '../../src/checker/krawczyk.js';
+import { prepareCyclic } from '../../src/checker/cyclic.js';
+import { prepareCyclicFixed } from '../../src/checker/cyclic-fixed.js';
+import { stability1Fixed } from '../../src/checker/stability-fixed.js';
+import { logistic4Orbit, logistic4Primitive } from './certs.js';
 
 type Cert = Record<string, unknown> & {
   map: { params: Record<string, string>; step: Record<string, string> };
@@ -128,4 +136,53 @@ describe('fixed-point checker paths vs the decimal-only checker', () => {
     expect(verified).toBeGreaterThan(total / 5);
     expect(total - verified).toBeGreaterThan(total / 5);
   }, 120_000);
+});
+
+describe('dimension 1: the fixed-point structured bound vs the decimal one (cyclic.ts)', () => {
+  it('same verdicts on logistic r = 4 orbits, unmutated and mutated; the multiplier encloses ±2^p', () => {
+    // Check values: x_j = sin²(π 2^j k/(2^p − 1)) and |multiplier| = 2^p, from the conjugacy of
+    // 4x(1 − x) with the doubling map (derived by hand, as in tests/checker/certs.ts).
+    let fixedOk = 0;
+    let decimalOk = 0;
+    let runs = 0;
+    fc.assert(
+      fc.property(fc.integer({ min: 3, max: 20 }), fc.bigInt({ min: 1n, max: (1n << 40n) - 2n }), fc.integer({ min: 12, max: 24 }), fc.integer({ min: 0, max: 4 }), fc.nat(), (p, kRaw, radExp, mutation, where) => {
+        const kk = kRaw % ((1n << BigInt(p)) - 1n);
+        fc.pre(kk > 0n && logistic4Primitive(p, kk));
+        const c = ivCtx(30);
+        const s: Shooting = { c, ev: new Evaluator(c, new Map([['r', c.literal('4')]])), step: [parseFormula('r*x*(1-x)', ['x'], new Set(['r']))], p, n: 1 };
+        const pts = logistic4Orbit(p, kk, 40).map((x) => x[0]!);
+        fc.pre(pts.every((x) => new H(4).sub(new H(8).mul(x)).abs().gt(0.01)));
+        const rad = new H(`1e-${radExp}`);
+        const i = where % p;
+        // 0 none; 1 box i shifted off its point; 2 box i shrunk to exclude it; 3 centre i moved; 4 all shifted
+        const X: Iv[] = pts.map((x, j) => {
+          let lo = new H(x).sub(rad);
+          let hi = new H(x).add(rad);
+          if ((mutation === 1 && j === i) || mutation === 4) [lo, hi] = [lo.add(rad.mul(3)), hi.add(rad.mul(3))];
+          if (mutation === 2 && j === i) lo = new H(x).add(rad.div(10));
+          return c.literal(lo.toString(), hi.toString());
+        });
+        const M = pts.map((x, j) => c.literal(mutation === 3 && j === i ? new H(x).add(rad.div(2)).toString() : x));
+        const fixed = prepareCyclicFixed(s, M)(X, X);
+        const decimal = prepareCyclic(s, M)(X, X, 'existence');
+        runs++;
+        if (fixed) fixedOk++;
+        if (decimal.ok) decimalOk++;
+        // the fixed-point path never shows what the decimal path cannot (verdicts cannot change)
+        expect(fixed === null || decimal.ok).toBe(true);
+        if (fixed && mutation === 0) {
+          const st = stability1Fixed(c, (fixed as { fixedJacobians: FixedJacobians }).fixedJacobians)!;
+          const two = new H(2).pow(p);
+          expect(st.multiplier!.lo.abs().lte(two) || st.multiplier!.hi.abs().lte(two)).toBe(true);
+          expect(c.abs(st.multiplier!).lo.lte(two) && c.abs(st.multiplier!).hi.gte(two)).toBe(true);
+          expect(st.cls).toBe('repelling');
+        }
+      }),
+      { numRuns: 150 },
+    );
+    // the fixed-point path decides (almost) everything the decimal path decides, and something
+    expect(fixedOk).toBeGreaterThan(runs / 5);
+    expect(fixedOk).toBeGreaterThanOrEqual(decimalOk * 0.95);
+  }, 60_000);
 });
