@@ -10,7 +10,12 @@
  *     digit of a decimal string (only strings and Decimals are passed to constructors; small
  *     integer JS numbers, which decimal.js converts exactly, appear as operands such as k in k!).
  *     decimal.js exp/ln/pow/trig are never used for enclosures.
- *  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
+ *  1b. Exact BigInt integer arithmetic (+ − ×, `/` truncating toward 0, `>>` flooring) for the
+     binary fixed-point paths of the structured bounds and of n ≤ 2 stability (fixed.ts,
+     formula-fixed.ts, cyclic-fixed.ts, cyclic2-fixed.ts, stability-fixed.ts; issue 8 item 1).
+     Each path only ever says "shown"; when it cannot show a claim the decimal path above decides
+     and words the reason (tests/checker/fixed-differential.test.ts compares both).
+  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
  *     our own strict reader, json.ts), and node:crypto SHA-256.
  *  3. The mathematics, stated where it is used: Krawczyk's theorem (K(X) ⊂ int X ⇒ exactly one
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
