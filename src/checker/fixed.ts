@@ -53,6 +53,10 @@ export interface Fx {
 /** A value outside what the fixed-point path handles: defer to the decimal path. */
 export class FixedRange extends Error {}
 
+/** Most fraction bits of a context, and most binary digits of a scaled value's exponent in `dyadicString` (beyond: FixedRange). */
+export const MAX_FRAC_BITS = 20000;
+export const MAX_SCALE_BITS = 60000;
+
 /** Integer parts beyond this many bits are refused (values ≥ 2^MAX_INT_BITS). */
 export const MAX_INT_BITS = 4096;
 
@@ -85,6 +89,7 @@ function ceilDiv(a: bigint, b: bigint): bigint {
 
 /** Exact decimal string of m·2^s: an integer for s ≥ 0, else m·5^−s with the point −s digits from the right. */
 export function dyadicString(m: bigint, s: number): string {
+  if (Math.abs(s) > MAX_SCALE_BITS) throw new FixedRange('a scale beyond what the fixed-point path converts');
   if (s >= 0) return (m << BigInt(s)).toString();
   const f = -s;
   const neg = m < 0n;
@@ -103,7 +108,7 @@ export class FixCtx {
   private readonly floatScale: number;
 
   constructor(frac: number) {
-    if (!Number.isInteger(frac) || frac < 8 || frac > 20000) throw new RangeError(`fraction bits ${frac}`);
+    if (!Number.isInteger(frac) || frac < 8 || frac > MAX_FRAC_BITS) throw new FixedRange(`fraction bits ${frac} outside what the fixed-point path handles`);
     this.frac = frac;
     this.F = BigInt(frac);
     this.one = 1n << this.F;

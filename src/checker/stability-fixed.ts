@@ -23,7 +23,7 @@
  * whenever a claim does not contain this path's enclosure, so a verdict never rests on this
  * path's looseness.
  */
-import { FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
+import { dyadicString, FixCtx, FixedRange, fracBitsFor, type Fx } from './fixed.js';
 import { DomainViolation, type Iv, type IvCtx } from './interval.js';
 import { classify, fromTraceDet, type FixedJacobians, type Stability } from './krawczyk.js';
 
@@ -69,9 +69,17 @@ function mat(k: FixCtx, a: readonly Fx[], b: readonly Fx[]): Fx[] {
   ];
 }
 
-/** The exact value of a scaled fixed-point interval, rounded outward to the working precision. */
+/**
+ * A scaled fixed-point interval x·2^(e−F) as a decimal interval at the working precision: its
+ * exact value rounded outward when the scale is moderate; beyond 4,000 binary digits of scale
+ * (an exact decimal would have thousands of digits) the integer ends rounded outward times an
+ * enclosure of 2^(e−F) by the decimal kernel's directed binary powering (IvCtx.powInt).
+ */
 function decimalIv(c: IvCtx, k: FixCtx, x: Fx, e: number): Iv {
-  return c.round({ lo: new c.Down(k.toDecimalScaled(x.lo, e)), hi: new c.Up(k.toDecimalScaled(x.hi, e)) });
+  const s = e - k.frac;
+  if (Math.abs(s) <= 4000) return c.round({ lo: new c.Down(dyadicString(x.lo, s)), hi: new c.Up(dyadicString(x.hi, s)) });
+  const ends = c.round({ lo: new c.Down(x.lo.toString()), hi: new c.Up(x.hi.toString()) });
+  return c.mul(ends, c.powInt(c.literal('2'), s));
 }
 
 /**

@@ -11,7 +11,7 @@ import fc from 'fast-check';
 import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { buildCertificate } from '../../src/certificate/build.js';
 import { checkCertificate } from '../../src/checker/index.js';
-import { fixedPaths } from '../../src/checker/fixed.js';
+import { FixCtx, fixedPaths, fracBitsFor } from '../../src/checker/fixed.js';
 import { certificateHash } from '../../src/checker/json.js';
 import { compileMap } from '../../src/model/index.js';
 import type { MapDefinition } from '../../src/model/types.js';
@@ -20,7 +20,7 @@ import { findCandidates } from '../../src/search/index.js';
 import { ivCtx } from '../../src/checker/elementary.js';
 import { Evaluator, parseFormula } from '../../src/checker/formula.js';
 import type { Iv } from '../../src/checker/interval.js';
-import type { FixedJacobians, Shooting } from '../../src/checker/krawczyk.js';
+import { stability, type FixedJacobians, type Shooting } from '../../src/checker/krawczyk.js';
 import { prepareCyclic } from '../../src/checker/cyclic.js';
 import { prepareCyclicFixed } from '../../src/checker/cyclic-fixed.js';
 import { stability1Fixed } from '../../src/checker/stability-fixed.js';
@@ -185,4 +185,24 @@ describe('dimension 1: the fixed-point structured bound vs the decimal one (cycl
     expect(fixedOk).toBeGreaterThan(runs / 5);
     expect(fixedOk).toBeGreaterThanOrEqual(decimalOk * 0.95);
   }, 60_000);
+});
+
+describe('scaled fixed-point products far outside float64 range', () => {
+  it('multipliers 2^±5000 and 3^4000 are enclosed (closed forms), as by the decimal product', () => {
+    // Check values: Π of p equal derivatives d is d^p exactly (common practice, no source).
+    const c = ivCtx(30);
+    const k = new FixCtx(fracBitsFor(30));
+    for (const [d, p] of [['2', 5000], ['0.5', 5000], ['3', 4000], ['-1.5', 3001]] as const) {
+      const Df = Array.from({ length: p }, () => [k.fromIv(c.literal(d))]);
+      const st = stability1Fixed(c, { k, D: Df })!;
+      const ref = stability(c, Array.from({ length: p }, () => [c.literal(d)]), 1);
+      const H2 = Decimal.clone({ precision: 3000 });
+      const ex = new H2(d).pow(p); // exact to 3,000 digits (d^p has at most ~1,300 significant digits)
+      expect(new H2(st.multiplier!.lo).lte(ex) && new H2(st.multiplier!.hi).gte(ex), `${d}^${p}`).toBe(true);
+      expect(st.cls).toBe(ref.cls);
+      // as tight as the decimal product to a few units of the 30th digit
+      const w = new H2(st.multiplier!.hi).sub(st.multiplier!.lo).div(ex.abs());
+      expect(w.lt('1e-24'), `${d}^${p} relative width ${w.toSD(3).toString()}`).toBe(true);
+    }
+  });
 });
