@@ -64,7 +64,7 @@ import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from '.
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
 import { krawczyk, preconditioner, stability, type FixedJacobians, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
-import { prepareCyclicFast } from './cyclic-fixed.js';
+import { prepareCyclicFast, prepareCyclicFixed } from './cyclic-fixed.js';
 import { type BoxTest } from './cyclic2.js';
 import { prepareCyclic2Fast } from './cyclic2-fixed.js';
 import { stability1Fixed, stability2Fixed } from './stability-fixed.js';
@@ -412,7 +412,14 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
     if (n <= 2) forms.push(cyclic);
   }
+  // dense first (dimension 1, short periods): the fixed-point structured bound is tried before
+  // any form and only ever says "shown"; otherwise the forms run as before, reasons unchanged
+  let fixedFirst: ((Y: readonly Iv[], inner: readonly Iv[]) => KrawczykOutcome | null) | undefined;
   return (Y, inner, label) => {
+    if (!cyclicFirst && n === 1 && fixedPaths.enabled) {
+      const out = (fixedFirst ??= prepareCyclicFixed(s, b.M))(Y, inner);
+      if (out) return out;
+    }
     let firstOut: KrawczykOutcome | null = null;
     for (const f of forms) {
       const out = f(Y, inner, label);

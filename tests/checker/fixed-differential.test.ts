@@ -34,6 +34,22 @@ type Cert = Record<string, unknown> & {
 
 const H = Decimal.clone({ precision: 60 });
 const bases: Cert[] = [];
+const henonBases: Cert[] = [];
+const logisticBases: Cert[] = [];
+
+function logistic(r: string): MapDefinition {
+  return { title: 'logistic', state: ['x'], step: { x: 'r*x*(1 - x)' }, region: { x: ['0', '1'] }, params: { r: { kind: 'exact', value: r } } };
+}
+
+function prove(def: MapDefinition, periods: readonly number[], into: Cert[]): void {
+  const map = compileMap(def);
+  for (const p of periods) {
+    for (const cand of findCandidates(map, { period: p }).slice(0, 2)) {
+      const v = proveOrbit(map, cand.points);
+      if (v.status === 'proven') into.push(JSON.parse(JSON.stringify(buildCertificate(v.orbit, def))) as Cert);
+    }
+  }
+}
 
 function henon(a: string, b: string): MapDefinition {
   return {
@@ -57,15 +73,12 @@ function rehash(c: Cert): Cert {
 
 beforeAll(() => {
   for (const [a, b, periods] of [['1.4', '0.3', [1, 2, 4, 6]], ['1.2', '0.2', [1, 2, 4]], ['1.05', '0.3', [1, 2]]] as const) {
-    const def = henon(a, b);
-    const map = compileMap(def);
-    for (const p of periods) {
-      for (const cand of findCandidates(map, { period: p }).slice(0, 2)) {
-        const v = proveOrbit(map, cand.points);
-        if (v.status === 'proven') bases.push(JSON.parse(JSON.stringify(buildCertificate(v.orbit, def))) as Cert);
-      }
-    }
+    prove(henon(a, b), periods, henonBases);
   }
+  // dimension 1, short periods (dense Krawczyk before, now the fixed-point structured bound first):
+  // logistic x' = r·x·(1 − x) (May 1976, Nature 261)
+  for (const r of ['3.83', '3.9', '4']) prove(logistic(r), [1, 2, 3, 5], logisticBases);
+  bases.push(...henonBases, ...logisticBases);
 }, 60_000);
 
 afterEach(() => {
@@ -74,10 +87,19 @@ afterEach(() => {
 
 describe('fixed-point checker paths vs the decimal-only checker', () => {
   it('every base certificate is VERIFIED by both, under equivalent formulas too (sin defers to decimal)', () => {
-    expect(bases.length).toBeGreaterThanOrEqual(10);
+    expect(henonBases.length).toBeGreaterThanOrEqual(10);
+    expect(logisticBases.length).toBeGreaterThanOrEqual(8);
+    for (const base of logisticBases) {
+      for (const x of ['r*x*(1 - x)', 'r*x - r*x^2', 'r*(x - sqr(x))', 'r*x*(1 - x) + 0*exp(x)']) {
+        const cert = rehash({ ...base, map: { ...base.map, step: { x } } });
+        const fast = run(cert, true);
+        expect(fast, x).toMatch(/^VERIFIED/);
+        expect(run(cert, false), x).toBe(fast);
+      }
+    }
     const forms = ['1 - a*x^2 + y', '1 - a*x*x + y', '1 - a*sqr(x) + y', '1 + y - a*pow(x, 2)', '(2 - 2*a*x^2 + 2*y)/2', '1 - a*x^2 + y + 0*sin(x)'];
     // a/x^-2 encloses a·x² more loosely (division by an interval): a verdict either way, the same from both
-    for (const base of bases) {
+    for (const base of henonBases) {
       for (const x of [...forms, '1 - a/x^-2 + y']) {
         const cert = rehash({ ...base, map: { ...base.map, step: { ...base.map.step, x } } });
         const fast = run(cert, true);
@@ -94,7 +116,7 @@ describe('fixed-point checker paths vs the decimal-only checker', () => {
       fc.record({ kind: fc.constant('centre' as const), pt: fc.nat(), comp: fc.nat(1), f: factor }),
       fc.record({ kind: fc.constant('param' as const), name: fc.constantFrom('a', 'b'), f: fc.constantFrom('1e-30', '1e-20', '1e-16', '1e-13', '1e-10', '1e-6', '-1e-14') }),
       fc.record({ kind: fc.constant('radius' as const), f: fc.constantFrom('0.5', '2', '10', '1000', '1e6') }),
-      fc.record({ kind: fc.constant('stability' as const), key: fc.constantFrom('trace', 'determinant'), end: fc.nat(1), f: fc.constantFrom('1e-12', '1e-6', '0.01', '0.5', '-0.5') }),
+      fc.record({ kind: fc.constant('stability' as const), key: fc.constantFrom('trace', 'determinant', 'multiplier'), end: fc.nat(1), f: fc.constantFrom('1e-12', '1e-6', '0.01', '0.5', '-0.5') }),
       fc.record({ kind: fc.constant('class' as const), cls: fc.constantFrom('attracting', 'repelling', 'saddle', 'undecided') }),
     );
     let verified = 0;
@@ -104,16 +126,18 @@ describe('fixed-point checker paths vs the decimal-only checker', () => {
         const base = bases[which % bases.length]!;
         const c = structuredClone(base);
         const p = c.orbit.centre.length;
+        const n = c.orbit.centre[0]!.length;
         if (m.kind === 'box') {
-          const iv = c.orbit.boxes[m.pt % p]![m.comp]!;
+          const iv = c.orbit.boxes[m.pt % p]![m.comp % n]!;
           const w = new H(iv[1]).sub(iv[0]);
           iv[m.end] = new H(iv[m.end]!).add(w.mul(m.f)).toString();
         } else if (m.kind === 'centre') {
-          const iv = c.orbit.boxes[m.pt % p]![m.comp]!;
+          const iv = c.orbit.boxes[m.pt % p]![m.comp % n]!;
           const w = new H(iv[1]).sub(iv[0]);
-          c.orbit.centre[m.pt % p]![m.comp] = new H(c.orbit.centre[m.pt % p]![m.comp]!).add(w.mul(m.f)).toString();
+          c.orbit.centre[m.pt % p]![m.comp % n] = new H(c.orbit.centre[m.pt % p]![m.comp % n]!).add(w.mul(m.f)).toString();
         } else if (m.kind === 'param') {
-          c.map.params[m.name] = new H(c.map.params[m.name]!).add(m.f).toString();
+          const name = m.name in c.map.params ? m.name : 'r';
+          c.map.params[name] = new H(c.map.params[name]!).add(m.f).toString();
         } else if (m.kind === 'radius') {
           if (c.claims.uniqueness) c.claims.uniqueness.radius = new H(c.claims.uniqueness.radius).mul(m.f).toString();
         } else if (m.kind === 'stability') {
