@@ -25,10 +25,10 @@ const CSS = `
 body{font-family:system-ui,-apple-system,"Segoe UI",sans-serif;color:#111;background:#fff;margin:0 auto;max-width:1120px;padding:16px;line-height:1.45}
 h1{font-size:1.5rem;margin:.2em 0}h2{font-size:1.2rem;margin:1.6em 0 .4em;border-bottom:2px solid #111}h3{font-size:1.05rem}
 .note{color:#333;font-size:.92rem}
-code,h3,a,p{overflow-wrap:anywhere}
+code,h3,a,p,figcaption{overflow-wrap:anywhere}
 dl.facts dt{overflow-wrap:anywhere}
 .table-wrap{overflow-x:auto}
-table{border-collapse:collapse;font-size:.9rem;width:100%}th,td{border:1px solid #999;padding:4px 6px;text-align:left;vertical-align:top}th{background:#eee}
+table{border-collapse:collapse;font-size:.9rem;width:100%}table.kind-table{margin:.6em 0;width:auto}th,td{border:1px solid #999;padding:4px 6px;text-align:left;vertical-align:top}th{background:#eee}
 .verdict{font-weight:700;white-space:nowrap}.verdict-VERIFIED{color:#14532d}.verdict-REJECTED,.verdict-UNREADABLE{color:#8b0000}
 .claim{background:#f4f4f4;border-left:4px solid #111;padding:8px 12px}
 dl.facts{display:grid;grid-template-columns:minmax(0,max-content) minmax(0,1fr);gap:2px 12px;font-size:.88rem}dl.facts dt{font-weight:600}dl.facts dd{margin:0;overflow-wrap:anywhere;font-family:ui-monospace,monospace}
@@ -46,7 +46,7 @@ interface Rendered {
   noView?: string;
 }
 
-function figure(p: Plot, wide = false): string {
+function figure(p: Plot, wide = p.wide === true): string {
   return `<figure${wide ? ' class="wide"' : ''} data-plot="${esc(p.id)}" data-boxes="${p.boxes}">${p.svg}<figcaption>${esc(p.title)}. ${esc(p.description)}</figcaption></figure>`;
 }
 
@@ -127,7 +127,7 @@ export function renderReportHtml(entries: readonly ReportEntry[], opts: ReportOp
   );
 
   body.push('<h2 id="summary">Summary</h2><div class="table-wrap"><table class="summary"><caption class="note">One row per file, in the order given.</caption>');
-  body.push('<thead><tr><th scope="col">#</th><th scope="col">certificate</th><th scope="col">map</th><th scope="col">orbit</th><th scope="col">parameters</th><th scope="col">stability</th><th scope="col">check</th></tr></thead><tbody>');
+  body.push('<thead><tr><th scope="col">#</th><th scope="col">certificate</th><th scope="col">map</th><th scope="col">what</th><th scope="col">parameters</th><th scope="col">stability</th><th scope="col">check</th></tr></thead><tbody>');
   rendered.forEach((r, i) => {
     const s = r.view?.summary;
     body.push(
@@ -144,7 +144,7 @@ export function renderReportHtml(entries: readonly ReportEntry[], opts: ReportOp
       plots.push(d.plot);
       body.push(`<section class="bifurcation" data-members="${d.members.map((m) => m.id).join(' ')}"><h3>${esc(d.heading)}</h3>`);
       body.push(`<div class="plots">${figure(d.plot, true)}</div>`);
-      body.push(`<p class="note">Proven orbits on it: ${d.members.map((m) => `<a href="#${m.id}">${esc(m.view!.heading)}</a>`).join('; ')}.</p></section>`);
+      body.push(`<p class="note">Certificates on it: ${d.members.map((m) => `<a href="#${m.id}">${esc(m.view!.heading)}</a>`).join('; ')}.</p></section>`);
     }
   }
 
@@ -165,6 +165,13 @@ export function renderReportHtml(entries: readonly ReportEntry[], opts: ReportOp
       body.push(`<p class="claim">${esc(v.claim)}</p>`);
       body.push(`<p class="note">Re-verified claims: ${esc(e.claimsVerified.join(', '))}.</p>`);
       body.push('<dl class="facts">' + v.facts.map(([k, val]) => `<dt>${esc(k)}</dt><dd>${esc(val)}</dd>`).join('') + '</dl>');
+      for (const t of v.tables ?? []) {
+        body.push(
+          `<div class="table-wrap"><table class="kind-table"><caption class="note">${esc(t.caption)}</caption><thead><tr>${t.head.map((h) => `<th scope="col">${esc(h)}</th>`).join('')}</tr></thead><tbody>` +
+            t.rows.map((r) => `<tr>${r.map((c) => `<td>${esc(c)}</td>`).join('')}</tr>`).join('') +
+            '</tbody></table></div>',
+        );
+      }
       body.push(`<div class="plots">${v.plots.map((p) => figure(p)).join('')}</div>`);
       plots.push(...v.plots);
     }

@@ -4,7 +4,7 @@
  */
 import type { StabilityClass } from '../certificate/types.js';
 import type { ParameterMark, Plot } from './types.js';
-import { axes, boxRect, clipDefs, esc, FRAME, frameScales, MIN_BOX_PX, padRange, px, svgDocument, type Frame } from './svg.js';
+import { axes, boxRect, clipDefs, esc, FRAME, frameScales, MIN_BOX_PX, padRange, px, svgDocument, type Frame, type Scale } from './svg.js';
 
 /** Fill of a box by stability: solid, white, hatched or grey (distinct without colour). */
 export function stabilityStyle(id: string, s: StabilityClass | 'window' | 'edge'): string {
@@ -240,13 +240,13 @@ export function bifurcationPlot(
   family: ((x: number, theta: number) => number) | undefined,
   marks: readonly ParameterMark[],
   heading: string,
+  columns = 330,
 ): Plot {
   const frame: Frame = { width: 720, height: 420, left: 56, right: 14, top: 14, bottom: 40 };
   const { x, y } = frameScales(frame, thetaRange, xRange);
   const parts: string[] = [clipDefs(id, frame), axes(frame, x, y, parameter, variable)];
   parts.push(`<g clip-path="url(#${esc(id)}-clip)">`);
   if (family) {
-    const columns = 330;
     const seen = new Set<number>();
     const d: string[] = [];
     const [xlo, xhi] = xRange;
@@ -269,15 +269,88 @@ export function bifurcationPlot(
     }
     parts.push(`<path class="float-orbits" d="${d.join('')}" fill="#aaa"/>`);
   }
-  let boxes = 0;
-  for (const m of marks) {
-    parts.push(boxRect(x, y, m.theta[0], m.theta[1], m.x[0], m.x[1], 'proof-box', stabilityStyle(id, m.stability), m.label));
-    boxes++;
-  }
+  const { boxes, bands, lines, text } = drawParameterMarks(id, frame, x, y, marks, parts);
   parts.push('</g>');
   const title = `Bifurcation diagram: ${heading}`;
   const description =
-    `Grey: float orbit diagram (after 300 iterations, the next 300 points from three starts, for 331 values of ${parameter}); it is an observation, not a proof. ` +
-    `On top: ${boxes} proven orbit boxes (${parameter} value or interval × ${variable} enclosure), drawn at least ${MIN_BOX_PX} px wide. ${STABILITY_LEGEND}`;
-  return { id, title, description, svg: svgDocument(id, frame, title, description, parts.join('')), boxes };
+    `Grey: float orbit diagram (after 300 iterations, the next 300 points from three starts, for ${columns + 1} values of ${parameter}); it is an observation, not a proof. ` +
+    `On top: ${boxes} proven orbit boxes (${parameter} value or interval × ${variable} enclosure), drawn at least ${MIN_BOX_PX} px wide` +
+    (bands + lines > 0 ? `; ${text}` : '.') +
+    ` ${STABILITY_LEGEND}`;
+  return { id, title, description, svg: svgDocument(id, frame, title, description, parts.join('')), boxes, wide: true };
+}
+
+/** Fill of a parameter band: windows lightly shaded, gaps cross-hatched, absences dotted (told apart without colour). */
+function bandStyle(id: string, band: NonNullable<ParameterMark['band']>): string {
+  switch (band) {
+    case 'window':
+      return 'fill="#c9d6ea" fill-opacity="0.45" stroke="#1d3557" stroke-width="0.8"';
+    case 'gap':
+      return `fill="url(#${esc(id)}-hatch)" fill-opacity="0.45" stroke="#8b0000" stroke-width="1" stroke-dasharray="3 2"`;
+    default:
+      return `fill="url(#${esc(id)}-dots)" stroke="#000" stroke-width="0.8" stroke-dasharray="1 2"`;
+  }
+}
+
+export const BAND_LEGEND =
+  'Parameter bands: a proven window = light shading with a solid edge, a gap (nothing claimed) = hatched with a dashed edge, a proven absence = dotted; an edge (fold or flip) = a vertical line with a triangle on top.';
+
+/**
+ * Draw parameter marks on a θ × x plot in layers (bands, then lines, then boxes), appending to
+ * `parts`; returns how many of each and a sentence for the description. Boxes are capped.
+ */
+export function drawParameterMarks(
+  id: string,
+  frame: Frame,
+  x: Scale,
+  y: Scale,
+  marks: readonly ParameterMark[],
+  parts: string[],
+): { boxes: number; bands: number; lines: number; text: string } {
+  const top = frame.top;
+  const bottom = frame.height - frame.bottom;
+  const counts = { window: 0, gap: 0, absence: 0 };
+  parts.push(
+    `<defs><pattern id="${esc(id)}-dots" width="5" height="5" patternUnits="userSpaceOnUse"><circle cx="2.5" cy="2.5" r="0.9" fill="#000"/></pattern></defs>`,
+  );
+  let bands = 0;
+  for (const m of marks) {
+    if (m.shape !== 'band') continue;
+    const band = m.band ?? 'window';
+    let a = x(m.theta[0]);
+    let b = x(m.theta[1]);
+    if (b - a < 3) {
+      const c = (a + b) / 2;
+      a = c - 1.5;
+      b = c + 1.5;
+    }
+    parts.push(
+      `<rect class="param-band band-${band}" x="${px(a)}" y="${px(top)}" width="${px(b - a)}" height="${px(bottom - top)}" ${bandStyle(id, band)}><title>${esc(m.label)}</title></rect>`,
+    );
+    counts[band]++;
+    bands++;
+  }
+  let lines = 0;
+  for (const m of marks) {
+    if (m.shape !== 'line') continue;
+    const X = px(x((m.theta[0] + m.theta[1]) / 2));
+    parts.push(
+      `<g class="edge-mark"><title>${esc(m.label)}</title><line x1="${X}" y1="${px(top)}" x2="${X}" y2="${px(bottom)}" stroke="#000" stroke-width="1.5" stroke-dasharray="6 2"/>` +
+        `<path d="M${X} ${px(top + 9)}l-5 -8h10z" fill="#000"/></g>`,
+    );
+    lines++;
+  }
+  let boxes = 0;
+  for (const m of marks) {
+    if (m.shape === 'band' || m.shape === 'line') continue;
+    if (boxes >= MAX_DRAWN_BOXES) break;
+    parts.push(boxRect(x, y, m.theta[0], m.theta[1], m.x[0], m.x[1], 'proof-box', stabilityStyle(id, m.stability), m.label));
+    boxes++;
+  }
+  const said: string[] = [];
+  if (counts.window) said.push(`${counts.window} proven window range${counts.window === 1 ? '' : 's'} shaded`);
+  if (counts.gap) said.push(`${counts.gap} gap${counts.gap === 1 ? '' : 's'} where nothing is claimed hatched`);
+  if (counts.absence) said.push(`${counts.absence} proven absence${counts.absence === 1 ? '' : 's'} dotted`);
+  if (lines) said.push(`${lines} bifurcation edge${lines === 1 ? '' : 's'} as vertical lines`);
+  return { boxes, bands, lines, text: `${said.join(', ')}. ${BAND_LEGEND}` };
 }

@@ -4,7 +4,12 @@
  * looks views up by `certificate.kind` and shows "no view for this kind yet" otherwise.
  */
 import type { KindView } from './types.js';
+import { absenceView } from './absence.js';
+import { countView } from './count.js';
+import { edgeView } from './edge.js';
+import { flowView } from './flow.js';
 import { periodicOrbitView } from './periodic-orbit.js';
+import { windowView } from './window.js';
 
 const views = new Map<string, KindView>();
 
@@ -20,4 +25,4 @@ export function registeredKinds(): string[] {
   return [...views.keys()].sort();
 }
 
-registerKindView(periodicOrbitView);
+for (const view of [periodicOrbitView, windowView, edgeView, absenceView, countView, flowView]) registerKindView(view);

@@ -30,8 +30,10 @@ export interface Plot {
   description: string;
   /** The whole <svg> element, with xmlns (a stand-alone file as it is). */
   svg: string;
-  /** How many proof boxes / enclosures the plot draws (the DOM tests count them). */
+  /** How many proof boxes / enclosures / cover leaves the plot draws (the DOM tests count them). */
   boxes: number;
+  /** A wide plot (720 px, a parameter axis): its caption may be as wide. */
+  wide?: boolean;
 }
 
 /** What a kind view returns for one verified certificate. */
@@ -43,6 +45,8 @@ export interface EntryView {
   /** Label → value lines (map formulas, parameters, enclosures). */
   facts: [string, string][];
   plots: Plot[];
+  /** Tables shown after the facts (plain text cells; the HTML layer escapes them). */
+  tables?: { caption: string; head: string[]; rows: string[][] }[];
   /** One row of the summary table. */
   summary: { map: string; what: string; parameters: string; stability: string };
 }
@@ -55,6 +59,14 @@ export interface ParameterMark {
   stability: StabilityClass | 'window' | 'edge';
   /** Tooltip text. */
   label: string;
+  /**
+   * How it is drawn: `box` (default) a proof box θ × x; `band` a shaded parameter band over the
+   * whole height (a window's range, a gap of a window; `x` is ignored); `line` a vertical mark at
+   * θ (an edge enclosure; `x` is ignored).
+   */
+  shape?: 'box' | 'band' | 'line';
+  /** For bands: 'window' (proven range), 'gap' (nothing claimed), 'absence' (no orbit proven). */
+  band?: 'window' | 'gap' | 'absence';
 }
 
 /** A 1-D map with a parameter: what the bifurcation diagram needs from one certificate. */

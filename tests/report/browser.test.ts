@@ -3,6 +3,8 @@
  * by playwright-core with the system browser. Loads a report of the committed demo and logistic
  * r = 3.83 certificates plus one tampered file, takes screenshots at two widths into
  * artifacts/report-screenshots/ (gitignored; README "report" section), and asserts on the DOM.
+ * A second page holds a folder with every certificate kind, written by the real commands
+ * (kinds-fixture.ts): window, fold and flip edges, absence, count, flow; one screenshot per kind.
  * Skipped, saying so, only when no Chromium binary exists on this machine.
  */
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -11,6 +13,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { collectEntries, renderReportHtml } from '../../src/report/index.js';
+import { writeKindSamples } from './kinds-fixture.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
 export const SCREENSHOT_DIR = join(root, 'artifacts', 'report-screenshots');
@@ -121,4 +124,94 @@ describe.skipIf(!chromiumPath)('report in headless Chromium', () => {
       await browser.close();
     }
   }, 90_000);
+  it('a folder with every certificate kind: each view with its plots, the diagram overlays, no sideways scroll at 420 px', async () => {
+    const samples = await writeKindSamples(join(work, 'kinds'));
+    const entries = collectEntries([join(root, 'proofs/logistic/r3.83/logistic-map-p3-1.json'), samples.dir], work);
+    const { html } = renderReportHtml(entries, { title: 'orbitseal report — every kind (browser test)' });
+    const file = join(work, 'kinds.html');
+    writeFileSync(file, html);
+    const url = pathToFileURL(file).href;
+    const kinds = ['periodic-orbit', 'periodic-window', 'bifurcation-edge', 'periodic-absence', 'periodic-orbit-count'];
+
+    const { chromium } = await import('playwright-core');
+    const browser = await chromium.launch({ executablePath: chromiumPath, args: ['--no-sandbox'] });
+    try {
+      mkdirSync(SCREENSHOT_DIR, { recursive: true });
+      for (const width of [1280, 420]) {
+        const page = await browser.newPage({ viewport: { width, height: 900 } });
+        const problems: string[] = [];
+        const requests: string[] = [];
+        page.on('console', (m) => {
+          if (m.type() === 'error') problems.push(m.text());
+        });
+        page.on('pageerror', (e) => problems.push(String(e)));
+        page.on('request', (r) => requests.push(r.url()));
+        await page.goto(url, { waitUntil: 'load' });
+        const sections = await page.$$eval('section.certificate', (els) =>
+          els.map((el) => ({
+            kind: el.getAttribute('data-kind'),
+            verdict: el.getAttribute('data-verdict'),
+            file: el.getAttribute('data-file'),
+            claim: el.querySelector('.claim')?.textContent ?? '',
+            plots: [...el.querySelectorAll('figure')].map((f) => ({
+              boxes: Number(f.getAttribute('data-boxes')),
+              drawn: f.querySelectorAll('.proof-box, .enclosure, .cover-leaf').length,
+              labelled: !!f.querySelector('svg[role="img"] > title') && !!f.querySelector('svg > desc'),
+            })),
+          })),
+        );
+        expect(sections.map((x) => x.file)).toEqual(entries.map((e) => e.file));
+        // every kind but flows is re-verified by the checker and shown with its view
+        for (const kind of kinds) expect(sections.some((x) => x.kind === kind && x.verdict === 'VERIFIED'), kind).toBe(true);
+        for (const x of sections) {
+          if (x.verdict !== 'VERIFIED') {
+            expect(x.plots, x.file!).toEqual([]);
+            expect(x.claim).toMatch(/^Nothing in this file is proven/);
+            continue;
+          }
+          expect(x.plots.length, x.file!).toBeGreaterThanOrEqual(1);
+          expect(x.claim).toMatch(/re-verified by the independent checker\.$/);
+          for (const p of x.plots) {
+            expect(p.drawn, x.file!).toBe(p.boxes);
+            expect(p.drawn, x.file!).toBeGreaterThan(0);
+            expect(p.labelled).toBe(true);
+          }
+        }
+        // the flow certificate: a view when the checker verifies flows, otherwise no claim at all
+        const flow = sections.find((x) => x.file!.includes('vibrating-sensor-bracket'))!;
+        if (flow.verdict === 'VERIFIED') expect(flow.plots.length).toBeGreaterThanOrEqual(2);
+        else expect(flow.claim).toMatch(/^Nothing in this file is proven/);
+
+        // the logistic diagram: orbits at 3.83, the window band, its gaps, the absence and both edges
+        const diagram = await page.$$eval('section.bifurcation svg', (els) =>
+          els.map((svg) => ({
+            window: svg.querySelectorAll('.band-window').length,
+            gaps: svg.querySelectorAll('.band-gap').length,
+            absence: svg.querySelectorAll('.band-absence').length,
+            edges: svg.querySelectorAll('.edge-mark').length,
+          })),
+        );
+        expect(diagram).toHaveLength(1);
+        expect(diagram[0]!.window).toBe(1);
+        expect(diagram[0]!.gaps).toBeGreaterThan(0);
+        expect(diagram[0]!.absence).toBe(1);
+        expect(diagram[0]!.edges).toBe(2);
+
+        expect(requests).toEqual([url]);
+        expect(problems).toEqual([]);
+        const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+        expect(overflow).toBeLessThanOrEqual(0);
+
+        await page.locator('section.bifurcation').first().screenshot({ path: join(SCREENSHOT_DIR, `kinds-${width}-bifurcation.png`) });
+        for (const kind of kinds.slice(1)) {
+          await page.locator(`section.certificate[data-kind="${kind}"]`).first().screenshot({ path: join(SCREENSHOT_DIR, `kinds-${width}-${kind}.png`) });
+        }
+        // a REJECTED file has no kind attribute (nothing in it is read as a claim): found by name
+        await page.locator('section.certificate[data-file*="vibrating-sensor-bracket"]').screenshot({ path: join(SCREENSHOT_DIR, `kinds-${width}-flow-periodic-orbit.png`) });
+        await page.close();
+      }
+    } finally {
+      await browser.close();
+    }
+  }, 120_000);
 });
