@@ -19,6 +19,8 @@ export type CertificateParam = DecimalString | DecimalInterval;
 export const CERTIFICATE_FORMAT = 'orbitseal-certificate';
 export const CERTIFICATE_FORMAT_VERSION = 1;
 export const CERTIFICATE_KIND_PERIODIC_ORBIT = 'periodic-orbit';
+/** A periodic orbit of the time-T map of an ODE (`map.flow`), with its integration plan. */
+export const CERTIFICATE_KIND_FLOW_ORBIT = 'flow-periodic-orbit';
 
 export type StabilityClass = 'attracting' | 'repelling' | 'saddle' | 'undecided';
 
@@ -31,7 +33,8 @@ export interface CertificateMap {
   step: Record<string, string>;
   /**
    * For a map from a flow (kind "flow-periodic-orbit"): right-hand sides, time variable,
-   * duration or section, as source text. The checker does not re-verify flows yet.
+   * duration or section, as source text. The checker re-verifies time-T maps (src/checker/flow.ts);
+   * return maps to a section are not re-verified yet.
    */
   flow?: {
     rhs: Record<string, string>;
@@ -74,6 +77,8 @@ export interface CertificateClaims {
   /** Equal to `period` when claimed (boxes pairwise disjoint); null when not claimed. */
   minimalPeriod: number | null;
   stability: CertificateStability;
+  /** Kind 'flow-periodic-orbit', time-T map: enclosure of the flow period period·duration. */
+  flowPeriod?: DecimalInterval;
 }
 
 export interface CertificateHints {
@@ -98,8 +103,21 @@ export interface CertificateV1 {
   orbit: CertificateOrbit;
   claims: CertificateClaims;
   hints?: CertificateHints;
+  /** Kind 'flow-periodic-orbit' only: the integration plan, untrusted hints for the checker. */
+  plan?: CertificateFlowPlan;
   /** SHA-256 (hex) of the canonical JSON of this document without the "sha256" key. */
   sha256: string;
+}
+
+/**
+ * How the prover integrated the flow from each orbit point (hints only; src/checker/flow.ts).
+ * Every step but the last has a size `h`; the last one runs to the duration. `apriori` is the
+ * step's a priori box, `frame` the n×n matrix of the wrapping-control representation m + B·r
+ * after the step (the prover's Lohner Q).
+ */
+export interface CertificateFlowPlan {
+  order: number;
+  points: { steps: { h?: DecimalString; apriori: DecimalInterval[]; frame?: DecimalString[][] }[] }[];
 }
 
 /** The document before its hash is attached. */

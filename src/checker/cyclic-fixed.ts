@@ -129,7 +129,7 @@ function boxTest1(fx: Centre1, s: Shooting, X: readonly Iv[], inner: readonly Iv
   }
   let D: Iv[][] | undefined;
   const out = { ok: true as const, fixedJacobians: { k, D: Df } } as KrawczykOutcome & { jacobians: Iv[][] };
-  Object.defineProperty(out, 'jacobians', { enumerable: true, get: () => (D ??= X.map((x) => image(s, [x], true).jac!)) });
+  Object.defineProperty(out, 'jacobians', { enumerable: true, get: () => (D ??= X.map((x, i) => image(s, [x], true, i).jac!)) });
   return out;
 }
 
@@ -137,6 +137,7 @@ function boxTest1(fx: Centre1, s: Shooting, X: readonly Iv[], inner: readonly Iv
 export function prepareCyclicFixed(s: Shooting, M: readonly Iv[]): (X: readonly Iv[], inner: readonly Iv[]) => KrawczykOutcome | null {
   let fx: Centre1 | null | undefined;
   return (X, inner) => {
+    if (s.flow) return null; // a map from a flow: s.step is the vector field, not the map (decimal path only)
     try {
       if (fx === undefined) fx = centre1(s, M);
       return fx === null ? null : boxTest1(fx, s, X, inner);

@@ -201,7 +201,7 @@ function boxTest(fx: Centre, s: Shooting, X: readonly Iv[], inner: readonly Iv[]
  */
 function fixedOutcome(s: Shooting, X: readonly Iv[], k: FixCtx, Df: Fx[][]): KrawczykOutcome {
   let D: Iv[][] | undefined;
-  const decimalJacobians = (): Iv[][] => Df.map((_, i) => image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!);
+  const decimalJacobians = (): Iv[][] => Df.map((_, i) => image(s, [X[2 * i]!, X[2 * i + 1]!], true, i).jac!);
   const out = { ok: true as const, fixedJacobians: { k, D: Df } } as KrawczykOutcome & { jacobians: Iv[][] };
   Object.defineProperty(out, 'jacobians', { enumerable: true, get: () => (D ??= decimalJacobians()) });
   return out;
@@ -216,6 +216,7 @@ function handOver(e: unknown): null {
 export function prepareCyclic2Fixed(s: Shooting, M: readonly Iv[]): FixedTest {
   let fx: Centre | null | undefined;
   return (X, inner) => {
+    if (s.flow) return null; // a map from a flow: s.step is the vector field, not the map (decimal path only)
     try {
       if (fx === undefined) fx = centre(s, M);
       return fx === null ? null : boxTest(fx, s, X, inner);

@@ -58,7 +58,7 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
   const At: Decimal[] = new Array(4 * p);
   const Af = new Float64Array(4 * p);
   for (let i = 0; i < p; i++) {
-    const { f, jac } = image(s, [M[2 * i]!, M[2 * i + 1]!], true);
+    const { f, jac } = image(s, [M[2 * i]!, M[2 * i + 1]!], true, i);
     const nx = ((i + 1) % p) * 2;
     for (let r = 0; r < 2; r++) Fm[2 * i + r] = c.sub(M[nx + r]!, f[r]!);
     for (let k = 0; k < 4; k++) {
@@ -130,7 +130,7 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
   return (X: readonly Iv[], inner: readonly Iv[], lb: string): KrawczykOutcome => {
   label = lb;
   const D: Iv[][] = new Array(p);
-  for (let i = 0; i < p; i++) D[i] = image(s, [X[2 * i]!, X[2 * i + 1]!], true).jac!;
+  for (let i = 0; i < p; i++) D[i] = image(s, [X[2 * i]!, X[2 * i + 1]!], true, i).jac!;
   const G: Decimal[] = new Array(2 * p);
   let gTop = -Infinity;
   const tiny = new Up('1e-100000');

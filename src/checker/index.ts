@@ -23,7 +23,10 @@
  *     minimal period p (weaker than, and implied by, pairwise disjointness),
  *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
  *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
- *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices).
+ *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices);
+ *     for time-T maps of ODEs (flow.ts, flow-series.ts): the Picard–Lindelöf a priori inclusion,
+ *     Taylor's theorem with the Lagrange remainder, the mean value theorem, Gronwall's inequality
+ *     and the Neumann series, each stated in flow.ts's header.
  *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
@@ -57,7 +60,7 @@ import {
   MAX_UNKNOWNS,
   STRUCTURED_FROM_UNKNOWNS,
 } from '../certificate/limits.js';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_FLOW_ORBIT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
@@ -73,9 +76,10 @@ import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
 import { checkCount, CountRejection } from './count.js';
+import { flowImage, flowWork, readFlow, verifyFlowPeriod, type FlowRead } from './flow.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count' | 'flow-period';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -201,6 +205,10 @@ interface ReadCertificate {
   stability: StabilityClaim | null;
   /** Working precision (digits) from the options and the hints. */
   digits: number;
+  /** Kind "flow-periodic-orbit": the time-T map of an ODE and its integration plan (flow.ts). */
+  flow: FlowRead | null;
+  /** Claimed enclosure of the flow period p·duration (flow certificates), or null. */
+  flowPeriod: [string, string] | null;
 }
 
 /** The stability claim as text: the class and the enclosures the certificate states. */
@@ -235,17 +243,18 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
+  const isFlow = d.kind === CERTIFICATE_KIND_FLOW_ORBIT;
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT && !isFlow) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "${CERTIFICATE_KIND_FLOW_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
-  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
+  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256', ...(isFlow ? ['plan'] : [])], '$');
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
   if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
   const p = int(d.period, '$.period', 1, limits.maxPeriod);
   const map = obj(d.map, '$.map');
-  onlyKeys(map, ['params', 'state', 'step', 'title'], '$.map');
+  onlyKeys(map, ['params', 'state', 'step', 'title', ...(isFlow ? ['flow'] : [])], '$.map');
   if (d.producer !== undefined) onlyKeys(obj(d.producer, '$.producer'), ['name', 'version'], '$.producer');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
   const n = state.length;
@@ -267,9 +276,12 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     if (typeof v !== 'string' && !Array.isArray(v)) reject(path, `expected a decimal string or a [lo, hi] pair of decimal strings at ${path}`);
     paramText.set(k, typeof v === 'string' ? [dec(v, path), dec(v, path)] : ivl(v, path));
   }
+  const flow = isFlow
+    ? readFlow(d, map, state, new Set(paramText.keys()), p, { reject, obj, arr, str, int, dec, ivl, onlyKeys, maxFormulaLength: limits.maxFormulaLength })
+    : null;
   const stepRaw = obj(map.step, '$.map.step');
-  if (Object.keys(stepRaw).length !== n) reject('$.map.step', 'map.step must have exactly one formula per state variable');
-  const step: Node[] = state.map((s) => {
+  if (!flow && Object.keys(stepRaw).length !== n) reject('$.map.step', 'map.step must have exactly one formula per state variable');
+  const step: Node[] = flow ? [] : state.map((s) => {
     const path = `$.map.step.${s}`;
     const src = str(stepRaw[s], path);
     if (src.length > limits.maxFormulaLength) reject(path, `formula longer than ${limits.maxFormulaLength} characters`);
@@ -290,7 +302,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   );
   const claims = obj(d.claims, '$.claims');
   for (const k of Object.keys(claims)) {
-    if (!['existence', 'uniqueness', 'minimalPeriod', 'stability'].includes(k)) reject(`$.claims.${k}`, `unknown claim "${k}" cannot be verified`);
+    if (!['existence', 'uniqueness', 'minimalPeriod', 'stability', ...(isFlow ? ['flowPeriod'] : [])].includes(k)) reject(`$.claims.${k}`, `unknown claim "${k}" cannot be verified`);
   }
   if (claims.existence !== true) reject('$.claims.existence', 'claims.existence must be true');
   let radius: string | null = null;
@@ -328,6 +340,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
       );
     }
   }
+  const flowPeriod = isFlow && claims.flowPeriod !== undefined && claims.flowPeriod !== null ? ivl(claims.flowPeriod, '$.claims.flowPeriod') : null;
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
     const h = obj(d.hints, '$.hints');
@@ -336,7 +349,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
-  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits };
+  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits, flow, flowPeriod };
 }
 
 /** The boxes as intervals of the working context, their exact ends, and the centres. */
@@ -373,7 +386,7 @@ function planWork(r: ReadCertificate, opts: CheckOptions, limits: CheckLimits): 
   let stepOps = 0;
   for (const node of r.step) stepOps += formulaOps(node, n, r.digits);
   const first: Form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
-  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first });
+  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first }) + (r.flow ? flowWork(r.flow, n, r.digits) : 0);
   const workText = (w: number): string => w.toExponential(1).replace('e+', 'e');
   if (!(work <= limits.maxWork)) {
     reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${r.digits} digits, ${first} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
@@ -559,6 +572,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const params = new Map<string, Iv>();
   for (const [k, [lo, hi]] of r.paramText) params.set(k, c.literal(lo, hi));
   const s: Shooting = { c, ev: new Evaluator(c, params), step: r.step, p, n };
+  if (r.flow) s.flow = flowImage(r.flow, c, params, n, reject);
   const b: Boxes = { M: [], X: [], Xexact: [] };
   for (let i = 0; i < p; i++) {
     for (let a = 0; a < n; a++) {
@@ -586,6 +600,10 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   if (r.stability) {
     verifyStability(s, existence, n, r.stability, kinkOnX);
     verified.push('stability');
+  }
+  if (r.flow && r.flowPeriod) {
+    verifyFlowPeriod(r.flow, c, params, p, r.flowPeriod, reject);
+    verified.push('flow-period');
   }
   return { claims: verified, digits: r.digits };
 }

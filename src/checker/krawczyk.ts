@@ -18,10 +18,13 @@ export interface Shooting {
   step: Node[];
   p: number;
   n: number;
+  /** A map from a flow (flow.ts): the image and Jacobian of the map started at orbit point `point`. */
+  flow?: (x: readonly Iv[], grad: boolean, point: number) => { f: Iv[]; jac: Iv[] | null };
 }
 
 /** f(x) and (optionally) Df over the box x (row-major n×n). */
-export function image(s: Shooting, x: readonly Iv[], grad: boolean): { f: Iv[]; jac: Iv[] | null } {
+export function image(s: Shooting, x: readonly Iv[], grad: boolean, point = 0): { f: Iv[]; jac: Iv[] | null } {
+  if (s.flow) return s.flow(x, grad, point);
   const f: Iv[] = [];
   const jac: Iv[] | null = grad ? [] : null;
   for (const node of s.step) {
@@ -140,7 +143,7 @@ function precondWith<T>(s: Shooting, box: readonly Iv[], F: Field<T>): Precond |
   const a: T[][] = [];
   for (let r = 0; r < N; r++) a.push(new Array<T>(N).fill(F.zero));
   for (let i = 0; i < p; i++) {
-    const { jac } = image(s, box.slice(i * n, i * n + n), true);
+    const { jac } = image(s, box.slice(i * n, i * n + n), true, i);
     for (let r = 0; r < n; r++) {
       const row = a[i * n + r]!;
       for (let q = 0; q < n; q++) row[i * n + q] = F.sub(F.zero, F.of(c.midpoint(jac![r * n + q]!)));
@@ -193,12 +196,12 @@ export function krawczyk(s: Shooting, C: Precond, M: readonly Iv[], X: readonly 
   const N = p * n;
   const Fm: Iv[] = new Array(N);
   for (let i = 0; i < p; i++) {
-    const { f } = image(s, M.slice(i * n, i * n + n), false);
+    const { f } = image(s, M.slice(i * n, i * n + n), false, i);
     const nx = ((i + 1) % p) * n;
     for (let a = 0; a < n; a++) Fm[i * n + a] = c.sub(M[nx + a]!, f[a]!);
   }
   const D: Iv[][] = [];
-  for (let q = 0; q < p; q++) D.push(image(s, X.slice(q * n, q * n + n), true).jac!);
+  for (let q = 0; q < p; q++) D.push(image(s, X.slice(q * n, q * n + n), true, q).jac!);
   const Z = X.map((x, i) => c.sub(x, M[i]!));
   const row: (Decimal | undefined)[] = new Array(N);
   const mark = new Uint8Array(p);

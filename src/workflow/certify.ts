@@ -235,8 +235,8 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
 }
 
-/** Said for every orbit of a flow map: the independent checker cannot re-verify it yet. */
-export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle flows)';
+/** Said for every orbit of a return map of a flow: the independent checker cannot re-verify those yet. */
+export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle return maps of flows)';
 
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
@@ -386,18 +386,21 @@ export async function certifyOrbits(
     }
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
-    const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
+    // a flow map: its flow period (shown in the table); a time-T map also records the integration
+    // plan from each written box (hints for the checker) and the period as a claim it verifies
+    const T = isFlowMap(compiled) ? encloseFlowPeriod(compiled, orbit.boxes) : null;
+    const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
+    const flowPlan = timeMap ? timeMap.plan(orbit.boxes) : null;
+    const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
+    const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
     k++;
     const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
       force: opts.force ?? false,
       dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
-    if (isFlowMap(compiled)) {
-      const T = encloseFlowPeriod(compiled, orbit.boxes);
-      outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
-    }
-    if (checkOn && def.flow !== undefined) {
+    if (T) outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
+    if (checkOn && def.flow?.section !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
     } else if (checkOn) {
       const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
