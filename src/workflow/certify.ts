@@ -6,9 +6,9 @@
 import { basename, join } from 'node:path';
 import { Decimal } from 'decimal.js';
 import { buildCertificate } from '../certificate/build.js';
-import { renameSync, unlinkSync } from 'node:fs';
+import { readFileSync, renameSync, unlinkSync } from 'node:fs';
 import { OrbitIdentifier } from '../prove/identify.js';
-import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertificate, writeFileAtomic } from '../certificate/write.js';
+import { DirectorySync, certificateFileName, checkDirectoryUsable, serializeCertificate, writeFileAtomic } from '../certificate/write.js';
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
@@ -57,8 +57,10 @@ export interface CertifyOptions {
   progress?: (attempt: number, total: number) => void;
   /**
    * Worker threads (default: the number of cores). With more than one, the candidates are proven
-   * in parallel (src/workflow/prove-task.ts); identification, writing and checking then run in
-   * candidate order on this thread, so files and report are those of a one-worker run.
+   * and their certificates' bytes re-verified by the checker in parallel
+   * (src/workflow/prove-task.ts); identification and writing then run in candidate order on this
+   * thread (each written file compared byte for byte with what the checker read), so files and
+   * report are those of a one-worker run.
    */
   workers?: number;
   /** Called after each seed of the float search (`done` of `total`); for a progress display. */
@@ -248,6 +250,15 @@ function overrideTexts(o: Record<string, ParamValue> | undefined): Record<string
   return out;
 }
 
+/** Does the file at `path` hold exactly `text` (UTF-8)? False when it cannot be read. */
+function fileHolds(path: string, text: string): boolean {
+  try {
+    return readFileSync(path, 'utf8') === text;
+  } catch {
+    return false;
+  }
+}
+
 /**
  * Rename a certificate the checker rejected to `<name>.rejected.json` (atomic rename, replacing an
  * older set-aside file of that name); if the rename fails, remove it. Returns the new path, or
@@ -353,6 +364,8 @@ export async function certifyOrbits(
   // all cores: the proofs (the parallel part) first, in the pool; progress counts across workers
   const workers = Math.min(opts.workers ?? defaultWorkerCount(), chosen.length);
   let proved: ProveTaskResult[] | null = null;
+  // the checker runs in the pool too, on the bytes that will be written (flows: no checker yet)
+  const checkInPool = checkOn && def.flow === undefined;
   if (workers > 1 && workersAvailable()) {
     const tasks: ProveTask[] = chosen.map((c) => ({
       map: compiled.definition,
@@ -360,6 +373,7 @@ export async function certifyOrbits(
       ...(opts.overrides ? { overrides: opts.overrides } : {}),
       points: startPoints ?? c.points,
       ...(opts.maxBits ? { maxBits: opts.maxBits } : {}),
+      ...(checkInPool ? { check: opts.digits ? { digits: opts.digits } : {} } : {}),
     }));
     proved = await runPool<ProveTask, ProveTaskResult>(PROVE_TASK, tasks, { workers, ...(opts.progress ? { progress: opts.progress } : {}) });
   }
@@ -392,9 +406,12 @@ export async function certifyOrbits(
     const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
     const flowPlan = timeMap ? timeMap.plan(orbit.boxes) : null;
     const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
-    const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
+    // the pool's bytes are used for formula maps only (a flow certificate carries the plan and
+    // period recorded here, which the pool's worker does not build)
+    const pooled = proved !== null && !isFlowMap(compiled) ? proved[attemptNo - 1]! : undefined;
+    const text = pooled?.certificateText ?? serializeCertificate(buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) }));
     k++;
-    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
+    const path = writeFileAtomic(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), text, {
       force: opts.force ?? false,
       dirSync,
     });
@@ -403,7 +420,11 @@ export async function certifyOrbits(
     if (checkOn && def.flow?.section !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
     } else if (checkOn) {
-      const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
+      // the pool's report stands for the file only when the file holds exactly the bytes it checked
+      // (an identical older file may have been kept); otherwise the file itself is checked here
+      const report = pooled?.check !== undefined && fileHolds(path, text)
+        ? { ...pooled.check, file: path }
+        : checkPaths([path], opts.digits ? { digits: opts.digits } : {})[0];
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;
       if (report.verdict === 'VERIFIED') outcome.status = 'verified';
