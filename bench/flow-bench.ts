@@ -116,8 +116,8 @@ export async function runFlowBench(): Promise<string[]> {
   }
   const t0 = performance.now();
   const verdict = proveOrbit(compileFlowMap(DRIVEN), [[-1.2690822144565, 0.62166636012507]], { maxBits: 53 });
-  lines.push(`driven oscillator time-2π/ω fixed point: ${verdict.status} in ${(performance.now() - t0).toFixed(0)} ms (not re-verified: the checker does not handle flows yet)`);
-  // catalogue flows (fast engine only: the checker does not handle flows yet)
+  lines.push(`driven oscillator time-2π/ω fixed point: ${verdict.status} in ${(performance.now() - t0).toFixed(0)} ms (prover only; prove vs check in bench/flow-check-bench.ts)`);
+  // catalogue flows (fast engine only: the checker does not re-verify return maps yet)
   const lorenz = compileFlowMap(getCatalogueMap('lorenz')!);
   const start = performance.now();
   for (const p of [2, 3, 4]) {

@@ -7,6 +7,7 @@ import { runEvalBench } from './eval-bench.js';
 import { runCountBench } from './count-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runFlowBench } from './flow-bench.js';
+import { runFlowCheckBench } from './flow-check-bench.js';
 import { runIntervalBench } from './interval-bench.js';
 import { runLongBench } from './long-bench.js';
 import { runMathAccuracyBench } from './math-accuracy-bench.js';
@@ -32,6 +33,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
   { title: 'flow integrator', file: 'bench/flow-bench.ts', run: runFlowBench },
+  { title: 'flow certificates: prove vs check', file: 'bench/flow-check-bench.ts', run: runFlowCheckBench },
 ];
 
 async function main(): Promise<void> {

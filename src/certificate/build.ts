@@ -11,6 +11,7 @@ import {
   CERTIFICATE_FORMAT,
   CERTIFICATE_FORMAT_VERSION,
   CERTIFICATE_KIND_PERIODIC_ORBIT,
+  type CertificateFlowPlan,
   type CertificateMap,
   type CertificateParam,
   type CertificateStability,
@@ -52,6 +53,10 @@ export interface BuildCertificateOptions {
   overrides?: Record<string, ParamValue>;
   /** Producer version; defaults to the package version. */
   producerVersion?: string;
+  /** A time-T flow map's integration plan (hints for the checker), from `FlowMap.plan`. */
+  flowPlan?: CertificateFlowPlan | null;
+  /** A time-T flow map's flow period p·duration, from `encloseFlowPeriod` (src/flow/period.ts; a claim). */
+  flowPeriod?: DecimalInterval | null;
 }
 
 /** The parameters in effect: the definition's, with overrides applied. */
@@ -150,8 +155,10 @@ export function buildCertificate(
       uniqueness: orbit.uniquenessRadius === null ? null : { radius: orbit.uniquenessRadius },
       minimalPeriod: orbit.minimalPeriod,
       stability: stabilitySection(orbit.stability),
+      ...(def.flow !== undefined && opts.flowPeriod ? { flowPeriod: copyInterval(opts.flowPeriod) } : {}),
     },
     hints: { bits: orbit.bits, digits: Math.max(20, Math.ceil((orbit.bits * 30103) / 100000) + 5) },
+    ...(def.flow !== undefined && opts.flowPlan ? { plan: opts.flowPlan } : {}),
   };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

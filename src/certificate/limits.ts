@@ -49,3 +49,14 @@ export const MAX_BITS = 100_000;
 
 /** Upper limit of `--workers` (worker threads of src/workflow/pool.ts; more only cost memory). */
 export const MAX_WORKERS = 64;
+
+/**
+ * Largest state dimension n of a det(M ∓ I) fold/flip certificate (n ≥ 2): prover and checker
+ * expand determinants and adjugates by cofactors (n! terms).
+ */
+export const MAX_EDGE_DIMENSION = 4;
+
+/** Highest Taylor order of a flow integration plan (prover options and the checker's reading). */
+export const MAX_FLOW_ORDER = 40;
+/** Most integration steps per orbit point in a flow certificate's plan. */
+export const MAX_FLOW_STEPS = 20_000;

@@ -19,6 +19,8 @@ export type CertificateParam = DecimalString | DecimalInterval;
 export const CERTIFICATE_FORMAT = 'orbitseal-certificate';
 export const CERTIFICATE_FORMAT_VERSION = 1;
 export const CERTIFICATE_KIND_PERIODIC_ORBIT = 'periodic-orbit';
+/** A periodic orbit of the time-T map of an ODE (`map.flow`), with its integration plan. */
+export const CERTIFICATE_KIND_FLOW_ORBIT = 'flow-periodic-orbit';
 
 export type StabilityClass = 'attracting' | 'repelling' | 'saddle' | 'undecided';
 
@@ -31,7 +33,8 @@ export interface CertificateMap {
   step: Record<string, string>;
   /**
    * For a map from a flow (kind "flow-periodic-orbit"): right-hand sides, time variable,
-   * duration or section, as source text. The checker does not re-verify flows yet.
+   * duration or section, as source text. The checker re-verifies time-T maps (src/checker/flow.ts);
+   * return maps to a section are not re-verified yet.
    */
   flow?: {
     rhs: Record<string, string>;
@@ -74,6 +77,8 @@ export interface CertificateClaims {
   /** Equal to `period` when claimed (boxes pairwise disjoint); null when not claimed. */
   minimalPeriod: number | null;
   stability: CertificateStability;
+  /** Kind 'flow-periodic-orbit', time-T map: enclosure of the flow period period·duration. */
+  flowPeriod?: DecimalInterval;
 }
 
 export interface CertificateHints {
@@ -98,8 +103,21 @@ export interface CertificateV1 {
   orbit: CertificateOrbit;
   claims: CertificateClaims;
   hints?: CertificateHints;
+  /** Kind 'flow-periodic-orbit' only: the integration plan, untrusted hints for the checker. */
+  plan?: CertificateFlowPlan;
   /** SHA-256 (hex) of the canonical JSON of this document without the "sha256" key. */
   sha256: string;
+}
+
+/**
+ * How the prover integrated the flow from each orbit point (hints only; src/checker/flow.ts).
+ * Every step but the last has a size `h`; the last one runs to the duration. `apriori` is the
+ * step's a priori box, `frame` the n×n matrix of the wrapping-control representation m + B·r
+ * after the step (the prover's Lohner Q).
+ */
+export interface CertificateFlowPlan {
+  order: number;
+  points: { steps: { h?: DecimalString; apriori: DecimalInterval[]; frame?: DecimalString[][] }[] }[];
 }
 
 /** The document before its hash is attached. */
@@ -202,7 +220,9 @@ export type EdgeKindV1 = 'fold' | 'flip' | 'superstable';
 
 /**
  * Exactly one (x_0..x_{p-1}, θ) in boxes × param with x_{i+1 mod p} = f(x_i, θ) and
- * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable). One-dimensional maps.
+ * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable) for one-dimensional maps;
+ * for n ≥ 2 state variables det(M − I) = 0 (fold) or det(M + I) = 0 (flip) with the monodromy
+ * M = Df(x_{p−1})⋯Df(x_0), and `boxes` / `centre.orbit` hold p·n entries, point by point.
  * `map.params[parameter]` holds the range searched (θ* lies in `param`, inside it).
  */
 export interface EdgeCertificateV1 {
@@ -253,5 +273,75 @@ export interface AbsenceCertificateV1 {
   /** Absent: no orbit of minimal period p. fold / flip: no zero of the period-p system with Λ = +1 / −1. */
   condition?: 'fold' | 'flip';
   pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
+  sha256: string;
+}
+
+/** One node of an n ≥ 2 absence cover, in pre-order (src/windows/absence-n.ts). */
+export type AbsenceNodeV1 =
+  | { kind: 'split'; axis: number; at: DecimalString }
+  | { kind: 'empty' }
+  | { kind: 'multiplier' }
+  | {
+      kind: 'lower';
+      divisor: number;
+      /** p·n (and d·n) entries, point by point. */
+      boxes: DecimalInterval[];
+      centre: DecimalString[];
+      lowerBoxes: DecimalInterval[];
+      lowerCentre: DecimalString[];
+    };
+
+/**
+ * `periodic-absence` for maps with n ≥ 2 state variables: `region` is a box (n intervals, in
+ * state order) and each piece's `cover` a bisection tree of it in pre-order (a `split` node
+ * halves the current box along `axis` at `at`, lower half first; other nodes are leaves).
+ * `condition` fold / flip: no zero of the period-p system with det(M − I) = 0 / det(M + I) = 0.
+ */
+export interface AbsenceCertificateNV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-absence';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval[];
+  condition?: 'fold' | 'flip';
+  pieces: { param: DecimalInterval; cover: AbsenceNodeV1[] }[];
+  sha256: string;
+}
+
+export const CERTIFICATE_KIND_SUPERSTABLE_COUNT = 'superstable-count';
+
+/** The orbit of c through the period-q system's boxes x_1..x_{q−1} and θ-box, with the Krawczyk centre. */
+export interface CriticalOrbitV1 {
+  param: DecimalInterval;
+  boxes: DecimalInterval[];
+  centre: { orbit: DecimalString[]; param: DecimalString };
+}
+
+export type SuperstableLeafV1 =
+  | { kind: 'none'; param: DecimalInterval }
+  | (CriticalOrbitV1 & { kind: 'unique'; minimalPeriod: number | null; lower?: CriticalOrbitV1 & { divisor: number } });
+
+/**
+ * Exactly `count` parameters θ in `range` (= map.params[parameter]) whose orbit of the critical
+ * point `critical` (f_x(c, θ) = 0 for every θ in the range) is periodic of minimal period `period`
+ * with all points in `region` (one-dimensional maps). Leaves tile `range` (src/checker/superstable-count.ts).
+ */
+export interface SuperstableCountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'superstable-count';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  critical: DecimalString;
+  count: number;
+  leaves: SuperstableLeafV1[];
   sha256: string;
 }

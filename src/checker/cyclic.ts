@@ -64,7 +64,7 @@ export function prepareCyclic(s: Shooting, M: readonly Iv[]): BoxTest1 {
   const at: Decimal[] = new Array(p);
   let sumLog = 0;
   for (let i = 0; i < p; i++) {
-    const { f, jac } = image(s, [M[i]!], true);
+    const { f, jac } = image(s, [M[i]!], true, i);
     Fm[i] = c.sub(M[(i + 1) % p]!, f[0]!);
     const a = new Approx(c.midpoint(jac![0]!));
     at[i] = a;
@@ -122,7 +122,7 @@ export function prepareCyclic(s: Shooting, M: readonly Iv[]): BoxTest1 {
     const D: Iv[][] = new Array(p);
     const g: Decimal[] = new Array(p);
     for (let i = 0; i < p; i++) {
-      D[i] = image(s, [X[i]!], true).jac!;
+      D[i] = image(s, [X[i]!], true, i).jac!;
       g[i] = c.mag(c.add(e0[i]!, c.mul(c.sub(D[i]![0]!, atIv[i]!), c.sub(X[i]!, M[i]!))));
     }
     const u: Decimal[] = new Array(p);

@@ -10,7 +10,12 @@
  *     digit of a decimal string (only strings and Decimals are passed to constructors; small
  *     integer JS numbers, which decimal.js converts exactly, appear as operands such as k in k!).
  *     decimal.js exp/ln/pow/trig are never used for enclosures.
- *  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
+ *  1b. Exact BigInt integer arithmetic (+ − ×, `/` truncating toward 0, `>>` flooring) for the
+     binary fixed-point paths of the structured bounds and of n ≤ 2 stability (fixed.ts,
+     formula-fixed.ts, cyclic-fixed.ts, cyclic2-fixed.ts, stability-fixed.ts; issue 8 item 1).
+     Each path only ever says "shown"; when it cannot show a claim the decimal path above decides
+     and words the reason (tests/checker/fixed-differential.test.ts compares both).
+  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
  *     our own strict reader, json.ts), and node:crypto SHA-256.
  *  3. The mathematics, stated where it is used: Krawczyk's theorem (K(X) ⊂ int X ⇒ exactly one
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
@@ -18,7 +23,10 @@
  *     minimal period p (weaker than, and implied by, pairwise disjointness),
  *     eigenvalues of a 2×2 matrix from trace and determinant; for long orbits of dimension 1 and
  *     2 the structured Krawczyk bounds with C = B^{-1} for a cyclic block matrix B (cyclic.ts,
- *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices).
+ *     cyclic2.ts, every bound argued in their headers; Collatz–Wielandt for nonnegative matrices);
+ *     for time-T maps of ODEs (flow.ts, flow-series.ts): the Picard–Lindelöf a priori inclusion,
+ *     Taylor's theorem with the Lagrange remainder, the mean value theorem, Gronwall's inequality
+ *     and the Neumann series, each stated in flow.ts's header.
  *  4. This code (~1,850 lines, ~1,550 without comments: interval.ts, elementary.ts, formula.ts,
  *     json.ts, krawczyk.ts, index.ts).
  * Not trusted: anything in the certificate (every claim is recomputed), the preconditioner C (any
@@ -52,22 +60,27 @@ import {
   MAX_UNKNOWNS,
   STRUCTURED_FROM_UNKNOWNS,
 } from '../certificate/limits.js';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_FLOW_ORBIT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type FixedJacobians, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
-import { prepareCyclic } from './cyclic.js';
-import { prepareCyclic2, type BoxTest } from './cyclic2.js';
+import { prepareCyclicFast, prepareCyclicFixed } from './cyclic-fixed.js';
+import { type BoxTest } from './cyclic2.js';
+import { prepareCyclic2Fast } from './cyclic2-fixed.js';
+import { stability1Fixed, stability2Fixed } from './stability-fixed.js';
+import { fixedPaths } from './fixed.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
+import { checkSuperstableCount } from './superstable-count.js';
 import { checkCount, CountRejection } from './count.js';
+import { flowImage, flowWork, readFlow, verifyFlowPeriod, type FlowRead } from './flow.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
-export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count';
+export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count' | 'flow-period';
 
 export interface CheckReport {
   verdict: Verdict;
@@ -193,6 +206,10 @@ interface ReadCertificate {
   stability: StabilityClaim | null;
   /** Working precision (digits) from the options and the hints. */
   digits: number;
+  /** Kind "flow-periodic-orbit": the time-T map of an ODE and its integration plan (flow.ts). */
+  flow: FlowRead | null;
+  /** Claimed enclosure of the flow period p·duration (flow certificates), or null. */
+  flowPeriod: [string, string] | null;
 }
 
 /** The stability claim as text: the class and the enclosures the certificate states. */
@@ -227,17 +244,18 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   const d = obj(doc, '$');
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
+  const isFlow = d.kind === CERTIFICATE_KIND_FLOW_ORBIT;
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT && !isFlow) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "${CERTIFICATE_KIND_FLOW_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence", "superstable-count" or "${CERTIFICATE_KIND_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
-  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256'], '$');
+  onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256', ...(isFlow ? ['plan'] : [])], '$');
   const sha = str(d.sha256, '$.sha256');
   // the hash first: the document must be exactly what was proven
   const expected = certificateHash(d);
   if (expected !== sha) reject('$.sha256', `sha256 does not match the document (computed ${expected})`);
   const p = int(d.period, '$.period', 1, limits.maxPeriod);
   const map = obj(d.map, '$.map');
-  onlyKeys(map, ['params', 'state', 'step', 'title'], '$.map');
+  onlyKeys(map, ['params', 'state', 'step', 'title', ...(isFlow ? ['flow'] : [])], '$.map');
   if (d.producer !== undefined) onlyKeys(obj(d.producer, '$.producer'), ['name', 'version'], '$.producer');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
   const n = state.length;
@@ -259,9 +277,12 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     if (typeof v !== 'string' && !Array.isArray(v)) reject(path, `expected a decimal string or a [lo, hi] pair of decimal strings at ${path}`);
     paramText.set(k, typeof v === 'string' ? [dec(v, path), dec(v, path)] : ivl(v, path));
   }
+  const flow = isFlow
+    ? readFlow(d, map, state, new Set(paramText.keys()), p, { reject, obj, arr, str, int, dec, ivl, onlyKeys, maxFormulaLength: limits.maxFormulaLength })
+    : null;
   const stepRaw = obj(map.step, '$.map.step');
-  if (Object.keys(stepRaw).length !== n) reject('$.map.step', 'map.step must have exactly one formula per state variable');
-  const step: Node[] = state.map((s) => {
+  if (!flow && Object.keys(stepRaw).length !== n) reject('$.map.step', 'map.step must have exactly one formula per state variable');
+  const step: Node[] = flow ? [] : state.map((s) => {
     const path = `$.map.step.${s}`;
     const src = str(stepRaw[s], path);
     if (src.length > limits.maxFormulaLength) reject(path, `formula longer than ${limits.maxFormulaLength} characters`);
@@ -282,7 +303,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   );
   const claims = obj(d.claims, '$.claims');
   for (const k of Object.keys(claims)) {
-    if (!['existence', 'uniqueness', 'minimalPeriod', 'stability'].includes(k)) reject(`$.claims.${k}`, `unknown claim "${k}" cannot be verified`);
+    if (!['existence', 'uniqueness', 'minimalPeriod', 'stability', ...(isFlow ? ['flowPeriod'] : [])].includes(k)) reject(`$.claims.${k}`, `unknown claim "${k}" cannot be verified`);
   }
   if (claims.existence !== true) reject('$.claims.existence', 'claims.existence must be true');
   let radius: string | null = null;
@@ -320,6 +341,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
       );
     }
   }
+  const flowPeriod = isFlow && claims.flowPeriod !== undefined && claims.flowPeriod !== null ? ivl(claims.flowPeriod, '$.claims.flowPeriod') : null;
   let digits = opts.digits ?? DEFAULT_DIGITS;
   if (d.hints !== undefined && d.hints !== null) {
     const h = obj(d.hints, '$.hints');
@@ -328,7 +350,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
     if (h.bits !== undefined) digits = Math.max(digits, Math.ceil(int(h.bits, '$.hints.bits', 1, limits.maxDigits * 4) * 0.30103) + 5);
   }
   if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$.hints', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
-  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits };
+  return { p, n, step, paramText, centreTxt, boxTxt, radius, minimal, stability, digits, flow, flowPeriod };
 }
 
 /** The boxes as intervals of the working context, their exact ends, and the centres. */
@@ -365,7 +387,7 @@ function planWork(r: ReadCertificate, opts: CheckOptions, limits: CheckLimits): 
   let stepOps = 0;
   for (const node of r.step) stepOps += formulaOps(node, n, r.digits);
   const first: Form = cyclicFirst ? 'cyclic' : decimalC ? 'dense-decimal' : 'dense-float';
-  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first });
+  const work = estimateWork({ period: p, dim: n, digits: r.digits, stepOps, form: first }) + (r.flow ? flowWork(r.flow, n, r.digits) : 0);
   const workText = (w: number): string => w.toExponential(1).replace('e+', 'e');
   if (!(work <= limits.maxWork)) {
     reject('$', `estimated work ${workText(work)} units (period ${p} × dimension ${n}, formula size ${stepOps} operations per evaluation, ${r.digits} digits, ${first} Krawczyk) exceeds the budget of ${workText(limits.maxWork)}; raise it with --max-work if the certificate comes from a trusted source`);
@@ -391,7 +413,7 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
   };
   const cyclic: KrawczykTest = (Y, inner, label) => {
-    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2(s, b.M);
+    prepared ??= n === 1 ? prepareCyclicFast(s, b.M) : prepareCyclic2Fast(s, b.M);
     return prepared(Y, inner, label);
   };
   const forms: KrawczykTest[] = [];
@@ -404,7 +426,14 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
     if (n <= 2) forms.push(cyclic);
   }
+  // dense first (dimension 1, short periods): the fixed-point structured bound is tried before
+  // any form and only ever says "shown"; otherwise the forms run as before, reasons unchanged
+  let fixedFirst: ((Y: readonly Iv[], inner: readonly Iv[]) => KrawczykOutcome | null) | undefined;
   return (Y, inner, label) => {
+    if (!cyclicFirst && n === 1 && fixedPaths.enabled) {
+      const out = (fixedFirst ??= prepareCyclicFixed(s, b.M))(Y, inner);
+      if (out) return out;
+    }
     let firstOut: KrawczykOutcome | null = null;
     for (const f of forms) {
       const out = f(Y, inner, label);
@@ -416,10 +445,10 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
 }
 
 /** Existence: Krawczyk on the boxes. Returns D = J(X). */
-function verifyExistence(test: KrawczykTest, b: Boxes): { D: Iv[][] } {
+function verifyExistence(test: KrawczykTest, b: Boxes): Extract<KrawczykOutcome, { ok: true }> {
   const kx = test(b.X, b.Xexact, 'existence');
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  return { D: (kx as { jacobians: Iv[][] }).jacobians };
+  return kx as Extract<KrawczykOutcome, { ok: true }>; // its decimal Jacobians may be made on first read
 }
 
 /** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
@@ -465,9 +494,23 @@ function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
 }
 
 /** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
-function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+function verifyStability(s: Shooting, ex: { jacobians: Iv[][]; fixedJacobians?: FixedJacobians }, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+  // n = 1, 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
+  // those do not verify the claim, so a verdict or a reason never rests on the faster path
+  const fast = !fixedPaths.enabled ? null : n === 2 ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : n === 1 && ex.fixedJacobians ? stability1Fixed(s.c, ex.fixedJacobians) : null;
+  if (fast) {
+    try {
+      return verifyStabilityWith(fast, n, claim, kinkOnX);
+    } catch (e) {
+      if (!(e instanceof Refusal)) throw e;
+    }
+  }
   // n >= 3: Gershgorin discs in the certificate's (untrusted) eigenbasis, src/checker/stability-n.ts
-  const st: Stability = n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n);
+  const D = ex.jacobians;
+  verifyStabilityWith(n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n), n, claim, kinkOnX);
+}
+
+function verifyStabilityWith(st: Stability, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
   const claimed = claim.cls;
   // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
   if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
@@ -497,17 +540,18 @@ function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClai
 function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } | null {
   const d = doc as Record<string, unknown>;
   if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
-  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
+  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence' && d.kind !== 'superstable-count') return null;
   const digits = opts.digits ?? DEFAULT_DIGITS;
   // as for orbits: no key the checker does not read (a person could read it as a claim)
   const common = ['format', 'formatVersion', 'kind', 'producer', 'map', 'period', 'parameter', 'sha256'];
-  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : ['range', 'region', 'condition', 'pieces'];
+  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : d.kind === 'superstable-count' ? ['range', 'region', 'critical', 'count', 'leaves'] : ['range', 'region', 'condition', 'pieces'];
   onlyKeys(d, [...common, ...own], '$');
   onlyKeys(obj(d.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
   if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
   else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
+  else if (d.kind === 'superstable-count') checkSuperstableCount(d, digits, limits, reject);
   else checkAbsence(d, digits, limits, reject);
-  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : ['absence'], digits };
+  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : d.kind === 'superstable-count' ? ['count'] : ['absence'], digits };
 }
 
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
@@ -530,6 +574,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
   const params = new Map<string, Iv>();
   for (const [k, [lo, hi]] of r.paramText) params.set(k, c.literal(lo, hi));
   const s: Shooting = { c, ev: new Evaluator(c, params), step: r.step, p, n };
+  if (r.flow) s.flow = flowImage(r.flow, c, params, n, reject);
   const b: Boxes = { M: [], X: [], Xexact: [] };
   for (let i = 0; i < p; i++) {
     for (let a = 0; a < n; a++) {
@@ -543,7 +588,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     }
   }
   const test = krawczykForms(r, s, b, plan, limits);
-  const { D } = verifyExistence(test, b);
+  const existence = verifyExistence(test, b);
   const verified: ClaimName[] = ['existence'];
   const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
   if (r.radius !== null) {
@@ -555,8 +600,12 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     verified.push('minimal-period');
   }
   if (r.stability) {
-    verifyStability(s, D, n, r.stability, kinkOnX);
+    verifyStability(s, existence, n, r.stability, kinkOnX);
     verified.push('stability');
+  }
+  if (r.flow && r.flowPeriod) {
+    verifyFlowPeriod(r.flow, c, params, p, r.flowPeriod, reject);
+    verified.push('flow-period');
   }
   return { claims: verified, digits: r.digits };
 }

@@ -10,6 +10,7 @@
 import type { Decimal } from 'decimal.js';
 import { DomainViolation, fmt, isInterior, IvCtx, type Iv } from './interval.js';
 import type { Evaluator, Node } from './formula.js';
+import type { FixCtx, Fx } from './fixed.js';
 
 export interface Shooting {
   c: IvCtx;
@@ -17,10 +18,13 @@ export interface Shooting {
   step: Node[];
   p: number;
   n: number;
+  /** A map from a flow (flow.ts): the image and Jacobian of the map started at orbit point `point`. */
+  flow?: (x: readonly Iv[], grad: boolean, point: number) => { f: Iv[]; jac: Iv[] | null };
 }
 
 /** f(x) and (optionally) Df over the box x (row-major n×n). */
-export function image(s: Shooting, x: readonly Iv[], grad: boolean): { f: Iv[]; jac: Iv[] | null } {
+export function image(s: Shooting, x: readonly Iv[], grad: boolean, point = 0): { f: Iv[]; jac: Iv[] | null } {
+  if (s.flow) return s.flow(x, grad, point);
   const f: Iv[] = [];
   const jac: Iv[] | null = grad ? [] : null;
   for (const node of s.step) {
@@ -139,7 +143,7 @@ function precondWith<T>(s: Shooting, box: readonly Iv[], F: Field<T>): Precond |
   const a: T[][] = [];
   for (let r = 0; r < N; r++) a.push(new Array<T>(N).fill(F.zero));
   for (let i = 0; i < p; i++) {
-    const { jac } = image(s, box.slice(i * n, i * n + n), true);
+    const { jac } = image(s, box.slice(i * n, i * n + n), true, i);
     for (let r = 0; r < n; r++) {
       const row = a[i * n + r]!;
       for (let q = 0; q < n; q++) row[i * n + q] = F.sub(F.zero, F.of(c.midpoint(jac![r * n + q]!)));
@@ -172,8 +176,14 @@ function precondWith<T>(s: Shooting, box: readonly Iv[], F: Field<T>): Precond |
   return { cols, vals };
 }
 
+/** Jacobians over X in fixed point (fixed.ts), when a fixed-point path showed the inclusion. */
+export interface FixedJacobians {
+  k: FixCtx;
+  D: Fx[][];
+}
+
 export type KrawczykOutcome =
-  | { ok: true; jacobians: Iv[][] }
+  | { ok: true; jacobians: Iv[][]; fixedJacobians?: FixedJacobians }
   | { ok: false; reason: string };
 
 /**
@@ -186,12 +196,12 @@ export function krawczyk(s: Shooting, C: Precond, M: readonly Iv[], X: readonly 
   const N = p * n;
   const Fm: Iv[] = new Array(N);
   for (let i = 0; i < p; i++) {
-    const { f } = image(s, M.slice(i * n, i * n + n), false);
+    const { f } = image(s, M.slice(i * n, i * n + n), false, i);
     const nx = ((i + 1) % p) * n;
     for (let a = 0; a < n; a++) Fm[i * n + a] = c.sub(M[nx + a]!, f[a]!);
   }
   const D: Iv[][] = [];
-  for (let q = 0; q < p; q++) D.push(image(s, X.slice(q * n, q * n + n), true).jac!);
+  for (let q = 0; q < p; q++) D.push(image(s, X.slice(q * n, q * n + n), true, q).jac!);
   const Z = X.map((x, i) => c.sub(x, M[i]!));
   const row: (Decimal | undefined)[] = new Array(N);
   const mark = new Uint8Array(p);
@@ -254,7 +264,8 @@ export interface Stability {
   moduli?: Iv[];
 }
 
-function classify(moduli: Iv[]): Stability['cls'] {
+/** The class from enclosures of the eigenvalue moduli. */
+export function classify(moduli: Iv[]): Stability['cls'] {
   if (moduli.every((m) => m.hi.lt(1))) return 'attracting';
   if (moduli.every((m) => m.lo.gt(1))) return 'repelling';
   if (moduli.some((m) => m.hi.lt(1)) && moduli.some((m) => m.lo.gt(1))) return 'saddle';
@@ -308,7 +319,11 @@ export function stability(c: IvCtx, D: Iv[][], n: number): Stability {
   const detFrames = c.sub(c.mul(Mf[0]!, Mf[3]!), c.mul(Mf[1]!, Mf[2]!));
   const T = direct ? meet(c.add(M[0]!, M[3]!), c.add(Mf[0]!, Mf[3]!)) : c.add(Mf[0]!, Mf[3]!);
   const detDirect = direct ? meet(c.sub(c.mul(M[0]!, M[3]!), c.mul(M[1]!, M[2]!)), detFrames) : detFrames;
-  const det = meet(detDirect, detProd);
+  return fromTraceDet(c, T, meet(detDirect, detProd));
+}
+
+/** n = 2: the class and the moduli from enclosures T ∋ trace and det ∋ determinant of the monodromy. */
+export function fromTraceDet(c: IvCtx, T: Iv, det: Iv): Stability {
   if (det.lo.gt(det.hi) || T.lo.gt(T.hi)) throw new DomainViolation('internal: monodromy enclosures disjoint');
   const disc = c.sub(c.sqr(T), c.scale(new c.Down('4'), det));
   const out: Stability = { cls: 'undecided', trace: T, determinant: det };

@@ -140,12 +140,13 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
 
   program
     .command('edges')
-    .description('enclose fold (multiplier +1), flip (−1) and superstable parameters of period-P orbits in a range (one-dimensional maps)')
+    .description('enclose fold (multiplier +1 / det(M − I) = 0), flip (−1 / det(M + I) = 0) and superstable parameters of period-P orbits in a range')
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'period of the orbits')
     .option('--param <name=value>', RANGE_HELP, collect)
     .option('--kind <list>', 'fold, flip, superstable (comma-separated; default fold,flip)')
     .option('--samples <N>', 'parameter samples for the float seeds (default 12)')
+    .option('--critical <c>', 'with --kind superstable: count them exactly (orbit of the critical point c, the rest of the range excluded)')
     .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
     .option('--force', 'replace existing certificate files')
     .option('--no-check', 'do not run the independent checker')

@@ -9,6 +9,8 @@
  * than running a decimal integrator it does not have.
  */
 import type { Arithmetic, IntervalArithmetic } from '../interval/arithmetic.js';
+import { intervalArithmetic } from '../interval/interval-arith.js';
+import type { Interval } from '../interval/interval.js';
 import { createFloatArithmetic } from '../interval/float-arith.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
 import { buildTape } from '../expr/tape.js';
@@ -31,6 +33,18 @@ export interface FlowMap extends CompiledMap {
    * time-T map; the sum over the points evaluated since `resetFlowTime` for a return map).
    */
   flowTimes(): readonly unknown[];
+  /**
+   * The integration plan from each box (decimal [lo, hi] per coordinate) of a time-T map, as the
+   * certificate records it for the checker (hints: steps, a priori boxes, Lohner frames); null for
+   * a return map or when an integration refuses.
+   */
+  plan(boxes: readonly (readonly (readonly [string, string])[])[]): FlowPlanData | null;
+}
+
+/** Structurally the certificate's `plan` (src/certificate/types.ts CertificateFlowPlan). */
+export interface FlowPlanData {
+  order: number;
+  points: { steps: { h?: string; apriori: [string, string][]; frame?: string[][] }[] }[];
 }
 
 /** The right compiler for any definition: formula maps to `compileMap`, flows to `compileFlowMap`. */
@@ -83,6 +97,28 @@ export function compileFlowMap(def: MapDefinition, overrides?: ParamOverrides, o
     enclosures,
     options,
     lastRefusal: () => refusal,
+    plan(boxes) {
+      if (section) return null;
+      const A = intervalArithmetic();
+      const vf = new ValidatedFlow<Interval>(program, A, enclosures, options);
+      const duration = durationOf(A);
+      if (!A.status.continuous) return null;
+      const points: FlowPlanData['points'] = [];
+      for (const box of boxes) {
+        const steps: FlowPlanData['points'][number]['steps'] = [];
+        vf.onStep = (h, Y, Q) => {
+          const frame: string[][] = [];
+          for (let i = 0; i < n; i++) frame.push(Array.from(Q.subarray(i * n, i * n + n), (q) => String(q)));
+          steps.push({ h: String(A.loDown(h)), apriori: Y.map((y) => [String(A.loDown(y)), String(A.hiUp(y))]), frame });
+        };
+        const r = vf.integrate(box.map(([lo, hi]) => A.constant(lo, hi)), A.fromNumber(0), duration, true);
+        vf.onStep = undefined;
+        if (!r.ok || steps.length === 0) return null;
+        delete steps[steps.length - 1]!.h; // the last step runs to the duration
+        points.push({ steps });
+      }
+      return { order: options.order, points };
+    },
     flowTimes: () => times,
     evalFloat(x, out) {
       floatFlow(x, out, null);

@@ -82,6 +82,11 @@ export class ValidatedFlow<T> {
   stepsTaken = 0;
   /** A priori enclosure of the last step taken (every solution on it), for section tests. */
   lastApriori: T[] = [];
+  /**
+   * Called after every accepted step with its size, its a priori box and the new Lohner frame Q
+   * (row-major): the integration plan a certificate records as hints for the checker.
+   */
+  onStep: ((h: T, apriori: readonly T[], frame: Float64Array) => void) | undefined = undefined;
 
   constructor(readonly prog: SeriesProgram, readonly A: IntervalArithmetic<T>, params: readonly ParamEnclosure[], opts: IntegratorOptions = {}) {
     this.n = prog.dim;
@@ -424,6 +429,7 @@ export class ValidatedFlow<T> {
     this.t = A.add(this.t, h);
     this.lastStep = A.midNumber(h);
     this.stepsTaken++;
+    this.onStep?.(h, Y, this.Q);
     return true;
   }
 

@@ -21,7 +21,7 @@ import {
   type ResumedCertificate,
   type RunManifest,
 } from './resume.js';
-import { renameSync, unlinkSync } from 'node:fs';
+import { readFileSync, renameSync, unlinkSync } from 'node:fs';
 import { OrbitIdentifier } from '../prove/identify.js';
 import { DirectorySync, certificateFileName, checkDirectoryUsable, serializeCertificate, writeFileAtomic } from '../certificate/write.js';
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
@@ -72,8 +72,10 @@ export interface CertifyOptions {
   progress?: (attempt: number, total: number) => void;
   /**
    * Worker threads (default: the number of cores). With more than one, the candidates are proven
-   * in parallel (src/workflow/prove-task.ts); identification, writing and checking then run in
-   * candidate order on this thread, so files and report are those of a one-worker run.
+   * and their certificates' bytes re-verified by the checker in parallel
+   * (src/workflow/prove-task.ts); identification and writing then run in candidate order on this
+   * thread (each written file compared byte for byte with what the checker read), so files and
+   * report are those of a one-worker run.
    */
   workers?: number;
   /** Called after each seed of the float search (`done` of `total`); for a progress display. */
@@ -251,8 +253,8 @@ function intervalParamNames(def: MapDefinition, overrides: Record<string, ParamV
   return Object.keys(all).filter((name) => all[name]!.kind === 'interval');
 }
 
-/** Said for every orbit of a flow map: the independent checker cannot re-verify it yet. */
-export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle flows)';
+/** Said for every orbit of a return map of a flow: the independent checker cannot re-verify those yet. */
+export const FLOW_NOT_REVERIFIED = 'proven by the fast engine, not re-verified (the checker does not yet handle return maps of flows)';
 
 /** Run manifests with up to this many finished entries are rewritten after every orbit. */
 const MANIFEST_EVERY_ORBIT_UP_TO = 500;
@@ -265,6 +267,15 @@ function overrideTexts(o: Record<string, ParamValue> | undefined): Record<string
   const out: Record<string, string | [string, string]> = {};
   for (const [k, v] of Object.entries(o ?? {})) out[k] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
   return out;
+}
+
+/** Does the file at `path` hold exactly `text` (UTF-8)? False when it cannot be read. */
+function fileHolds(path: string, text: string): boolean {
+  try {
+    return readFileSync(path, 'utf8') === text;
+  } catch {
+    return false;
+  }
 }
 
 /**
@@ -366,7 +377,7 @@ export async function certifyOrbits(
     const entry = previous?.get(i + 1);
     if (entry === undefined || entry.candidate !== candidateHashes[i]) return null;
     if (entry.status === 'not-proven') return { entry, cert: null };
-    const wantStatus = checkOn && def.flow === undefined ? 'verified' : 'prover-only';
+    const wantStatus = checkOn && def.flow?.section === undefined ? 'verified' : 'prover-only';
     if (entry.status !== wantStatus) return null;
     if (wantStatus === 'verified' && !opts.recheck && entry.check?.verdict !== 'VERIFIED') return null;
     const cert = rereadCertificate(entry, opts.outDir, certMap, opts.period);
@@ -420,15 +431,18 @@ export async function certifyOrbits(
   const toProve = chosen.flatMap((_, i) => (carried[i] === null ? [i] : []));
   const workers = Math.min(opts.workers ?? defaultWorkerCount(), toProve.length);
   const proved = new Map<number, ProveTaskResult>();
-  let pooled = false;
+  let inPool = false;
+  // the checker runs in the pool too, on the bytes that will be written (flows: no checker yet)
+  const checkInPool = checkOn && def.flow === undefined;
   if (workers > 1 && workersAvailable()) {
-    pooled = true;
+    inPool = true;
     const tasks: ProveTask[] = toProve.map((i) => ({
       map: compiled.definition,
       def,
       ...(opts.overrides ? { overrides: opts.overrides } : {}),
       points: startPoints ?? chosen[i]!.points,
       ...(opts.maxBits ? { maxBits: opts.maxBits } : {}),
+      ...(checkInPool ? { check: opts.digits ? { digits: opts.digits } : {} } : {}),
     }));
     const results = await runPool<ProveTask, ProveTaskResult>(PROVE_TASK, tasks, { workers, ...(opts.progress ? { progress: opts.progress } : {}) });
     toProve.forEach((i, j) => proved.set(i, results[j]!));
@@ -488,9 +502,9 @@ export async function certifyOrbits(
       continue;
     }
     provedSoFar++;
-    if (!pooled) opts.progress?.(provedSoFar, toProve.length);
+    if (!inPool) opts.progress?.(provedSoFar, toProve.length);
     const points = startPoints ?? candidate.points;
-    const verdict = pooled ? proved.get(attemptNo - 1)!.verdict : proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
+    const verdict = inPool ? proved.get(attemptNo - 1)!.verdict : proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
       const outcome: OrbitOutcome = { index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` };
@@ -510,22 +524,31 @@ export async function certifyOrbits(
     }
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
     if (sameness !== '') identityUndecided = true;
-    const cert = buildCertificate(orbit, def, opts.overrides ? { overrides: opts.overrides } : {});
+    // a flow map: its flow period (shown in the table); a time-T map also records the integration
+    // plan from each written box (hints for the checker) and the period as a claim it verifies
+    const T = isFlowMap(compiled) ? encloseFlowPeriod(compiled, orbit.boxes) : null;
+    const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
+    const flowPlan = timeMap ? timeMap.plan(orbit.boxes) : null;
+    const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
+    // the pool's bytes are used for formula maps only (a flow certificate carries the plan and
+    // period recorded here, which the pool's worker does not build)
+    const pooled = inPool && !isFlowMap(compiled) ? proved.get(attemptNo - 1)! : undefined;
+    const text = pooled?.certificateText ?? serializeCertificate(buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) }));
     k++;
-    const bytes = serializeCertificate(cert);
-    const path = writeFileAtomic(join(opts.outDir, certificateFileName(def.title, opts.period, k, paramTexts)), bytes, {
+    const path = writeFileAtomic(join(opts.outDir, certificateFileName(def.title, opts.period, k, paramTexts)), text, {
       force: opts.force ?? false,
       dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
-    if (isFlowMap(compiled)) {
-      const T = encloseFlowPeriod(compiled, orbit.boxes);
-      outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
-    }
-    if (checkOn && def.flow !== undefined) {
+    if (T) outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
+    if (checkOn && def.flow?.section !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
     } else if (checkOn) {
-      const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
+      // the pool's report stands for the file only when the file holds exactly the bytes it checked
+      // (an identical older file may have been kept); otherwise the file itself is checked here
+      const report = pooled?.check !== undefined && fileHolds(path, text)
+        ? { ...pooled.check, file: path }
+        : checkPaths([path], opts.digits ? { digits: opts.digits } : {})[0];
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;
       if (report.verdict === 'VERIFIED') outcome.status = 'verified';
@@ -552,7 +575,7 @@ export async function certifyOrbits(
     }
     outcomes.push(outcome);
     entries.push(entryOf(outcome, {
-      ...(outcome.status !== 'rejected-by-checker' ? { sha256: sha256Hex(bytes) } : {}),
+      ...(outcome.status !== 'rejected-by-checker' ? { sha256: sha256Hex(text) } : {}),
       ...(sameness !== '' ? { identityUndecided: true } : {}),
     }));
     writeManifest(false);
