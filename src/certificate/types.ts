@@ -163,6 +163,46 @@ export interface CountPartV1 {
   sha256: string;
 }
 
+export const CERTIFICATE_KIND_BOX_GRAPH_COUNT = 'periodic-orbit-count-box-graph';
+
+/**
+ * The box graph of a count by the box-graph method (n ≥ 2): the grid of level `level` cuts each
+ * region interval into 2^level equal slabs (every edge an exact binary fraction); `cells` are the
+ * kept cells as keys k = Σ_a i_a·2^(level·(n−1−a)) in increasing order; `successors[c]` the indices
+ * (into `cells`, increasing) of the cells that cell c's image meets. The cover was refined from
+ * `startLevel` (all cells) by dropping cells without a successor or predecessor at each level.
+ */
+export interface BoxGraphV1 {
+  startLevel: number;
+  level: number;
+  cells: number[];
+  successors: number[][];
+}
+
+export interface BoxGraphCountEntry {
+  period: number;
+  /** Closed paths c_0 → … → c_{p−1} → c_0 of the graph with c_0 least on the path. */
+  cycles: number;
+  /**
+   * The cover codes (COUNT_ALPHABET coding, as for pieces) of the cycles' shooting boxes, one after
+   * another in lexicographic order of the cycles; each code is self-delimiting.
+   */
+  code: string;
+  claims: CountClaims;
+}
+
+export interface BoxGraphCountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-orbit-count-box-graph';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  region: DecimalInterval[];
+  graph: BoxGraphV1;
+  counts: BoxGraphCountEntry[];
+  sha256: string;
+}
+
 // ---- kinds of issue 10: periodic windows and bifurcation edges (docs/windows.md) ----
 
 export const CERTIFICATE_KIND_WINDOW = 'periodic-window';

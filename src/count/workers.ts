@@ -7,6 +7,7 @@ import { Worker } from 'node:worker_threads';
 import type { MapDefinition } from '../model/types.js';
 import type { PieceRunner, PieceTask } from './run.js';
 import type { PieceResult } from './search.js';
+import type { BoxGraph, CycleVerdict } from './boxgraph.js';
 
 export function workerRunner(definition: MapDefinition, region: Float64Array, pieceDepth: number, count: number): PieceRunner {
   const url = new URL('./worker.js', import.meta.url);
@@ -42,6 +43,44 @@ export function workerRunner(definition: MapDefinition, region: Float64Array, pi
         }
         if (tasks.length === 0) resolve();
         for (const w of workers) feed(w);
+      });
+    },
+    async close() {
+      await Promise.all(workers.map((w) => w.terminate()));
+    },
+  };
+}
+
+/** Decides the closed paths of one period on K worker threads (worker i takes paths i, i + K, …). */
+export interface BoxGraphPool {
+  decide(period: number): Promise<CycleVerdict[]>;
+  close(): Promise<void>;
+}
+
+export function boxGraphWorkers(definition: MapDefinition, graph: BoxGraph, count: number): BoxGraphPool {
+  const url = new URL('./boxgraph-worker.js', import.meta.url);
+  const data = { definition: JSON.parse(JSON.stringify(definition)) as MapDefinition, graph };
+  const workers: Worker[] = [];
+  for (let i = 0; i < count; i++) workers.push(new Worker(url, { workerData: data }));
+  return {
+    decide(period: number): Promise<CycleVerdict[]> {
+      return Promise.all(
+        workers.map(
+          (w, i) =>
+            new Promise<CycleVerdict[]>((resolve, reject) => {
+              w.removeAllListeners('message');
+              w.removeAllListeners('error');
+              w.once('message', (r: CycleVerdict[]) => resolve(r));
+              w.once('error', reject);
+              w.postMessage({ period, offset: i, stride: count });
+            }),
+        ),
+      ).then((shares) => {
+        // back to enumeration order: path j is share j % K, position ⌊j / K⌋
+        const total = shares.reduce((s, x) => s + x.length, 0);
+        const out: CycleVerdict[] = [];
+        for (let j = 0; j < total; j++) out.push(shares[j % count]![Math.floor(j / count)]!);
+        return out;
       });
     },
     async close() {

@@ -5,9 +5,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
-import { buildCountCertificate, buildCountPart, type CountHeader } from '../certificate/count.js';
+import { buildBoxGraphCountCertificate, buildCountCertificate, buildCountPart, type CountHeader } from '../certificate/count.js';
+import { countByBoxGraph, DEFAULT_BOX_GRAPH_LEVEL, DEFAULT_BOX_GRAPH_START } from './count-box-graph.js';
 import { writeFileAtomic } from '../certificate/write.js';
-import type { CountCertificateV1, CountClaims, CountPartV1, CountPeriodEntry, DecimalInterval } from '../certificate/types.js';
+import type { BoxGraphCountCertificateV1, CountCertificateV1, CountClaims, CountPartV1, CountPeriodEntry, DecimalInterval } from '../certificate/types.js';
 import { COUNT_ALPHABET } from '../certificate/types.js';
 import { classifyZeros } from '../count/classify.js';
 import { DEFAULT_PIECE_DEPTH } from '../count/params.js';
@@ -39,6 +40,15 @@ export interface CountRequest {
   /** Run the independent checker on the certificate (default true; not for parts). */
   check?: boolean;
   onProgress?: (p: CountProgress) => void;
+  /**
+   * 'shooting': branch and prune on region^p (n = 1 always); 'box-graph': the box-graph method
+   * (default for n ≥ 2; src/count/boxgraph.ts).
+   */
+  method?: 'shooting' | 'box-graph';
+  /** Box-graph method: finest level of the cover (2^level slabs per coordinate). */
+  level?: number;
+  /** Box-graph method: first level of the cover. */
+  startLevel?: number;
 }
 
 export interface PeriodCount {
@@ -62,7 +72,9 @@ export interface CountReport {
   pieceDepth: number;
   shard: { index: number; count: number } | null;
   periods: PeriodCount[];
-  certificate: CountCertificateV1 | CountPartV1;
+  certificate: CountCertificateV1 | CountPartV1 | BoxGraphCountCertificateV1;
+  /** Present for the box-graph method: the cover's level and size, and the closed paths per period. */
+  boxGraph?: { level: number; startLevel: number; cells: number; edges: number; cyclesByPeriod: Record<string, number> };
   file: string | null;
   check: CheckReport | null;
   elapsedMs: number;
@@ -88,6 +100,8 @@ export async function countOrbits(req: CountRequest): Promise<CountReport> {
   for (const p of periods) {
     if (p * n > MAX_UNKNOWNS) throw new UserError('bad-period', `period ${p} × dimension ${n} exceeds ${MAX_UNKNOWNS} unknowns, the most a count certificate encodes`, `use a period up to ${Math.floor(MAX_UNKNOWNS / n)}`, '--period');
   }
+  if (n >= 2 && req.method !== 'shooting') return countBoxGraphWorkflow(req, t0, box, widened, region, periods);
+  if (req.method === 'box-graph') throw new UserError('bad-option', 'the box-graph method is for maps of dimension 2 or more', 'leave out --method for a one-dimensional map', '--method');
   const pieceDepth = req.pieceDepth ?? DEFAULT_PIECE_DEPTH;
   if (!Number.isInteger(pieceDepth) || pieceDepth < 0 || pieceDepth > MAX_PIECE_DEPTH) throw new UserError('bad-option', `piece depth must be 0..${MAX_PIECE_DEPTH}`, 'e.g. 6 (64 pieces)', '--pieces');
   const shard = req.shard ?? null;
@@ -157,6 +171,54 @@ export async function countOrbits(req: CountRequest): Promise<CountReport> {
     shard,
     periods: perPeriod,
     certificate,
+    file,
+    check,
+    elapsedMs: performance.now() - t0,
+  };
+}
+
+const MAX_BOX_GRAPH_LEVEL = 12;
+
+async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64Array, widened: boolean, region: DecimalInterval[], periods: number[]): Promise<CountReport> {
+  const map = req.map;
+  const def = map.definition;
+  if (req.shard) throw new UserError('bad-option', 'shards are not available for the box-graph method yet', 'run without --shard, or give --method shooting', '--shard');
+  const level = req.level ?? DEFAULT_BOX_GRAPH_LEVEL;
+  const startLevel = Math.min(req.startLevel ?? DEFAULT_BOX_GRAPH_START, level);
+  if (!Number.isInteger(level) || level < 0 || level > MAX_BOX_GRAPH_LEVEL) throw new UserError('bad-option', `box-graph level must be 0..${MAX_BOX_GRAPH_LEVEL}`, 'e.g. 8 (256 slabs per coordinate)', '--level');
+  const workers = Math.max(1, req.workers ?? 1);
+  const res = await countByBoxGraph({
+    map,
+    region: box,
+    regionText: region,
+    periods,
+    level,
+    startLevel,
+    workers,
+    onPeriodDone: (done, total, period) => req.onProgress?.({ done, total, period }),
+  });
+  const perPeriod = res.stats.map((st) => periodCount(st.period, st.claims, st.nodes, st.elapsedMs));
+  const certificate = buildBoxGraphCountCertificate({ definition: def, region }, res.graphV1, res.entries);
+  let file: string | null = null;
+  if (req.out) file = writeFileAtomic(req.out, JSON.stringify(certificate) + '\n', { force: req.force });
+  const check = req.check !== false ? checkCertificate(certificate) : null;
+  return {
+    kind: 'count-report',
+    formatVersion: 1,
+    title: def.title,
+    region,
+    regionWidened: widened,
+    pieceDepth: 0,
+    shard: null,
+    periods: perPeriod,
+    certificate,
+    boxGraph: {
+      level,
+      startLevel,
+      cells: res.graphV1.cells.length,
+      edges: res.graph.succ.length,
+      cyclesByPeriod: Object.fromEntries(res.stats.map((st) => [String(st.period), st.cycles])),
+    },
     file,
     check,
     elapsedMs: performance.now() - t0,
