@@ -6,7 +6,7 @@ import type { MapDefinition } from '../model/types.js';
 import { certificateMap } from './build.js';
 import { certificateHash } from './canonical.js';
 import { packageVersion, PRODUCER_NAME } from './producer.js';
-import type { BoxGraphCountCertificateV1, BoxGraphCountEntry, BoxGraphV1, CountCertificateV1, CountPartV1, CountPeriodEntry, DecimalInterval } from './types.js';
+import type { BoxGraphCountCertificateV1, BoxGraphCountEntry, CountCertificateV1, CountPartV1, CountPeriodEntry, DecimalInterval } from './types.js';
 
 export interface CountHeader {
   definition: MapDefinition;
@@ -43,9 +43,9 @@ export function buildCountPart(h: CountHeader, shard: { index: number; count: nu
 }
 
 /** A count certificate of the box-graph method (kind "periodic-orbit-count-box-graph"). */
-export function buildBoxGraphCountCertificate(h: Omit<CountHeader, 'pieceDepth'>, graph: BoxGraphV1, counts: BoxGraphCountEntry[]): BoxGraphCountCertificateV1 {
+export function buildBoxGraphCountCertificate(h: Omit<CountHeader, 'pieceDepth'>, cover: { startLevel: number; level: number }, counts: BoxGraphCountEntry[]): BoxGraphCountCertificateV1 {
   const { pieceDepth, ...rest } = header({ ...h, pieceDepth: 0 });
   void pieceDepth;
-  const unsigned = { ...rest, kind: 'periodic-orbit-count-box-graph' as const, graph, counts: [...counts].sort((a, b) => a.period - b.period) };
+  const unsigned = { ...rest, kind: 'periodic-orbit-count-box-graph' as const, cover: { ...cover }, counts: [...counts].sort((a, b) => a.period - b.period) };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

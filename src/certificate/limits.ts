@@ -49,3 +49,9 @@ export const MAX_BITS = 100_000;
 
 /** Upper limit of `--workers` (worker threads of src/workflow/pool.ts; more only cost memory). */
 export const MAX_WORKERS = 64;
+
+/**
+ * Box-graph counts: a grid level has at most 2^this cells (n · level ≤ this), so cell keys stay
+ * exact integers and the checker's work stays bounded; prover and checker alike.
+ */
+export const MAX_BOX_GRAPH_GRID_LOG2 = 36;

@@ -166,14 +166,14 @@ export interface CountPartV1 {
 export const CERTIFICATE_KIND_BOX_GRAPH_COUNT = 'periodic-orbit-count-box-graph';
 
 /**
- * The box graph of a count by the box-graph method (n ≥ 2): the grid of level `level` cuts each
- * region interval into 2^level equal slabs (every edge an exact binary fraction); `cells` are the
- * kept cells as keys k = Σ_a i_a·2^(level·(n−1−a)) in increasing order; `successors[c]` the indices
- * (into `cells`, increasing) of the cells that cell c's image meets. The cover was refined from
- * `startLevel` (all cells) by dropping cells without a successor or predecessor at each level.
+ * The box graph of one period of a count by the box-graph method (n ≥ 2): the grid of level
+ * `level` cuts each region interval into 2^level equal slabs (every edge an exact binary
+ * fraction); `cells` are the kept cells as keys k = Σ_a i_a·2^(level·(n−1−a)) in increasing
+ * order; `successors[c]` the indices (into `cells`, increasing) of the cells that cell c's image
+ * meets. Refined from the certificate's base cover, level by level, keeping cells on closed walks
+ * of length p.
  */
 export interface BoxGraphV1 {
-  startLevel: number;
   level: number;
   cells: number[];
   successors: number[][];
@@ -181,11 +181,12 @@ export interface BoxGraphV1 {
 
 export interface BoxGraphCountEntry {
   period: number;
-  /** Closed paths c_0 → … → c_{p−1} → c_0 of the graph with c_0 least on the path. */
+  graph: BoxGraphV1;
+  /** Closed paths C_0 → … → C_{p−1} → C_0 of the graph of clusters (touching cells) with C_0 least on the path. */
   cycles: number;
   /**
-   * The cover codes (COUNT_ALPHABET coding, as for pieces) of the cycles' shooting boxes, one after
-   * another in lexicographic order of the cycles; each code is self-delimiting.
+   * The cover codes (COUNT_ALPHABET coding, as for pieces) of the closed paths' shooting boxes
+   * (hulls of the clusters), one after another in lexicographic order; each code is self-delimiting.
    */
   code: string;
   claims: CountClaims;
@@ -198,7 +199,11 @@ export interface BoxGraphCountCertificateV1 {
   producer: CertificateProducer;
   map: CertificateMap;
   region: DecimalInterval[];
-  graph: BoxGraphV1;
+  /**
+   * The base cover: from level `startLevel` (all cells) to `level`, cells without a successor or
+   * a predecessor dropped at each level (the invariant part of the region).
+   */
+  cover: { startLevel: number; level: number };
   counts: BoxGraphCountEntry[];
   sha256: string;
 }

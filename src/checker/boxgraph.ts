@@ -25,11 +25,9 @@ import { Decimal } from 'decimal.js';
 import { Evaluator } from './formula.js';
 import { DomainViolation, type Iv, type IvCtx } from './interval.js';
 import { image, type Shooting } from './krawczyk.js';
+import { MAX_BOX_GRAPH_GRID_LOG2 } from '../certificate/limits.js';
 import { arr, classify, Hi, int, obj, readCountHeader, reject, replayTree, type CountCheckLimits, type Zero } from './count.js';
 
-/** Most grid cells of a level (2^(n·level)); the prover's limit is the same number. */
-const MAX_GRID_LOG2 = 24;
-const MAX_LEVEL = 12;
 const MAX_UNKNOWNS = 64;
 
 type Obj = Record<string, unknown>;
@@ -107,12 +105,53 @@ function forKeys(ranges: [number, number][], side: number, visit: (key: number) 
   }
 }
 
-/** The checker's own cover of the final level (keys), refined from the start level. */
-function ownCover(s: Shooting, region: { lo: Decimal; hi: Decimal }[], start: number, level: number): Set<number> {
+/** Cells kept when cells without a successor or without a predecessor are dropped (until stable). */
+function pruneDegrees(succ: number[][]): boolean[] {
+  const K = succ.length;
+  const indeg = new Array<number>(K).fill(0);
+  const outdeg = succ.map((x) => x.length);
+  const pred: number[][] = succ.map(() => []);
+  succ.forEach((list, c) => list.forEach((t) => {
+    indeg[t]!++;
+    pred[t]!.push(c);
+  }));
+  const alive = new Array<boolean>(K).fill(true);
+  const queue: number[] = [];
+  for (let c = 0; c < K; c++) if (indeg[c] === 0 || outdeg[c] === 0) queue.push(c);
+  while (queue.length > 0) {
+    const c = queue.pop()!;
+    if (!alive[c]) continue;
+    alive[c] = false;
+    for (const t of succ[c]!) if (alive[t] && --indeg[t]! === 0) queue.push(t);
+    for (const q of pred[c]!) if (alive[q] && --outdeg[q]! === 0) queue.push(q);
+  }
+  return alive;
+}
+
+/** Cells on a closed walk of exactly p edges (31 start cells at a time, one bit each). */
+function onClosedWalks(succ: number[][], p: number): boolean[] {
+  const K = succ.length;
+  const alive = new Array<boolean>(K).fill(false);
+  for (let s0 = 0; s0 < K; s0 += 31) {
+    let reach = new Array<number>(K).fill(0);
+    for (let b = 0; b < 31 && s0 + b < K; b++) reach[s0 + b] = 2 ** b;
+    for (let k = 0; k < p; k++) {
+      const next = new Array<number>(K).fill(0);
+      for (let u = 0; u < K; u++) if (reach[u] !== 0) for (const v of succ[u]!) next[v] = next[v]! | reach[u]!;
+      reach = next;
+    }
+    for (let b = 0; b < 31 && s0 + b < K; b++) if ((reach[s0 + b]! & (2 ** b)) !== 0) alive[s0 + b] = true;
+  }
+  return alive;
+}
+
+/**
+ * The checker's own refinement: from `keys` at level `from` to level `to`, at each level the
+ * images computed here, `prune` applied, the kept cells split. Returns the kept keys of level `to`.
+ */
+function refine(s: Shooting, region: { lo: Decimal; hi: Decimal }[], keys: number[], from: number, to: number, prune: (succ: number[][]) => boolean[]): number[] {
   const n = region.length;
-  let keys: number[] = [];
-  for (let k = 0; k < 2 ** (n * start); k++) keys.push(k);
-  for (let l = start; ; l++) {
+  for (let l = from; ; l++) {
     const g = grid(region, l);
     const index = new Map<number, number>();
     keys.forEach((k, i) => index.set(k, i));
@@ -125,77 +164,68 @@ function ownCover(s: Shooting, region: { lo: Decimal; hi: Decimal }[], start: nu
       });
       return list;
     });
-    const K = keys.length;
-    const indeg = new Array<number>(K).fill(0);
-    const outdeg = succ.map((x) => x.length);
-    const pred: number[][] = keys.map(() => []);
-    succ.forEach((list, c) => list.forEach((t) => {
-      indeg[t]!++;
-      pred[t]!.push(c);
-    }));
-    const alive = new Array<boolean>(K).fill(true);
-    const queue: number[] = [];
-    for (let c = 0; c < K; c++) if (indeg[c] === 0 || outdeg[c] === 0) queue.push(c);
-    while (queue.length > 0) {
-      const c = queue.pop()!;
-      if (!alive[c]) continue;
-      alive[c] = false;
-      for (const t of succ[c]!) if (alive[t] && --indeg[t]! === 0) queue.push(t);
-      for (const q of pred[c]!) if (alive[q] && --outdeg[q]! === 0) queue.push(q);
-    }
+    const alive = prune(succ);
     const kept = keys.filter((_, c) => alive[c]);
-    if (l === level) return new Set(kept);
+    if (l === to) return kept;
     const next: number[] = [];
-    const side = g.side;
     for (const k of kept) {
       const co = coordsOf(k, g);
       for (let ch = 0; ch < 2 ** n; ch++) {
         let key = 0;
-        for (let a = 0; a < n; a++) key = key * 2 * side + 2 * co[a]! + ((ch >> (n - 1 - a)) & 1);
+        for (let a = 0; a < n; a++) key = key * 2 * g.side + 2 * co[a]! + ((ch >> (n - 1 - a)) & 1);
         next.push(key);
       }
     }
-    keys = next;
+    keys = next.sort((x, y) => x - y);
   }
+}
+
+/** Clusters of cells (keys): connected through touching (every coordinate index within 1); ids in order of least cell. */
+function clusters(keys: number[], g: Grid): { id: number[]; count: number } {
+  const n = g.n;
+  const index = new Map<number, number>();
+  keys.forEach((k, i) => index.set(k, i));
+  const parent = keys.map((_, i) => i);
+  const find = (i: number): number => {
+    while (parent[i] !== i) i = parent[i] = parent[parent[i]!]!;
+    return i;
+  };
+  keys.forEach((k, i) => {
+    const co = coordsOf(k, g);
+    const ranges = co.map((v) => [Math.max(0, v - 1), Math.min(g.side - 1, v + 1)] as [number, number]);
+    forKeys(ranges, g.side, (t) => {
+      const j = index.get(t);
+      if (j === undefined) return;
+      const x = find(i);
+      const y = find(j);
+      if (x !== y) parent[Math.max(x, y)] = Math.min(x, y);
+    });
+  });
+  const id: number[] = [];
+  const ids = new Map<number, number>();
+  keys.forEach((_, i) => {
+    const r = find(i);
+    if (!ids.has(r)) ids.set(r, ids.size);
+    id.push(ids.get(r)!);
+  });
+  void n;
+  return { id, count: ids.size };
 }
 
 /** Verifies a parsed box-graph count certificate; throws CountRejection (or DomainViolation). */
 export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLimits): void {
   const { c, params, step, n, region } = readCountHeader(d, digits, limits);
   if (n < 2) reject('$.map.state', 'the box-graph method is for dimension 2 or more');
-  const gr = obj(d.graph, '$.graph');
-  for (const k of Object.keys(gr)) if (!['startLevel', 'level', 'cells', 'successors'].includes(k)) reject(`$.graph.${k}`, `unknown key ${JSON.stringify(k)} at $.graph`);
-  const level = int(gr.level, '$.graph.level', 0, MAX_LEVEL);
-  const start = int(gr.startLevel, '$.graph.startLevel', 0, level);
-  if (n * level > MAX_GRID_LOG2) reject('$.graph.level', `2^${n * level} grid cells exceed 2^${MAX_GRID_LOG2}`);
-  const side = 2 ** level;
-  const cells = arr(gr.cells, '$.graph.cells').map((v, i) => int(v, `$.graph.cells[${i}]`, 0, side ** n - 1));
-  for (let i = 1; i < cells.length; i++) if (!(cells[i]! > cells[i - 1]!)) reject(`$.graph.cells[${i}]`, 'cells must be strictly increasing');
-  const K = cells.length;
-  const successors = arr(gr.successors, '$.graph.successors').map((v, i) => arr(v, `$.graph.successors[${i}]`).map((t, j) => int(t, `$.graph.successors[${i}][${j}]`, 0, K - 1)));
-  if (successors.length !== K) reject('$.graph.successors', `expected ${K} successor lists (one per cell), found ${successors.length}`);
-  successors.forEach((list, i) => {
-    for (let j = 1; j < list.length; j++) if (!(list[j]! > list[j - 1]!)) reject(`$.graph.successors[${i}]`, 'successor lists must be strictly increasing');
-  });
+  const cover = obj(d.cover, '$.cover');
+  for (const k of Object.keys(cover)) if (!['startLevel', 'level'].includes(k)) reject(`$.cover.${k}`, `unknown key ${JSON.stringify(k)} at $.cover`);
+  const maxLevel = Math.floor(MAX_BOX_GRAPH_GRID_LOG2 / n);
+  const baseLevel = int(cover.level, '$.cover.level', 0, maxLevel);
+  const start = int(cover.startLevel, '$.cover.startLevel', 0, baseLevel);
   const s0: Shooting = { c, ev: new Evaluator(c, params), step, p: 1, n };
-  // 1. the cover: the checker's own refinement lies inside the listed cells
-  const index = new Map<number, number>();
-  cells.forEach((k, i) => index.set(k, i));
-  const own = ownCover(s0, region, start, level);
-  for (const k of own) {
-    if (!index.has(k)) reject('$.graph.cells', `cell ${k} (grid coordinates ${coordsOf(k, grid(region, level)).join(', ')}) holds part of the invariant set but is not listed (a box is missing)`);
-  }
-  // 2. the graph: every listed cell the image meets is a listed successor
-  const g = grid(region, level);
-  cells.forEach((k, i) => {
-    const r = imageRanges(s0, g, k);
-    if (!r) return;
-    const listed = new Set(successors[i]!);
-    forKeys(r, side, (t) => {
-      const j = index.get(t);
-      if (j !== undefined && !listed.has(j)) reject(`$.graph.successors[${i}]`, `the image of cell ${i} meets cell ${j}, which is not a listed successor (an edge is missing)`);
-    });
-  });
+  // the base cover, the checker's own
+  const all: number[] = [];
+  for (let k = 0; k < 2 ** (n * start); k++) all.push(k);
+  const base = refine(s0, region, all, start, baseLevel, pruneDegrees);
   // 3.–4. every closed path of each period, replayed; counts compared
   const counts = arr(d.counts, '$.counts');
   if (counts.length === 0) reject('$.counts', 'no counts');
@@ -204,11 +234,54 @@ export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLim
   counts.forEach((entry, e) => {
     const path = `$.counts[${e}]`;
     const o = obj(entry, path);
-    for (const k of Object.keys(o)) if (!['period', 'cycles', 'code', 'claims'].includes(k)) reject(`${path}.${k}`, `unknown key ${JSON.stringify(k)} at ${path}`);
+    for (const k of Object.keys(o)) if (!['period', 'graph', 'cycles', 'code', 'claims'].includes(k)) reject(`${path}.${k}`, `unknown key ${JSON.stringify(k)} at ${path}`);
     const p = int(o.period, `${path}.period`, 1, limits.maxPeriod);
     if (p * n > MAX_UNKNOWNS) reject(`${path}.period`, `period × dimension exceeds ${MAX_UNKNOWNS}`);
     if (seen.has(p)) reject(`${path}.period`, `period ${p} appears twice`);
     seen.add(p);
+    const gr = obj(o.graph, `${path}.graph`);
+    for (const k of Object.keys(gr)) if (!['level', 'cells', 'successors'].includes(k)) reject(`${path}.graph.${k}`, `unknown key ${JSON.stringify(k)} at ${path}.graph`);
+    const level = int(gr.level, `${path}.graph.level`, baseLevel, maxLevel);
+    const g = grid(region, level);
+    const side = g.side;
+    const cells = arr(gr.cells, `${path}.graph.cells`).map((v, i) => int(v, `${path}.graph.cells[${i}]`, 0, side ** n - 1));
+    for (let i = 1; i < cells.length; i++) if (!(cells[i]! > cells[i - 1]!)) reject(`${path}.graph.cells[${i}]`, 'cells must be strictly increasing');
+    const K = cells.length;
+    const successors = arr(gr.successors, `${path}.graph.successors`).map((v, i) => arr(v, `${path}.graph.successors[${i}]`).map((t, j) => int(t, `${path}.graph.successors[${i}][${j}]`, 0, K - 1)));
+    if (successors.length !== K) reject(`${path}.graph.successors`, `expected ${K} successor lists (one per cell), found ${successors.length}`);
+    successors.forEach((list, i) => {
+      for (let j = 1; j < list.length; j++) if (!(list[j]! > list[j - 1]!)) reject(`${path}.graph.successors[${i}]`, 'successor lists must be strictly increasing');
+    });
+    // 1. the cover: the checker's own refinement for period p lies inside the listed cells
+    const index = new Map<number, number>();
+    cells.forEach((k, i) => index.set(k, i));
+    for (const k of refine(s0, region, base, baseLevel, level, (succ) => onClosedWalks(succ, p))) {
+      if (!index.has(k)) reject(`${path}.graph.cells`, `cell ${k} (grid coordinates ${coordsOf(k, g).join(', ')}) may hold a point of period ${p} but is not listed (a box is missing)`);
+    }
+    // 2. the graph: every listed cell the image meets is a listed successor
+    cells.forEach((k, i) => {
+      const r = imageRanges(s0, g, k);
+      if (!r) return;
+      const listed = new Set(successors[i]!);
+      forKeys(r, side, (t) => {
+        const j = index.get(t);
+        if (j !== undefined && !listed.has(j)) reject(`${path}.graph.successors[${i}]`, `the image of cell ${i} meets cell ${j}, which is not a listed successor (an edge is missing)`);
+      });
+    });
+    // clusters, their hulls and their graph
+    const { id, count } = clusters(cells, g);
+    const hullLo: number[][] = Array.from({ length: count }, () => new Array<number>(n).fill(Infinity));
+    const hullHi: number[][] = Array.from({ length: count }, () => new Array<number>(n).fill(-1));
+    const csucc: Set<number>[] = Array.from({ length: count }, () => new Set<number>());
+    cells.forEach((k, i) => {
+      const q = id[i]!;
+      coordsOf(k, g).forEach((v, a) => {
+        hullLo[q]![a] = Math.min(hullLo[q]![a]!, v);
+        hullHi[q]![a] = Math.max(hullHi[q]![a]!, v);
+      });
+      for (const t of successors[i]!) csucc[q]!.add(id[t]!);
+    });
+    const clusterSucc = csucc.map((x) => [...x].sort((u, v) => u - v));
     if (typeof o.code !== 'string') reject(`${path}.code`, `expected a string at ${path}.code`);
     const code = o.code as string;
     const s: Shooting = { c, ev: new Evaluator(c, params), step, p, n };
@@ -216,18 +289,17 @@ export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLim
     let pos = 0;
     let undecided = 0;
     let cycles = 0;
-    closedPaths(successors, p, (cyc) => {
+    closedPaths(clusterSucc, p, (cyc) => {
       const lo: Decimal[] = [];
       const hi: Decimal[] = [];
-      for (const cell of cyc) {
-        const co = coordsOf(cells[cell]!, g);
+      for (const q of cyc) {
         for (let a = 0; a < n; a++) {
-          lo.push(g.edges[a]![co[a]!]!);
-          hi.push(g.edges[a]![co[a]! + 1]!);
+          lo.push(g.edges[a]![hullLo[q]![a]!]!);
+          hi.push(g.edges[a]![hullHi[q]![a]! + 1]!);
         }
       }
       const found: Zero[] = [];
-      const r = replayTree(s, { lo, hi }, code, pos, width, found, `${path}.code`, `closed path ${cycles} (cells ${cyc.join(' ')})`);
+      const r = replayTree(s, { lo, hi }, code, pos, width, found, `${path}.code`, `closed path ${cycles} (clusters ${cyc.join(' ')})`);
       pos = r.pos;
       undecided += r.undecided;
       cycles++;
@@ -301,11 +373,4 @@ function closedPaths(succ: number[][], p: number, visit: (path: number[]) => voi
     };
     walk();
   }
-}
-
-/** For tests: the checker's own cover (keys of the final level). */
-export function ownCoverForTests(d: Obj, digits: number, limits: CountCheckLimits): Set<number> {
-  const { c, params, step, n, region } = readCountHeader(d, digits, limits);
-  const gr = obj(d.graph, '$.graph');
-  return ownCover({ c, ev: new Evaluator(c, params), step, p: 1, n }, region, gr.startLevel as number, gr.level as number);
 }

@@ -526,7 +526,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     // box-graph count certificates: checker/boxgraph.ts
     const digits = opts.digits ?? DEFAULT_DIGITS;
     if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
-    onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'graph', 'counts', 'sha256'], '$');
+    onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'cover', 'counts', 'sha256'], '$');
     onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
     checkBoxGraphCount(top, digits, limits);
     return { claims: ['count'], digits };

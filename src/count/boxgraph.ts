@@ -29,12 +29,13 @@ import { UserError } from '../errors.js';
 import { decimalOfDouble as decimalOf } from '../interval/decimal-literal.js';
 import { ShootingEvaluator } from './shooting-box.js';
 import { ShootingCounter } from './search.js';
+import { MAX_BOX_GRAPH_GRID_LOG2 } from '../certificate/limits.js';
 
 /** Exact for the sums and quotients by 2^L of doubles below (a double has < 1,100 significant digits). */
 const Decimal = DecimalBase.clone({ precision: 1100, minE: -9e15, maxE: 9e15 });
 
-/** Most cells a level may index densely (2^(n·L)); a larger cover is refused. */
-export const MAX_GRID_CELLS = 2 ** 24;
+/** Most grid cells of a level, as a power of two (2^(n·L) ≤ 2^MAX_GRID_LOG2; keys stay exact integers). */
+const MAX_GRID_LOG2 = MAX_BOX_GRAPH_GRID_LOG2;
 
 export interface BoxGraph {
   readonly n: number;
@@ -104,155 +105,256 @@ export interface BoxGraphOptions {
   startLevel?: number;
 }
 
-/** Builds the pruned cover and its transition graph (see the file comment). */
-export function buildBoxGraph(map: FormulaMap, region: Float64Array, opts: BoxGraphOptions): BoxGraph {
-  const n = map.dim;
-  const L = opts.level;
-  const start = Math.min(opts.startLevel ?? 0, L);
-  if (n * L > Math.log2(MAX_GRID_CELLS)) {
-    throw new UserError('bad-option', `box-graph level ${L} gives 2^${n * L} grid cells in ${n} dimensions, more than 2^${Math.log2(MAX_GRID_CELLS)}`, `use a level up to ${Math.floor(Math.log2(MAX_GRID_CELLS) / n)}`, '--level');
+/** Successor lists (CSR) of a set of cells of one level, with every cell's image computed here. */
+interface Edges {
+  succStart: Int32Array;
+  succ: Int32Array;
+  wild: number;
+}
+
+function checkLevel(n: number, L: number): void {
+  if (n * L > MAX_GRID_LOG2) {
+    throw new UserError('bad-option', `box-graph level ${L} gives 2^${n * L} grid cells in ${n} dimensions, more than 2^${MAX_GRID_LOG2}`, `use a level up to ${Math.floor(MAX_GRID_LOG2 / n)}`, '--level');
   }
-  const ev = new ShootingEvaluator(map);
+}
+
+function keyOf(cells: Int32Array, c: number, n: number, side: number): number {
+  let k = 0;
+  for (let a = 0; a < n; a++) k = k * side + cells[c * n + a]!;
+  return k;
+}
+
+/** The successors of each cell among `cells` (closed boxes; touching counts). */
+function successorsOn(ev: ShootingEvaluator, n: number, edges: readonly Float64Array[], cells: Int32Array): Edges {
+  const side = edges[0]!.length - 1;
+  const K = cells.length / n;
   const img = new Float64Array(2 * n);
   const box = new Float64Array(2 * n);
   const range = new Int32Array(2 * n);
   const idx = new Int32Array(n);
-  let imagesComputed = 0;
-  // level `start`: every cell
-  let level = start;
-  let side = 2 ** level;
-  let cells = new Int32Array(n * side ** n);
-  for (let c = 0; c < side ** n; c++) {
-    let r = c;
-    for (let a = n - 1; a >= 0; a--) {
-      cells[c * n + a] = r % side;
-      r = Math.floor(r / side);
+  const lookup = new Map<number, number>();
+  for (let c = 0; c < K; c++) lookup.set(keyOf(cells, c, n, side), c);
+  const succStart = new Int32Array(K + 1);
+  let succ = new Int32Array(Math.max(16, 8 * K));
+  let ne = 0;
+  let wild = 0;
+  for (let c = 0; c < K; c++) {
+    succStart[c] = ne;
+    for (let a = 0; a < n; a++) {
+      const i = cells[c * n + a]!;
+      box[2 * a] = edges[a]![i]!;
+      box[2 * a + 1] = edges[a]![i + 1]!;
+    }
+    let ok = ev.image(box, 0, img);
+    for (let a = 0; a < 2 * n; a++) if (Number.isNaN(img[a]!)) ok = false;
+    if (!ok) wild++;
+    let empty = false;
+    for (let a = 0; a < n; a++) {
+      if (ok) slabRange(edges[a]!, img[2 * a]!, img[2 * a + 1]!, range, 2 * a);
+      else {
+        range[2 * a] = 0;
+        range[2 * a + 1] = side - 1;
+      }
+      if (range[2 * a]! > range[2 * a + 1]!) empty = true;
+    }
+    if (empty) continue;
+    const first = ne;
+    for (let a = 0; a < n; a++) idx[a] = range[2 * a]!;
+    for (;;) {
+      let k = 0;
+      for (let a = 0; a < n; a++) k = k * side + idx[a]!;
+      const t = lookup.get(k);
+      if (t !== undefined) {
+        if (ne === succ.length) {
+          const g = new Int32Array(succ.length * 2);
+          g.set(succ);
+          succ = g;
+        }
+        succ[ne++] = t;
+      }
+      let a = n - 1;
+      while (a >= 0 && idx[a] === range[2 * a + 1]) {
+        idx[a] = range[2 * a]!;
+        a--;
+      }
+      if (a < 0) break;
+      idx[a]!++;
+    }
+    succ.subarray(first, ne).sort();
+  }
+  succStart[K] = ne;
+  return { succStart, succ: succ.slice(0, ne), wild };
+}
+
+/** Predecessor lists (CSR) of a successor CSR. */
+function predecessors(K: number, e: Edges): { predStart: Int32Array; pred: Int32Array } {
+  const predStart = new Int32Array(K + 1);
+  for (let i = 0; i < e.succ.length; i++) predStart[e.succ[i]! + 1]!++;
+  for (let c = 0; c < K; c++) predStart[c + 1]! += predStart[c]!;
+  const pred = new Int32Array(e.succ.length);
+  const fill = predStart.slice(0, K);
+  for (let c = 0; c < K; c++) for (let i = e.succStart[c]!; i < e.succStart[c + 1]!; i++) pred[fill[e.succ[i]!]!++] = c;
+  return { predStart, pred };
+}
+
+/** Cells kept after dropping, until stable, every cell without a successor or a predecessor. */
+function pruneDegrees(K: number, e: Edges): Uint8Array {
+  const { predStart, pred } = predecessors(K, e);
+  const indeg = new Int32Array(K);
+  const outdeg = new Int32Array(K);
+  for (let c = 0; c < K; c++) {
+    outdeg[c] = e.succStart[c + 1]! - e.succStart[c]!;
+    indeg[c] = predStart[c + 1]! - predStart[c]!;
+  }
+  const alive = new Uint8Array(K).fill(1);
+  const queue: number[] = [];
+  for (let c = 0; c < K; c++) if (indeg[c] === 0 || outdeg[c] === 0) queue.push(c);
+  while (queue.length > 0) {
+    const c = queue.pop()!;
+    if (!alive[c]) continue;
+    alive[c] = 0;
+    for (let i = e.succStart[c]!; i < e.succStart[c + 1]!; i++) {
+      const t = e.succ[i]!;
+      if (alive[t] && --indeg[t]! === 0) queue.push(t);
+    }
+    for (let i = predStart[c]!; i < predStart[c + 1]!; i++) {
+      const q = pred[i]!;
+      if (alive[q] && --outdeg[q]! === 0) queue.push(q);
     }
   }
-  for (;;) {
+  return alive;
+}
+
+/**
+ * Cells lying on a closed walk of length p (c → … → c in exactly p edges), found 32 start cells
+ * at a time: bit b of reach[v] says start b reaches v in exactly k edges.
+ */
+export function onClosedWalks(K: number, e: Edges, p: number): Uint8Array {
+  const alive = new Uint8Array(K);
+  let cur = new Int32Array(K);
+  let next = new Int32Array(K);
+  const { succStart, succ } = e;
+  for (let s0 = 0; s0 < K; s0 += 32) {
+    cur.fill(0);
+    for (let b = 0; b < 32 && s0 + b < K; b++) cur[s0 + b] = 1 << b;
+    for (let k = 0; k < p; k++) {
+      next.fill(0);
+      for (let u = 0; u < K; u++) {
+        const m = cur[u]!;
+        if (m === 0) continue;
+        for (let i = succStart[u]!; i < succStart[u + 1]!; i++) next[succ[i]!]! |= m;
+      }
+      [cur, next] = [next, cur];
+    }
+    for (let b = 0; b < 32 && s0 + b < K; b++) if (cur[s0 + b]! & (1 << b)) alive[s0 + b] = 1;
+  }
+  return alive;
+}
+
+/** The kept cells of a level as a graph (cells in key order, edges among kept cells). */
+function compact(region: Float64Array, n: number, level: number, edges: Float64Array[], cells: Int32Array, e: Edges, alive: Uint8Array, imagesComputed: number): BoxGraph {
+  const side = 2 ** level;
+  const K = cells.length / n;
+  const order: number[] = [];
+  for (let c = 0; c < K; c++) if (alive[c]) order.push(c);
+  order.sort((x, y) => keyOf(cells, x, n, side) - keyOf(cells, y, n, side));
+  const newIndex = new Int32Array(K).fill(-1);
+  order.forEach((c, i) => (newIndex[c] = i));
+  const outCells = new Int32Array(order.length * n);
+  const succStart = new Int32Array(order.length + 1);
+  const succOut: number[] = [];
+  order.forEach((c, i) => {
+    for (let a = 0; a < n; a++) outCells[i * n + a] = cells[c * n + a]!;
+    const list: number[] = [];
+    for (let j = e.succStart[c]!; j < e.succStart[c + 1]!; j++) {
+      const t = newIndex[e.succ[j]!]!;
+      if (t >= 0) list.push(t);
+    }
+    list.sort((x, y) => x - y);
+    for (const t of list) succOut.push(t);
+    succStart[i + 1] = succOut.length;
+  });
+  return { n, level, region, edges, cells: outCells, succStart, succ: Int32Array.from(succOut), wild: e.wild, imagesComputed };
+}
+
+/** The 2^n children (next level) of every kept cell. */
+function children(cells: Int32Array, alive: Uint8Array, n: number): Int32Array {
+  const K = cells.length / n;
+  let kept = 0;
+  for (let c = 0; c < K; c++) if (alive[c]) kept++;
+  const out = new Int32Array(kept * n * 2 ** n);
+  let o = 0;
+  for (let c = 0; c < K; c++) {
+    if (!alive[c]) continue;
+    for (let ch = 0; ch < 2 ** n; ch++) {
+      for (let a = 0; a < n; a++) out[o * n + a] = 2 * cells[c * n + a]! + ((ch >> (n - 1 - a)) & 1);
+      o++;
+    }
+  }
+  return out;
+}
+
+/** Builds the pruned cover and its transition graph (see the file comment). */
+export function buildBoxGraph(map: FormulaMap, region: Float64Array, opts: BoxGraphOptions): BoxGraph {
+  const n = map.dim;
+  const L = opts.level;
+  checkLevel(n, L);
+  const start = Math.min(opts.startLevel ?? 0, L);
+  const ev = new ShootingEvaluator(map);
+  let imagesComputed = 0;
+  let cells: Int32Array = new Int32Array(n * 2 ** (n * start));
+  const side0 = 2 ** start;
+  for (let c = 0; c < 2 ** (n * start); c++) {
+    let r = c;
+    for (let a = n - 1; a >= 0; a--) {
+      cells[c * n + a] = r % side0;
+      r = Math.floor(r / side0);
+    }
+  }
+  for (let level = start; ; level++) {
     const edges = Array.from({ length: n }, (_, a) => cellEdges(region[2 * a]!, region[2 * a + 1]!, level, a));
+    const e = successorsOn(ev, n, edges, cells);
+    imagesComputed += cells.length / n;
+    const alive = pruneDegrees(cells.length / n, e);
+    if (level === L) return compact(region, n, level, edges, cells, e, alive, imagesComputed);
+    cells = children(cells, alive, n);
+  }
+}
+
+export interface PeriodGraphOptions {
+  /** Finest level allowed. */
+  maxLevel: number;
+  onLevel?: (level: number, cells: number, kept: number, clusters: number) => void;
+}
+
+/**
+ * The graph for one period p: from the base graph's cells, refine level by level keeping only
+ * cells on closed walks of length p of the level's graph (every point of period dividing p lies
+ * in such a cell: its orbit's cells form such a walk). Stops at maxLevel or when a level has no
+ * more clusters (groups of touching cells) than the level before and every cluster spans at most
+ * MAX_CLUSTER_CELLS cells per coordinate: the clusters have separated.
+ */
+export function refineForPeriod(map: FormulaMap, base: BoxGraph, p: number, opts: PeriodGraphOptions): BoxGraph {
+  const n = base.n;
+  checkLevel(n, opts.maxLevel);
+  const ev = new ShootingEvaluator(map);
+  let imagesComputed = 0;
+  let cells: Int32Array = base.cells;
+  let prevClusters = Infinity;
+  for (let level = base.level; ; level++) {
+    const edges = level === base.level ? (base.edges as Float64Array[]) : Array.from({ length: n }, (_, a) => cellEdges(base.region[2 * a]!, base.region[2 * a + 1]!, level, a));
     const K = cells.length / n;
-    // dense index of the current cells
-    const lookup = new Int32Array(side ** n).fill(-1);
-    const keyOf = (c: number): number => {
-      let k = 0;
-      for (let a = 0; a < n; a++) k = k * side + cells[c * n + a]!;
-      return k;
-    };
-    for (let c = 0; c < K; c++) lookup[keyOf(c)] = c;
-    // successors
-    const succStartList = new Int32Array(K + 1);
-    let succList = new Int32Array(Math.max(16, 8 * K));
-    let ne = 0;
-    let wild = 0;
-    for (let c = 0; c < K; c++) {
-      succStartList[c] = ne;
-      for (let a = 0; a < n; a++) {
-        const i = cells[c * n + a]!;
-        box[2 * a] = edges[a]![i]!;
-        box[2 * a + 1] = edges[a]![i + 1]!;
-      }
-      imagesComputed++;
-      let ok = ev.image(box, 0, img);
-      for (let a = 0; a < 2 * n; a++) if (Number.isNaN(img[a]!)) ok = false;
-      if (!ok) wild++;
-      let empty = false;
-      for (let a = 0; a < n; a++) {
-        if (ok) slabRange(edges[a]!, img[2 * a]!, img[2 * a + 1]!, range, 2 * a);
-        else {
-          range[2 * a] = 0;
-          range[2 * a + 1] = side - 1;
-        }
-        if (range[2 * a]! > range[2 * a + 1]!) empty = true;
-      }
-      if (empty) continue;
-      for (let a = 0; a < n; a++) idx[a] = range[2 * a]!;
-      for (;;) {
-        let k = 0;
-        for (let a = 0; a < n; a++) k = k * side + idx[a]!;
-        const t = lookup[k]!;
-        if (t >= 0) {
-          if (ne === succList.length) {
-            const g = new Int32Array(succList.length * 2);
-            g.set(succList);
-            succList = g;
-          }
-          succList[ne++] = t;
-        }
-        let a = n - 1;
-        while (a >= 0 && idx[a] === range[2 * a + 1]) {
-          idx[a] = range[2 * a]!;
-          a--;
-        }
-        if (a < 0) break;
-        idx[a]!++;
-      }
-    }
-    succStartList[K] = ne;
-    // predecessors (CSR) for pruning
-    const indeg = new Int32Array(K);
-    const outdeg = new Int32Array(K);
-    for (let c = 0; c < K; c++) outdeg[c] = succStartList[c + 1]! - succStartList[c]!;
-    for (let e = 0; e < ne; e++) indeg[succList[e]!]!++;
-    const predStart = new Int32Array(K + 1);
-    for (let c = 0; c < K; c++) predStart[c + 1] = predStart[c]! + indeg[c]!;
-    const pred = new Int32Array(ne);
-    const fill = predStart.slice(0, K);
-    for (let c = 0; c < K; c++) for (let e = succStartList[c]!; e < succStartList[c + 1]!; e++) pred[fill[succList[e]!]!++] = c;
-    const alive = new Uint8Array(K).fill(1);
-    const queue: number[] = [];
-    for (let c = 0; c < K; c++) if (indeg[c] === 0 || outdeg[c] === 0) queue.push(c);
-    while (queue.length > 0) {
-      const c = queue.pop()!;
-      if (!alive[c]) continue;
-      alive[c] = 0;
-      for (let e = succStartList[c]!; e < succStartList[c + 1]!; e++) {
-        const s = succList[e]!;
-        if (alive[s] && --indeg[s]! === 0) queue.push(s);
-      }
-      for (let e = predStart[c]!; e < predStart[c + 1]!; e++) {
-        const q = pred[e]!;
-        if (alive[q] && --outdeg[q]! === 0) queue.push(q);
-      }
-    }
-    if (level === L) {
-      // compact: kept cells in key order, edges among kept cells
-      const order: number[] = [];
-      for (let c = 0; c < K; c++) if (alive[c]) order.push(c);
-      order.sort((x, y) => keyOf(x) - keyOf(y));
-      const newIndex = new Int32Array(K).fill(-1);
-      order.forEach((c, i) => (newIndex[c] = i));
-      const outCells = new Int32Array(order.length * n);
-      const succStart = new Int32Array(order.length + 1);
-      const succOut: number[] = [];
-      order.forEach((c, i) => {
-        for (let a = 0; a < n; a++) outCells[i * n + a] = cells[c * n + a]!;
-        const list: number[] = [];
-        for (let e = succStartList[c]!; e < succStartList[c + 1]!; e++) {
-          const t = newIndex[succList[e]!]!;
-          if (t >= 0) list.push(t);
-        }
-        list.sort((x, y) => x - y);
-        for (const t of list) succOut.push(t);
-        succStart[i + 1] = succOut.length;
-      });
-      return { n, level: L, region, edges, cells: outCells, succStart, succ: Int32Array.from(succOut), wild, imagesComputed };
-    }
-    // split every kept cell into 2^n children
+    const e = successorsOn(ev, n, edges, cells);
+    imagesComputed += K;
+    const alive = onClosedWalks(K, e, p);
     let kept = 0;
-    for (let c = 0; c < K; c++) if (alive[c]) kept++;
-    const children = new Int32Array(kept * n * 2 ** n);
-    let o = 0;
-    for (let c = 0; c < K; c++) {
-      if (!alive[c]) continue;
-      for (let ch = 0; ch < 2 ** n; ch++) {
-        for (let a = 0; a < n; a++) children[o * n + a] = 2 * cells[c * n + a]! + ((ch >> (n - 1 - a)) & 1);
-        o++;
-      }
-    }
-    cells = children;
-    level++;
-    side *= 2;
+    for (let c = 0; c < K; c++) kept += alive[c]!;
+    const { id, count: clusters } = clusterIds(cells, alive, n, 2 ** level);
+    opts.onLevel?.(level, K, kept, clusters);
+    const separated = level > base.level && clusters <= prevClusters && widestCluster(cells, id, clusters, n) <= MAX_CLUSTER_CELLS;
+    if (level >= opts.maxLevel || separated) return compact(base.region, n, level, edges, cells, e, alive, imagesComputed);
+    prevClusters = clusters;
+    cells = children(cells, alive, n);
   }
 }
 
@@ -261,7 +363,7 @@ export function buildBoxGraph(map: FormulaMap, region: Float64Array, opts: BoxGr
  * cell is its least (c_i ≥ c_0 for all i); `path` is reused between calls. Paths in
  * lexicographic order (deterministic). Returns the number of paths.
  */
-export function forEachCycle(g: BoxGraph, p: number, visit: (path: Int32Array) => void): number {
+export function forEachCycle(g: { readonly succStart: Int32Array; readonly succ: Int32Array }, p: number, visit: (path: Int32Array) => void): number {
   const K = g.succStart.length - 1;
   const { succStart, succ } = g;
   // backward distances to the start within cells ≥ start (pruning: a path at depth k at v must reach s in p − k steps)
@@ -333,21 +435,140 @@ export function forEachCycle(g: BoxGraph, p: number, visit: (path: Int32Array) =
   return count;
 }
 
-/** The shooting box (2N doubles) of a path of cells. */
-export function pathBox(g: BoxGraph, path: Int32Array, out: Float64Array): void {
+/** Refining for a period stops only when every cluster spans at most this many cells per coordinate. */
+const MAX_CLUSTER_CELLS = 12;
+
+/** The most cells per coordinate any cluster spans. */
+function widestCluster(cells: Int32Array, id: Int32Array, count: number, n: number): number {
+  const lo = new Int32Array(count * n).fill(2 ** 30);
+  const hi = new Int32Array(count * n).fill(-1);
+  for (let c = 0; c < id.length; c++) {
+    const q = id[c]!;
+    if (q < 0) continue;
+    for (let a = 0; a < n; a++) {
+      const i = cells[c * n + a]!;
+      if (i < lo[q * n + a]!) lo[q * n + a] = i;
+      if (i > hi[q * n + a]!) hi[q * n + a] = i;
+    }
+  }
+  let w = 0;
+  for (let k = 0; k < count * n; k++) w = Math.max(w, hi[k]! - lo[k]! + 1);
+  return w;
+}
+
+/**
+ * Clusters of the kept cells: groups of cells connected through touching (closed boxes sharing a
+ * point: every coordinate index within 1). Cluster ids in order of each cluster's least cell.
+ */
+export function clusterIds(cells: Int32Array, alive: Uint8Array | null, n: number, side: number): { id: Int32Array; count: number } {
+  const K = cells.length / n;
+  const lookup = new Map<number, number>();
+  for (let c = 0; c < K; c++) if (!alive || alive[c]) lookup.set(keyOf(cells, c, n, side), c);
+  const parent = new Int32Array(K);
+  for (let c = 0; c < K; c++) parent[c] = c;
+  const find = (c: number): number => {
+    while (parent[c] !== c) c = parent[c] = parent[parent[c]!]!;
+    return c;
+  };
+  const off = new Int32Array(n);
+  for (let c = 0; c < K; c++) {
+    if (alive && !alive[c]) continue;
+    // neighbours with offsets in {−1, 0, 1}^n
+    for (let t = 0; t < 3 ** n; t++) {
+      let r = t;
+      let inside = true;
+      let k = 0;
+      for (let a = n - 1; a >= 0; a--) {
+        off[a] = (r % 3) - 1;
+        r = Math.floor(r / 3);
+      }
+      for (let a = 0; a < n; a++) {
+        const i = cells[c * n + a]! + off[a]!;
+        if (i < 0 || i >= side) inside = false;
+        k = k * side + i;
+      }
+      if (!inside) continue;
+      const d = lookup.get(k);
+      if (d !== undefined) {
+        const x = find(c);
+        const y = find(d);
+        if (x !== y) parent[Math.max(x, y)] = Math.min(x, y);
+      }
+    }
+  }
+  const id = new Int32Array(K).fill(-1);
+  const rootId = new Map<number, number>();
+  let count = 0;
+  for (let c = 0; c < K; c++) {
+    if (alive && !alive[c]) continue;
+    const r = find(c);
+    let v = rootId.get(r);
+    if (v === undefined) rootId.set(r, (v = count++));
+    id[c] = v;
+  }
+  return { id, count };
+}
+
+/**
+ * The graph of clusters of a box graph: cluster A → B when a cell of A has a successor in B; each
+ * cluster stands for the hull of its cells. An orbit's cells form a closed path of the box graph,
+ * so its clusters form a closed path here, and its points lie in the clusters' hulls.
+ */
+export interface ClusterGraph {
+  readonly n: number;
+  readonly region: Float64Array;
+  readonly edges: readonly Float64Array[];
+  readonly count: number;
+  /** Per cluster and coordinate: least and greatest cell index (2n ints per cluster). */
+  readonly hull: Int32Array;
+  readonly succStart: Int32Array;
+  readonly succ: Int32Array;
+}
+
+export function clusterGraph(g: BoxGraph): ClusterGraph {
+  const n = g.n;
+  const K = g.succStart.length - 1;
+  const { id, count } = clusterIds(g.cells, null, n, 2 ** g.level);
+  const hull = new Int32Array(2 * n * count);
+  for (let q = 0; q < count; q++) {
+    for (let a = 0; a < n; a++) {
+      hull[2 * (q * n + a)] = 2 ** 30;
+      hull[2 * (q * n + a) + 1] = -1;
+    }
+  }
+  const sets: Set<number>[] = Array.from({ length: count }, () => new Set<number>());
+  for (let c = 0; c < K; c++) {
+    const q = id[c]!;
+    for (let a = 0; a < n; a++) {
+      const i = g.cells[c * n + a]!;
+      if (i < hull[2 * (q * n + a)]!) hull[2 * (q * n + a)] = i;
+      if (i > hull[2 * (q * n + a) + 1]!) hull[2 * (q * n + a) + 1] = i;
+    }
+    for (let j = g.succStart[c]!; j < g.succStart[c + 1]!; j++) sets[q]!.add(id[g.succ[j]!]!);
+  }
+  const succStart = new Int32Array(count + 1);
+  const succ: number[] = [];
+  for (let q = 0; q < count; q++) {
+    for (const t of [...sets[q]!].sort((x, y) => x - y)) succ.push(t);
+    succStart[q + 1] = succ.length;
+  }
+  return { n, region: g.region, edges: g.edges, count, hull, succStart, succ: Int32Array.from(succ) };
+}
+
+/** The shooting box (2N doubles) of a closed path of clusters: the hulls of its clusters. */
+export function pathBox(g: ClusterGraph, path: Int32Array, out: Float64Array): void {
   const n = g.n;
   for (let i = 0; i < path.length; i++) {
-    const c = path[i]!;
+    const q = path[i]!;
     for (let a = 0; a < n; a++) {
-      const j = g.cells[c * n + a]!;
-      out[2 * (i * n + a)] = g.edges[a]![j]!;
-      out[2 * (i * n + a) + 1] = g.edges[a]![j + 1]!;
+      out[2 * (i * n + a)] = g.edges[a]![g.hull[2 * (q * n + a)]!]!;
+      out[2 * (i * n + a) + 1] = g.edges[a]![g.hull[2 * (q * n + a) + 1]! + 1]!;
     }
   }
 }
 
 export interface CycleVerdict {
-  /** The path's cells (indices into the graph). */
+  /** The path's clusters (indices into the cluster graph). */
   readonly path: Int32Array;
   /** Cover code of the path's shooting box (search.ts coding). */
   readonly code: string;
@@ -357,8 +578,8 @@ export interface CycleVerdict {
   readonly nodes: number;
 }
 
-/** Decides every closed path of length p (paths with index % stride === offset only, for pieces). */
-export function decideCycles(map: FormulaMap, g: BoxGraph, p: number, offset = 0, stride = 1): CycleVerdict[] {
+/** Decides every closed path of length p (paths with index % stride === offset only, for workers). */
+export function decideCycles(map: FormulaMap, g: ClusterGraph, p: number, offset = 0, stride = 1): CycleVerdict[] {
   const counter = new ShootingCounter(map, p, g.region, 0);
   const root = new Float64Array(2 * p * g.n);
   const out: CycleVerdict[] = [];

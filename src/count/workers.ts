@@ -7,7 +7,7 @@ import { Worker } from 'node:worker_threads';
 import type { MapDefinition } from '../model/types.js';
 import type { PieceRunner, PieceTask } from './run.js';
 import type { PieceResult } from './search.js';
-import type { BoxGraph, CycleVerdict } from './boxgraph.js';
+import type { ClusterGraph, CycleVerdict } from './boxgraph.js';
 
 export function workerRunner(definition: MapDefinition, region: Float64Array, pieceDepth: number, count: number): PieceRunner {
   const url = new URL('./worker.js', import.meta.url);
@@ -53,17 +53,17 @@ export function workerRunner(definition: MapDefinition, region: Float64Array, pi
 
 /** Decides the closed paths of one period on K worker threads (worker i takes paths i, i + K, …). */
 export interface BoxGraphPool {
-  decide(period: number): Promise<CycleVerdict[]>;
+  decide(graph: ClusterGraph, period: number): Promise<CycleVerdict[]>;
   close(): Promise<void>;
 }
 
-export function boxGraphWorkers(definition: MapDefinition, graph: BoxGraph, count: number): BoxGraphPool {
+export function boxGraphWorkers(definition: MapDefinition, count: number): BoxGraphPool {
   const url = new URL('./boxgraph-worker.js', import.meta.url);
-  const data = { definition: JSON.parse(JSON.stringify(definition)) as MapDefinition, graph };
+  const data = { definition: JSON.parse(JSON.stringify(definition)) as MapDefinition };
   const workers: Worker[] = [];
   for (let i = 0; i < count; i++) workers.push(new Worker(url, { workerData: data }));
   return {
-    decide(period: number): Promise<CycleVerdict[]> {
+    decide(graph: ClusterGraph, period: number): Promise<CycleVerdict[]> {
       return Promise.all(
         workers.map(
           (w, i) =>
@@ -72,7 +72,7 @@ export function boxGraphWorkers(definition: MapDefinition, graph: BoxGraph, coun
               w.removeAllListeners('error');
               w.once('message', (r: CycleVerdict[]) => resolve(r));
               w.once('error', reject);
-              w.postMessage({ period, offset: i, stride: count });
+              w.postMessage({ graph, period, offset: i, stride: count });
             }),
         ),
       ).then((shares) => {

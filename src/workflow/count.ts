@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
 import { buildBoxGraphCountCertificate, buildCountCertificate, buildCountPart, type CountHeader } from '../certificate/count.js';
-import { countByBoxGraph, DEFAULT_BOX_GRAPH_LEVEL, DEFAULT_BOX_GRAPH_START } from './count-box-graph.js';
+import { countByBoxGraph, DEFAULT_BOX_GRAPH_LEVEL, DEFAULT_BOX_GRAPH_MAX_LEVEL, DEFAULT_BOX_GRAPH_START } from './count-box-graph.js';
 import { writeFileAtomic } from '../certificate/write.js';
 import type { BoxGraphCountCertificateV1, CountCertificateV1, CountClaims, CountPartV1, CountPeriodEntry, DecimalInterval } from '../certificate/types.js';
 import { COUNT_ALPHABET } from '../certificate/types.js';
@@ -18,6 +18,7 @@ import { workerRunner } from '../count/workers.js';
 import { decimalOfDouble } from '../interval/decimal-literal.js';
 import { compileMap, type FormulaMap } from '../model/compile.js';
 import { UserError } from '../errors.js';
+import { MAX_BOX_GRAPH_GRID_LOG2 } from '../certificate/limits.js';
 
 export interface CountProgress {
   done: number;
@@ -45,8 +46,10 @@ export interface CountRequest {
    * (default for n ≥ 2; src/count/boxgraph.ts).
    */
   method?: 'shooting' | 'box-graph';
-  /** Box-graph method: finest level of the cover (2^level slabs per coordinate). */
+  /** Box-graph method: level of the base cover (2^level slabs per coordinate). */
   level?: number;
+  /** Box-graph method: finest level of the per-period refinement. */
+  maxLevel?: number;
   /** Box-graph method: first level of the cover. */
   startLevel?: number;
 }
@@ -74,7 +77,7 @@ export interface CountReport {
   periods: PeriodCount[];
   certificate: CountCertificateV1 | CountPartV1 | BoxGraphCountCertificateV1;
   /** Present for the box-graph method: the cover's level and size, and the closed paths per period. */
-  boxGraph?: { level: number; startLevel: number; cells: number; edges: number; cyclesByPeriod: Record<string, number> };
+  boxGraph?: { level: number; startLevel: number; cells: number; perPeriod: { period: number; level: number; cells: number; clusters: number; cycles: number }[] };
   file: string | null;
   check: CheckReport | null;
   elapsedMs: number;
@@ -177,15 +180,16 @@ export async function countOrbits(req: CountRequest): Promise<CountReport> {
   };
 }
 
-const MAX_BOX_GRAPH_LEVEL = 12;
-
 async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64Array, widened: boolean, region: DecimalInterval[], periods: number[]): Promise<CountReport> {
   const map = req.map;
   const def = map.definition;
   if (req.shard) throw new UserError('bad-option', 'shards are not available for the box-graph method yet', 'run without --shard, or give --method shooting', '--shard');
   const level = req.level ?? DEFAULT_BOX_GRAPH_LEVEL;
   const startLevel = Math.min(req.startLevel ?? DEFAULT_BOX_GRAPH_START, level);
-  if (!Number.isInteger(level) || level < 0 || level > MAX_BOX_GRAPH_LEVEL) throw new UserError('bad-option', `box-graph level must be 0..${MAX_BOX_GRAPH_LEVEL}`, 'e.g. 8 (256 slabs per coordinate)', '--level');
+  const maxLevel = req.maxLevel ?? DEFAULT_BOX_GRAPH_MAX_LEVEL;
+  const top = Math.floor(MAX_BOX_GRAPH_GRID_LOG2 / map.dim);
+  if (!Number.isInteger(level) || level < 0 || level > top) throw new UserError('bad-option', `box-graph level must be 0..${top}`, 'e.g. 6 (64 slabs per coordinate)', '--level');
+  if (!Number.isInteger(maxLevel) || maxLevel < 0 || maxLevel > top) throw new UserError('bad-option', `box-graph finest level must be 0..${top}`, 'e.g. 15', '--max-level');
   const workers = Math.max(1, req.workers ?? 1);
   const res = await countByBoxGraph({
     map,
@@ -194,11 +198,12 @@ async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64
     periods,
     level,
     startLevel,
+    maxLevel,
     workers,
     onPeriodDone: (done, total, period) => req.onProgress?.({ done, total, period }),
   });
   const perPeriod = res.stats.map((st) => periodCount(st.period, st.claims, st.nodes, st.elapsedMs));
-  const certificate = buildBoxGraphCountCertificate({ definition: def, region }, res.graphV1, res.entries);
+  const certificate = buildBoxGraphCountCertificate({ definition: def, region }, { startLevel, level }, res.entries);
   let file: string | null = null;
   if (req.out) file = writeFileAtomic(req.out, JSON.stringify(certificate) + '\n', { force: req.force });
   const check = req.check !== false ? checkCertificate(certificate) : null;
@@ -215,9 +220,8 @@ async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64
     boxGraph: {
       level,
       startLevel,
-      cells: res.graphV1.cells.length,
-      edges: res.graph.succ.length,
-      cyclesByPeriod: Object.fromEntries(res.stats.map((st) => [String(st.period), st.cycles])),
+      cells: res.base.succStart.length - 1,
+      perPeriod: res.stats.map((st) => ({ period: st.period, level: st.level, cells: st.cells, clusters: st.clusters, cycles: st.cycles })),
     },
     file,
     check,

@@ -23,7 +23,7 @@ function resign(c: BoxGraphCountCertificateV1): BoxGraphCountCertificateV1 {
 describe('checker: box-graph count certificates', () => {
   it('verifies a genuine certificate and rejects tampered ones', async () => {
     const henon = compileMap(getCatalogueMap('henon')!);
-    const rep = await countOrbits({ map: henon, periods: [1, 2, 3, 4], region: [['-2', '2'], ['-2', '2']], level: 5, check: false });
+    const rep = await countOrbits({ map: henon, periods: [1, 2, 3, 4], region: [['-2', '2'], ['-2', '2']], level: 5, maxLevel: 8, check: false });
     const cert = rep.certificate as BoxGraphCountCertificateV1;
     expect(cert.kind).toBe('periodic-orbit-count-box-graph');
     expect(cert.counts.map((e) => e.claims.orbitsByMinimalPeriod[String(e.period)])).toEqual([2, 1, 0, 1]); // Galias 2001, from memory
@@ -32,18 +32,20 @@ describe('checker: box-graph count certificates', () => {
 
     // drop a box: a cell of the invariant part removed (with its edges, indices renumbered)
     const dropBox = clone();
-    const i = Math.floor(dropBox.graph.cells.length / 2);
-    dropBox.graph.cells.splice(i, 1);
-    dropBox.graph.successors.splice(i, 1);
-    dropBox.graph.successors = dropBox.graph.successors.map((l) => l.filter((t) => t !== i).map((t) => (t > i ? t - 1 : t)));
+    const g4 = dropBox.counts.find((e) => e.period === 4)!.graph;
+    const i = Math.floor(g4.cells.length / 2);
+    g4.cells.splice(i, 1);
+    g4.successors.splice(i, 1);
+    g4.successors = g4.successors.map((l) => l.filter((t) => t !== i).map((t) => (t > i ? t - 1 : t)));
     const r1 = checkCertificate(resign(dropBox));
     expect(r1.verdict).toBe('REJECTED');
     expect(r1.reason).toMatch(/box is missing/);
 
     // drop an edge
     const dropEdge = clone();
-    const j = dropEdge.graph.successors.findIndex((l) => l.length > 1);
-    dropEdge.graph.successors[j]!.pop();
+    const e4g = dropEdge.counts.find((e) => e.period === 4)!.graph;
+    const j = e4g.successors.findIndex((l) => l.length > 1);
+    e4g.successors[j]!.pop();
     const r2 = checkCertificate(resign(dropEdge));
     expect(r2.verdict).toBe('REJECTED');
     expect(r2.reason).toMatch(/edge is missing/);
