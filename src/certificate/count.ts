@@ -43,9 +43,9 @@ export function buildCountPart(h: CountHeader, shard: { index: number; count: nu
 }
 
 /** A count certificate of the box-graph method (kind "periodic-orbit-count-box-graph"). */
-export function buildBoxGraphCountCertificate(h: Omit<CountHeader, 'pieceDepth'>, cover: { startLevel: number; level: number }, counts: BoxGraphCountEntry[]): BoxGraphCountCertificateV1 {
+export function buildBoxGraphCountCertificate(h: Omit<CountHeader, 'pieceDepth'>, cover: BoxGraphCountCertificateV1['cover'], counts: BoxGraphCountEntry[]): BoxGraphCountCertificateV1 {
   const { pieceDepth, ...rest } = header({ ...h, pieceDepth: 0 });
   void pieceDepth;
-  const unsigned = { ...rest, kind: 'periodic-orbit-count-box-graph' as const, cover: { ...cover }, counts: [...counts].sort((a, b) => a.period - b.period) };
+  const unsigned = { ...rest, kind: 'periodic-orbit-count-box-graph' as const, cover: { ...cover, grid: cover.grid.map((g) => [g[0], g[1]] as DecimalInterval) }, counts: [...counts].sort((a, b) => a.period - b.period) };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

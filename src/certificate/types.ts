@@ -167,7 +167,7 @@ export const CERTIFICATE_KIND_BOX_GRAPH_COUNT = 'periodic-orbit-count-box-graph'
 
 /**
  * The box graph of one period of a count by the box-graph method (n ≥ 2): the grid of level
- * `level` cuts each region interval into 2^level equal slabs (every edge an exact binary
+ * `level` cuts each interval of the cover's `grid` into 2^level equal slabs (every edge an exact binary
  * fraction); `cells` are the kept cells as keys k = Σ_a i_a·2^(level·(n−1−a)) in increasing
  * order; `successors[c]` the indices (into `cells`, increasing) of the cells that cell c's image
  * meets. Refined from the certificate's base cover, level by level, keeping cells on closed walks
@@ -200,10 +200,11 @@ export interface BoxGraphCountCertificateV1 {
   map: CertificateMap;
   region: DecimalInterval[];
   /**
-   * The base cover: from level `startLevel` (all cells) to `level`, cells without a successor or
-   * a predecessor dropped at each level (the invariant part of the region).
+   * The base cover: the grid cuts the box `grid` (⊇ region; its ends are exact binary fractions,
+   * every cell edge lo + i·(hi − lo)/2^level too); from level `startLevel` (all cells) to `level`,
+   * cells without a successor or a predecessor dropped at each level (the invariant part).
    */
-  cover: { startLevel: number; level: number };
+  cover: { startLevel: number; level: number; grid: DecimalInterval[] };
   counts: BoxGraphCountEntry[];
   sha256: string;
 }

@@ -23,7 +23,7 @@
  */
 import { Decimal } from 'decimal.js';
 import { Evaluator } from './formula.js';
-import { DomainViolation, type Iv, type IvCtx } from './interval.js';
+import { DomainViolation, isDecimalLiteral, type Iv, type IvCtx } from './interval.js';
 import { image, type Shooting } from './krawczyk.js';
 import { MAX_BOX_GRAPH_GRID_LOG2 } from '../certificate/limits.js';
 import { arr, classify, Hi, int, obj, readCountHeader, reject, replayTree, type CountCheckLimits, type Zero } from './count.js';
@@ -217,7 +217,18 @@ export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLim
   const { c, params, step, n, region } = readCountHeader(d, digits, limits);
   if (n < 2) reject('$.map.state', 'the box-graph method is for dimension 2 or more');
   const cover = obj(d.cover, '$.cover');
-  for (const k of Object.keys(cover)) if (!['startLevel', 'level'].includes(k)) reject(`$.cover.${k}`, `unknown key ${JSON.stringify(k)} at $.cover`);
+  for (const k of Object.keys(cover)) if (!['startLevel', 'level', 'grid'].includes(k)) reject(`$.cover.${k}`, `unknown key ${JSON.stringify(k)} at $.cover`);
+  // the grid's box must hold the region (orbits in the region then lie in the cover)
+  const gridRaw = arr(cover.grid, '$.cover.grid');
+  if (gridRaw.length !== n) reject('$.cover.grid', `expected ${n} intervals at $.cover.grid`);
+  const gridBox = gridRaw.map((v, a) => {
+    const r = arr(v, `$.cover.grid[${a}]`);
+    if (r.length !== 2 || typeof r[0] !== 'string' || typeof r[1] !== 'string' || !isDecimalLiteral(r[0]) || !isDecimalLiteral(r[1])) reject(`$.cover.grid[${a}]`, 'expected [lo, hi] as decimal strings');
+    const lo = new Hi(r[0] as string);
+    const hi = new Hi(r[1] as string);
+    if (!(lo.lte(region[a]!.lo) && hi.gte(region[a]!.hi))) reject(`$.cover.grid[${a}]`, 'the grid box does not hold the region');
+    return { lo, hi };
+  });
   const maxLevel = Math.floor(MAX_BOX_GRAPH_GRID_LOG2 / n);
   const baseLevel = int(cover.level, '$.cover.level', 0, maxLevel);
   const start = int(cover.startLevel, '$.cover.startLevel', 0, baseLevel);
@@ -225,12 +236,12 @@ export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLim
   // the base cover, the checker's own
   const all: number[] = [];
   for (let k = 0; k < 2 ** (n * start); k++) all.push(k);
-  const base = refine(s0, region, all, start, baseLevel, pruneDegrees);
+  const base = refine(s0, gridBox, all, start, baseLevel, pruneDegrees);
   // 3.–4. every closed path of each period, replayed; counts compared
   const counts = arr(d.counts, '$.counts');
   if (counts.length === 0) reject('$.counts', 'no counts');
   const seen = new Set<number>();
-  const width = region.map((r) => Hi.sub(r.hi, r.lo));
+  const width = gridBox.map((r) => Hi.sub(r.hi, r.lo));
   counts.forEach((entry, e) => {
     const path = `$.counts[${e}]`;
     const o = obj(entry, path);
@@ -242,7 +253,7 @@ export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLim
     const gr = obj(o.graph, `${path}.graph`);
     for (const k of Object.keys(gr)) if (!['level', 'cells', 'successors'].includes(k)) reject(`${path}.graph.${k}`, `unknown key ${JSON.stringify(k)} at ${path}.graph`);
     const level = int(gr.level, `${path}.graph.level`, baseLevel, maxLevel);
-    const g = grid(region, level);
+    const g = grid(gridBox, level);
     const side = g.side;
     const cells = arr(gr.cells, `${path}.graph.cells`).map((v, i) => int(v, `${path}.graph.cells[${i}]`, 0, side ** n - 1));
     for (let i = 1; i < cells.length; i++) if (!(cells[i]! > cells[i - 1]!)) reject(`${path}.graph.cells[${i}]`, 'cells must be strictly increasing');
@@ -255,7 +266,7 @@ export function checkBoxGraphCount(d: Obj, digits: number, limits: CountCheckLim
     // 1. the cover: the checker's own refinement for period p lies inside the listed cells
     const index = new Map<number, number>();
     cells.forEach((k, i) => index.set(k, i));
-    for (const k of refine(s0, region, base, baseLevel, level, (succ) => onClosedWalks(succ, p))) {
+    for (const k of refine(s0, gridBox, base, baseLevel, level, (succ) => onClosedWalks(succ, p))) {
       if (!index.has(k)) reject(`${path}.graph.cells`, `cell ${k} (grid coordinates ${coordsOf(k, g).join(', ')}) may hold a point of period ${p} but is not listed (a box is missing)`);
     }
     // 2. the graph: every listed cell the image meets is a listed successor

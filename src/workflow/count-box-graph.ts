@@ -28,7 +28,10 @@ export interface BoxGraphCountResult {
 
 export interface BoxGraphCountRequest {
   map: FormulaMap;
+  /** The region of the claim (exact doubles). */
   region: Float64Array;
+  /** The box the grid cuts (⊇ region, ends multiples of a quarter of its power-of-two width). */
+  grid: Float64Array;
   regionText: DecimalInterval[];
   periods: readonly number[];
   level: number;
@@ -41,7 +44,7 @@ export interface BoxGraphCountRequest {
 export async function countByBoxGraph(req: BoxGraphCountRequest): Promise<BoxGraphCountResult> {
   const { map, region } = req;
   const n = map.dim;
-  const base = buildBoxGraph(map, region, { level: req.level, startLevel: req.startLevel });
+  const base = buildBoxGraph(map, req.grid, { level: req.level, startLevel: req.startLevel });
   const entries: BoxGraphCountEntry[] = [];
   const stats: BoxGraphCountResult['stats'] = [];
   const pool = req.workers > 1 ? boxGraphWorkers(map.definition, req.workers) : null;
@@ -80,4 +83,29 @@ export function graphV1(g: BoxGraph): BoxGraphV1 {
     successors.push(Array.from(g.succ.subarray(g.succStart[c]!, g.succStart[c + 1]!)));
   }
   return { level: g.level, cells, successors };
+}
+
+/**
+ * A box G ⊇ R whose grid edges are exact doubles at every level ≥ 2: per coordinate a width W, a
+ * power of two, and lo' a multiple of W/4 (so every edge lo' + i·W/2^L is a multiple of W/2^L).
+ * Orbits in R lie in G; the claim stays about R.
+ */
+export function dyadicGrid(region: Float64Array): Float64Array {
+  const out = new Float64Array(region.length);
+  for (let a = 0; a < region.length / 2; a++) {
+    const lo = region[2 * a]!;
+    const hi = region[2 * a + 1]!;
+    let W = 2 ** Math.ceil(Math.log2(hi - lo));
+    for (;;) {
+      const q = W / 4;
+      const l = Math.floor(lo / q) * q;
+      if (l <= lo && l + W >= hi) {
+        out[2 * a] = l;
+        out[2 * a + 1] = l + W;
+        break;
+      }
+      W *= 2;
+    }
+  }
+  return out;
 }

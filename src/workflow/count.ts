@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
 import { buildBoxGraphCountCertificate, buildCountCertificate, buildCountPart, type CountHeader } from '../certificate/count.js';
-import { countByBoxGraph, DEFAULT_BOX_GRAPH_LEVEL, DEFAULT_BOX_GRAPH_MAX_LEVEL, DEFAULT_BOX_GRAPH_START } from './count-box-graph.js';
+import { countByBoxGraph, dyadicGrid, DEFAULT_BOX_GRAPH_LEVEL, DEFAULT_BOX_GRAPH_MAX_LEVEL, DEFAULT_BOX_GRAPH_START } from './count-box-graph.js';
 import { writeFileAtomic } from '../certificate/write.js';
 import type { BoxGraphCountCertificateV1, CountCertificateV1, CountClaims, CountPartV1, CountPeriodEntry, DecimalInterval } from '../certificate/types.js';
 import { COUNT_ALPHABET } from '../certificate/types.js';
@@ -191,9 +191,11 @@ async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64
   if (!Number.isInteger(level) || level < 0 || level > top) throw new UserError('bad-option', `box-graph level must be 0..${top}`, 'e.g. 6 (64 slabs per coordinate)', '--level');
   if (!Number.isInteger(maxLevel) || maxLevel < 0 || maxLevel > top) throw new UserError('bad-option', `box-graph finest level must be 0..${top}`, 'e.g. 15', '--max-level');
   const workers = Math.max(1, req.workers ?? 1);
+  const grid = dyadicGrid(box);
   const res = await countByBoxGraph({
     map,
     region: box,
+    grid,
     regionText: region,
     periods,
     level,
@@ -203,7 +205,7 @@ async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64
     onPeriodDone: (done, total, period) => req.onProgress?.({ done, total, period }),
   });
   const perPeriod = res.stats.map((st) => periodCount(st.period, st.claims, st.nodes, st.elapsedMs));
-  const certificate = buildBoxGraphCountCertificate({ definition: def, region }, { startLevel, level }, res.entries);
+  const certificate = buildBoxGraphCountCertificate({ definition: def, region }, { startLevel, level, grid: Array.from({ length: map.dim }, (_, a) => [decimalOfDouble(grid[2 * a]!), decimalOfDouble(grid[2 * a + 1]!)] as DecimalInterval) }, res.entries);
   let file: string | null = null;
   if (req.out) file = writeFileAtomic(req.out, JSON.stringify(certificate) + '\n', { force: req.force });
   const check = req.check !== false ? checkCertificate(certificate) : null;
