@@ -4,20 +4,23 @@
  * evaluator, its own Krawczyk (checker/count.ts, krawczyk.ts).
  *
  * What it re-derives, and why that proves the counts:
+ *  0. The grid box `cover.grid` holds the region (orbits in the region lie in the grid box).
  *  1. The cover. Grid of level l: cell (i_a) = Π [e_a(i_a), e_a(i_a + 1)], e_a(i) = lo_a + i·(hi_a −
  *     lo_a)/2^l computed exactly. From `startLevel` (all cells) to `level` it computes each cell's
  *     image here, keeps cells having a successor and a predecessor (repeated until stable) and
- *     splits the kept ones. Every periodic orbit with all points in the region stays in kept
- *     cells (a point x in cell c has f(x) in a kept cell that f(c) meets; likewise backwards).
- *     Its own final set must lie inside the listed `cells` (so every orbit lies in listed cells).
+ *     splits the kept ones: every periodic orbit in the grid box stays in kept cells (a point x in
+ *     cell c has f(x) in a kept cell that f(c) meets; likewise backwards). Per period p it goes on
+ *     from that base to the entry's level keeping only cells on closed walks of exactly p edges
+ *     (the cells of an orbit of period dividing p form one). Its own final cells must all be listed.
  *  2. The graph. For every listed cell it computes the image here; every listed cell that the
- *     image meets (closed boxes) must be a listed successor. An orbit then runs along a closed path
- *     of the listed graph.
- *  3. The paths. It enumerates every closed path of length p with its least cell first, in
- *     lexicographic order, itself; each path's shooting box is replayed from the next subtree of
- *     `code` (checker/count.ts: every leaf decided here; '?' counted as undecided). Each orbit is
- *     in some rotation inside some enumerated path, so the zeros found, completed by their cyclic
- *     shifts (σ^k z is the only zero in σ^k X̃), are all zeros of the shooting system in the cover.
+ *     image meets (closed boxes) must be a listed successor. An orbit then runs along a closed walk
+ *     of the listed graph, hence of the graph of clusters (touching listed cells, computed here).
+ *  3. The paths. It enumerates every closed path of length p of the cluster graph with its least
+ *     cluster first, in lexicographic order, itself; each path's shooting box (hulls of its
+ *     clusters) is replayed from the next subtree of `code` (checker/count.ts: every leaf decided
+ *     here; '?' counted as undecided). Each orbit is in some rotation inside some enumerated path,
+ *     so the zeros found, completed by their cyclic shifts (σ^k z is the only zero in σ^k X̃), are
+ *     all zeros of the shooting system in the cover.
  *  4. Identification, region membership, minimal period: as for count certificates (classify).
  * The claimed numbers must equal the derived ones.
  */
