@@ -43,7 +43,7 @@ export async function runBoxGraphBench(): Promise<string[]> {
   lines.push(`  orbits by minimal period: ${counts.join(', ')}`);
   const differ = counts.map((c, i) => (i < GALIAS_2001.length && c !== GALIAS_2001[i] ? `p${i + 1}: ${c} vs ${GALIAS_2001[i]}` : '')).filter(Boolean);
   lines.push(`  against Galias 2001 (from memory): ${differ.length === 0 ? 'all agree' : 'DIFFER at ' + differ.join('; ')}`);
-  lines.push(`  per period (s): ${one!.r.periods.map((p) => `${p.period}:${(p.elapsedMs / 1000).toFixed(1)}`).join(' ')}`);
+  lines.push(`  periods finished at (s): ${one!.r.periods.map((p) => `${p.period}:${(p.elapsedMs / 1000).toFixed(1)}`).join(' ')}`);
   const last = one!.r.periods[one!.r.periods.length - 1]!;
   if (last.growthRateEstimate !== null) lines.push(`  estimate (not proven): (1/p)·log(points) at p = ${last.period}: ${last.growthRateEstimate.toFixed(4)} (topological entropy of this map ≈ 0.465, from memory)`);
   const small = await countOrbits({ map: henon, periods: upto(PC), region, check: false });

@@ -613,3 +613,16 @@ export function withRotations(zeros: Float64Array, p: number, n: number): Float6
   }
   return out;
 }
+
+/** One period done completely: its refined graph, the cluster count and the verdicts of its closed paths. */
+export interface PeriodOutcome {
+  readonly graph: BoxGraph;
+  readonly clusters: number;
+  readonly verdicts: CycleVerdict[];
+}
+
+export function countPeriod(map: FormulaMap, base: BoxGraph, p: number, maxLevel: number): PeriodOutcome {
+  const graph = refineForPeriod(map, base, p, { maxLevel: Math.max(maxLevel, base.level) });
+  const cg = clusterGraph(graph);
+  return { graph, clusters: cg.count, verdicts: decideCycles(map, cg, p) };
+}

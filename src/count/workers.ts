@@ -7,7 +7,7 @@ import { Worker } from 'node:worker_threads';
 import type { MapDefinition } from '../model/types.js';
 import type { PieceRunner, PieceTask } from './run.js';
 import type { PieceResult } from './search.js';
-import type { ClusterGraph, CycleVerdict } from './boxgraph.js';
+import type { BoxGraph, PeriodOutcome } from './boxgraph.js';
 
 export function workerRunner(definition: MapDefinition, region: Float64Array, pieceDepth: number, count: number): PieceRunner {
   const url = new URL('./worker.js', import.meta.url);
@@ -51,9 +51,9 @@ export function workerRunner(definition: MapDefinition, region: Float64Array, pi
   };
 }
 
-/** Decides the closed paths of one period on K worker threads (worker i takes paths i, i + K, …). */
+/** Whole periods of a box-graph count on K worker threads (one period in flight per worker). */
 export interface BoxGraphPool {
-  decide(graph: ClusterGraph, period: number): Promise<CycleVerdict[]>;
+  countPeriods(base: BoxGraph, periods: readonly number[], maxLevel: number, onDone: (p: number, r: PeriodOutcome) => void): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -63,24 +63,35 @@ export function boxGraphWorkers(definition: MapDefinition, count: number): BoxGr
   const workers: Worker[] = [];
   for (let i = 0; i < count; i++) workers.push(new Worker(url, { workerData: data }));
   return {
-    decide(graph: ClusterGraph, period: number): Promise<CycleVerdict[]> {
-      return Promise.all(
-        workers.map(
-          (w, i) =>
-            new Promise<CycleVerdict[]>((resolve, reject) => {
-              w.removeAllListeners('message');
-              w.removeAllListeners('error');
-              w.once('message', (r: CycleVerdict[]) => resolve(r));
-              w.once('error', reject);
-              w.postMessage({ graph, period, offset: i, stride: count });
-            }),
-        ),
-      ).then((shares) => {
-        // back to enumeration order: path j is share j % K, position ⌊j / K⌋
-        const total = shares.reduce((s, x) => s + x.length, 0);
-        const out: CycleVerdict[] = [];
-        for (let j = 0; j < total; j++) out.push(shares[j % count]![Math.floor(j / count)]!);
-        return out;
+    countPeriods(base, periods, maxLevel, onDone): Promise<void> {
+      return new Promise((resolve, reject) => {
+        // heavy (long) periods first
+        const queue = [...periods].sort((a, b) => b - a);
+        let pending = 0;
+        let failed = false;
+        const feed = (w: Worker): void => {
+          const p = queue.shift();
+          if (p !== undefined) {
+            pending++;
+            w.postMessage({ base, period: p, maxLevel });
+          } else if (pending === 0) resolve();
+        };
+        for (const w of workers) {
+          w.removeAllListeners('message');
+          w.removeAllListeners('error');
+          w.on('message', (r: { period: number; outcome: PeriodOutcome }) => {
+            pending--;
+            if (failed) return;
+            onDone(r.period, r.outcome);
+            feed(w);
+          });
+          w.on('error', (e) => {
+            failed = true;
+            reject(e);
+          });
+        }
+        if (queue.length === 0) resolve();
+        for (const w of workers) feed(w);
       });
     },
     async close() {

@@ -2,11 +2,11 @@
  * The count workflow for maps of R^n, n ≥ 2, by the box-graph method (src/count/boxgraph.ts):
  * build the base cover (the invariant part) once; per period refine it to the cells on closed
  * walks of that length, group touching cells into clusters, decide every closed path of the
- * cluster graph (in this thread or on worker threads, each worker a fixed share of the paths),
+ * cluster graph (in this thread, or whole periods on worker threads),
  * classify the zeros, and give the certificate entries. Returns data; never prints.
  */
 import type { BoxGraphCountEntry, BoxGraphV1, CountClaims, DecimalInterval } from '../certificate/types.js';
-import { buildBoxGraph, clusterGraph, decideCycles, refineForPeriod, withRotations, type BoxGraph, type CycleVerdict } from '../count/boxgraph.js';
+import { buildBoxGraph, countPeriod, withRotations, type BoxGraph, type PeriodOutcome } from '../count/boxgraph.js';
 import { classifyZeros } from '../count/classify.js';
 import { exactZeroTest } from '../count/run.js';
 import { boxGraphWorkers } from '../count/workers.js';
@@ -47,25 +47,36 @@ export async function countByBoxGraph(req: BoxGraphCountRequest): Promise<BoxGra
   const base = buildBoxGraph(map, req.grid, { level: req.level, startLevel: req.startLevel });
   const entries: BoxGraphCountEntry[] = [];
   const stats: BoxGraphCountResult['stats'] = [];
-  const pool = req.workers > 1 ? boxGraphWorkers(map.definition, req.workers) : null;
-  try {
-    let done = 0;
-    for (const p of req.periods) {
-      const t0 = performance.now();
-      const g = refineForPeriod(map, base, p, { maxLevel: Math.max(req.maxLevel, base.level) });
-      const cg = clusterGraph(g);
-      let verdicts: CycleVerdict[];
-      if (pool) verdicts = await pool.decide(cg, p);
-      else verdicts = decideCycles(map, cg, p);
-      const zeroSets = verdicts.map((v) => withRotations(v.zeros, p, n));
-      const undecided = verdicts.reduce((s, v) => s + v.undecided, 0);
-      const claims = classifyZeros(zeroSets, p, n, region, undecided, exactZeroTest(map, p));
-      entries.push({ period: p, graph: graphV1(g), cycles: verdicts.length, code: verdicts.map((v) => v.code).join(''), claims });
-      stats.push({ period: p, level: g.level, cells: g.succStart.length - 1, clusters: cg.count, cycles: verdicts.length, nodes: verdicts.reduce((s, v) => s + v.nodes, 0), claims, elapsedMs: performance.now() - t0 });
-      req.onPeriodDone?.(++done, req.periods.length, p);
+  const outcomes = new Map<number, PeriodOutcome>();
+  const elapsed = new Map<number, number>();
+  const t0 = performance.now();
+  let done = 0;
+  const finish = (p: number, r: PeriodOutcome): void => {
+    outcomes.set(p, r);
+    elapsed.set(p, performance.now() - t0);
+    req.onPeriodDone?.(++done, req.periods.length, p);
+  };
+  const workers = Math.min(req.workers, req.periods.length);
+  if (workers > 1) {
+    const pool = boxGraphWorkers(map.definition, workers);
+    try {
+      await pool.countPeriods(base, req.periods, req.maxLevel, finish);
+    } finally {
+      await pool.close();
     }
-  } finally {
-    await pool?.close();
+  } else {
+    for (const p of req.periods) {
+      finish(p, countPeriod(map, base, p, req.maxLevel));
+      await new Promise<void>((r) => setImmediate(r));
+    }
+  }
+  for (const p of req.periods) {
+    const { graph: g, clusters, verdicts } = outcomes.get(p)!;
+    const zeroSets = verdicts.map((v) => withRotations(v.zeros, p, n));
+    const undecided = verdicts.reduce((s, v) => s + v.undecided, 0);
+    const claims = classifyZeros(zeroSets, p, n, region, undecided, exactZeroTest(map, p));
+    entries.push({ period: p, graph: graphV1(g), cycles: verdicts.length, code: verdicts.map((v) => v.code).join(''), claims });
+    stats.push({ period: p, level: g.level, cells: g.succStart.length - 1, clusters, cycles: verdicts.length, nodes: verdicts.reduce((s, v) => s + v.nodes, 0), claims, elapsedMs: elapsed.get(p) ?? 0 });
   }
   return { base, entries, stats };
 }

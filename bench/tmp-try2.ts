@@ -1,0 +1,10 @@
+import { compileMap, getCatalogueMap } from '../src/model/index.js';
+import { countOrbits } from '../src/workflow/count.js';
+const henon = compileMap(getCatalogueMap('henon')!);
+const P = Number(process.argv[2] ?? 5);
+const L = Number(process.argv[3] ?? 8);
+const W = Number(process.argv[4] ?? 1);
+const chk = process.argv[5] !== 'nocheck';
+const t = performance.now();
+const rep = await countOrbits({ map: henon, periods: Array.from({ length: P }, (_, i) => i + 1), region: [['-2', '2'], ['-2', '2']], level: L, workers: W, check: chk });
+console.log(JSON.stringify(rep.boxGraph), rep.periods.map((p) => `${p.period}:${p.claims.orbitsByMinimalPeriod[String(p.period)]}${p.exact ? '' : '?'}`).join(' '), rep.check?.verdict, rep.check?.reason ?? '', ((performance.now() - t) / 1000).toFixed(1), 's', rep.periods.map(p=>(p.elapsedMs/1000).toFixed(1)).join(' '));
