@@ -224,7 +224,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--pieces <k>', 'cut the work into 2^k pieces (default 6)')
     .option('--method <name>', 'shooting (branch and prune on region^P; n = 1 always) or box-graph (default for n >= 2)')
     .option('--level <L>', 'box graph: level of the base cover, 2^L slabs per coordinate (default 6)')
-    .option('--max-level <L>', 'box graph: finest level of the per-period refinement (default 15)')
+    .option('--max-level <L>', 'box graph: finest level of the per-period refinement (default 12)')
     .option('--out <file>', 'write the certificate (or partial certificate) here')
     .option('--force', 'replace an existing file')
     .option('--no-check', 'do not run the independent checker')

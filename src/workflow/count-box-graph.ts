@@ -17,7 +17,7 @@ export const DEFAULT_BOX_GRAPH_LEVEL = 6;
 /** Default first level of the base cover (every cell of it is kept before pruning). */
 export const DEFAULT_BOX_GRAPH_START = 2;
 /** Default finest level of the per-period refinement. */
-export const DEFAULT_BOX_GRAPH_MAX_LEVEL = 15;
+export const DEFAULT_BOX_GRAPH_MAX_LEVEL = 12;
 
 export interface BoxGraphCountResult {
   base: BoxGraph;

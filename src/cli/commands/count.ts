@@ -64,7 +64,7 @@ export async function countCommand(mapArg: string, o: CountCommandOptions, cwd =
     method = o.method;
   }
   const level = o.level !== undefined ? intOption(o.level, '--level', 0, 18, '6') : undefined;
-  const maxLevel = o.maxLevel !== undefined ? intOption(o.maxLevel, '--max-level', 0, 18, '15') : undefined;
+  const maxLevel = o.maxLevel !== undefined ? intOption(o.maxLevel, '--max-level', 0, 18, '12') : undefined;
   const showProgress = progress && !o.json;
   const report = await countOrbits({
     map,
