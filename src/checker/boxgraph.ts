@@ -81,11 +81,22 @@ function imageRanges(s: Shooting, g: Grid, key: number): [number, number][] | nu
     const e = g.edges[a]!;
     const y = f[a]!;
     if (y.hi.lt(e[0]!) || y.lo.gt(e[g.side]!)) return null;
-    let first = 0;
-    while (first < g.side - 1 && e[first + 1]!.lt(y.lo)) first++;
-    let last = g.side - 1;
-    while (last > first && e[last]!.gt(y.hi)) last--;
-    out.push([first, last]);
+    // first: least i with e[i + 1] ≥ lo; last: greatest i with e[i] ≤ hi (binary searches)
+    let a0 = 0;
+    let b0 = g.side - 1;
+    while (a0 < b0) {
+      const m = (a0 + b0) >> 1;
+      if (e[m + 1]!.gte(y.lo)) b0 = m;
+      else a0 = m + 1;
+    }
+    let a1 = a0;
+    let b1 = g.side - 1;
+    while (a1 < b1) {
+      const m = (a1 + b1 + 1) >> 1;
+      if (e[m]!.lte(y.hi)) a1 = m;
+      else b1 = m - 1;
+    }
+    out.push([a0, a1]);
   }
   return out;
 }
