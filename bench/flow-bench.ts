@@ -1,15 +1,20 @@
 /**
  * Flow integrator: validated steps per second (interval Taylor + Picard + Lohner QR, with and
- * without the variational equation) against a plain float64 Taylor integrator of the same
- * order on the same trajectory (the driven damped oscillator of examples/flows and the Lorenz
- * flow), and the time to prove the driven oscillator's time-T fixed point. One run; ratios
+ * without the variational equation) against the float64 Taylor integrator of the same order on
+ * the same trajectory (src/flow/float-series.ts, what the search uses; with Dφ when the validated
+ * run carries it), for the driven damped oscillator of examples/flows and the Lorenz flow; the
+ * time to prove the driven oscillator's time-T fixed point; the catalogue flows: time to search
+ * and prove the Lorenz orbits with 2, 3 and 4 crossings of z = 27 (with their flow periods and
+ * the mirror image of the 3-crossing orbit) and the forced Duffing fixed points. One run; ratios
  * measured in this run.
  */
 import { fileURLToPath } from 'node:url';
 import { compileFlowMap } from '../src/flow/compile.js';
 import { ValidatedFlow } from '../src/flow/integrate.js';
-import { SeriesEngine } from '../src/flow/taylor.js';
-import { createFloatArithmetic } from '../src/interval/float-arith.js';
+import { FloatSeries } from '../src/flow/float-series.js';
+import { encloseFlowPeriod } from '../src/flow/period.js';
+import { getCatalogueMap } from '../src/model/catalogue.js';
+import { findCandidates } from '../src/search/index.js';
 import { intervalArithmetic } from '../src/interval/interval-arith.js';
 import type { Interval } from '../src/interval/interval.js';
 import { proveOrbit } from '../src/prove/orbit.js';
@@ -27,23 +32,59 @@ const LORENZ: MapDefinition = {
   flow: { rhs: { x: 'sigma*(y - x)', y: 'x*(rho - z) - y', z: 'x*y - beta*z' }, duration: '1' },
 };
 
-function floatSteps(def: MapDefinition, x0: number[], order: number, hs: number[]): number {
+function floatSteps(def: MapDefinition, x0: number[], order: number, hs: number[], jac: boolean): number {
   const m = compileFlowMap(def, undefined, { order });
-  const eng = new SeriesEngine<number>(m.program, createFloatArithmetic(), m.enclosures, order);
-  const x = x0.slice();
+  const eng = new FloatSeries(m.program, m.enclosures, order, jac);
+  const n = x0.length;
+  const x = Float64Array.from(x0);
+  const m1 = jac ? n + 1 : 1;
+  const V = new Float64Array(n * n);
+  const J = new Float64Array(n * n);
+  const W = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) V[i * n + i] = 1;
   let t = 0;
   const t0 = performance.now();
-  for (const h of hs) {
-    eng.run(x, t, order - 1);
-    for (let i = 0; i < x.length; i++) {
-      const c = eng.xs[i]!;
-      let s = c[order]!;
-      for (let k = order - 1; k >= 0; k--) s = s * h + c[k]!;
-      x[i] = s;
+  for (let rep = 0; rep < 5; rep++) {
+    for (const h of hs) {
+      eng.run(x, t, order - 1);
+      for (let d = 1; d < m1; d++) for (let i = 0; i < n; i++) J[i * n + d - 1] = eng.stateAt(i, d, h, order);
+      for (let i = 0; i < n; i++) x[i] = eng.stateAt(i, 0, h, order);
+      if (jac) {
+        for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+          let s = 0;
+          for (let k = 0; k < n; k++) s += J[i * n + k]! * V[k * n + j]!;
+          W[i * n + j] = s;
+        }
+        V.set(W);
+      }
+      t += h;
     }
-    t += h;
   }
-  return hs.length / ((performance.now() - t0) / 1000);
+  return (5 * hs.length) / ((performance.now() - t0) / 1000);
+}
+
+/** Search (float) and prove the orbits of one period of a catalogue flow; one line per orbit. */
+function searchAndProve(name: string, period: number, lines: string[]): number[][][] {
+  const map = compileFlowMap(getCatalogueMap(name)!);
+  const t0 = performance.now();
+  const cands = findCandidates(map, { period });
+  const searchMs = performance.now() - t0;
+  lines.push(`${name} period ${period}: float search ${(searchMs / 1000).toFixed(1)} s, ${cands.length} candidates`);
+  const proven: number[][][] = [];
+  for (const c of cands) {
+    const t1 = performance.now();
+    const v = proveOrbit(map, c.points, { maxBits: 53 });
+    const ms = performance.now() - t1;
+    if (v.status !== 'proven') {
+      lines.push(`  candidate through (${c.points[0]!.map((x) => x.toFixed(4)).join(', ')}): ${v.status} (${v.reason}) in ${(ms / 1000).toFixed(1)} s`);
+      continue;
+    }
+    const T = encloseFlowPeriod(map, v.orbit.boxes);
+    const cls = v.orbit.stability.class !== 'undecided' ? v.orbit.stability.class : v.orbit.stability.proverOnly?.class ?? 'undecided';
+    lines.push(`  proven in ${(ms / 1000).toFixed(1)} s: through (${c.points[0]!.map((x) => x.toFixed(6)).join(', ')}), flow period ${T.ok ? `[${T.decimal.lo.slice(0, 12)}, ${T.decimal.hi.slice(0, 12)}]` : 'not enclosed'}, ${cls}`);
+    proven.push(c.points.map((p) => [...p]));
+  }
+  return proven;
 }
 
 function validated(def: MapDefinition, x0: number[], order: number, time: number, jac: boolean): { rate: number; hs: number[]; width: number } {
@@ -69,13 +110,27 @@ export async function runFlowBench(): Promise<string[]> {
   for (const [name, def, x0, time] of [['driven oscillator', DRIVEN, [-1.27, 0.62], 50], ['Lorenz', LORENZ, [-13.76, -19.58, 27], 2]] as const) {
     for (const jac of [false, true]) {
       const v = validated(def, [...x0], 16, time, jac);
-      const f = floatSteps(def, [...x0], 16, v.hs);
+      const f = floatSteps(def, [...x0], 16, v.hs, jac);
       lines.push(`${name}, order 16${jac ? ', with Dφ' : ''}: ${v.hs.length} steps, validated ${v.rate.toFixed(0)} steps/s, float ${f.toFixed(0)} steps/s, ratio ${(f / v.rate).toFixed(1)}x, final width ${v.width.toExponential(1)}`);
     }
   }
   const t0 = performance.now();
   const verdict = proveOrbit(compileFlowMap(DRIVEN), [[-1.2690822144565, 0.62166636012507]], { maxBits: 53 });
   lines.push(`driven oscillator time-2π/ω fixed point: ${verdict.status} in ${(performance.now() - t0).toFixed(0)} ms (not re-verified: the checker does not handle flows yet)`);
+  // catalogue flows (fast engine only: the checker does not handle flows yet)
+  const lorenz = compileFlowMap(getCatalogueMap('lorenz')!);
+  const start = performance.now();
+  for (const p of [2, 3, 4]) {
+    const orbits = searchAndProve('lorenz', p, lines);
+    if (p === 3 && orbits.length > 0) {
+      // the mirror image (x, y, z) -> (-x, -y, z) of a proven orbit is proven too
+      const t1 = performance.now();
+      const v = proveOrbit(lorenz, orbits[0]!.map(([x, y, z]) => [-x!, -y!, z!]), { maxBits: 53 });
+      lines.push(`  mirror image of the first: ${v.status} in ${((performance.now() - t1) / 1000).toFixed(1)} s`);
+    }
+  }
+  lines.push(`Lorenz periods 2-4 searched and proven in ${((performance.now() - start) / 1000).toFixed(1)} s (one thread)`);
+  searchAndProve('forced-duffing', 1, lines);
   return lines;
 }
 

@@ -65,6 +65,7 @@ export { compareDecimal, decimalOfDouble, encloseDecimal, isDecimalLiteral } fro
 export { parseFormula } from './expr/parser.js';
 export { compileMap } from './model/compile.js';
 export { compileAnyMap, compileFlowMap, type FlowMap } from './flow/compile.js';
+export { encloseFlowPeriod, isFlowMap, type FlowPeriod } from './flow/period.js';
 export type { FlowSpec } from './model/types.js';
 export type { IntegratorOptions } from './flow/integrate.js';
 export { loadMapFile, parseMapSource } from './model/load.js';

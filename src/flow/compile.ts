@@ -2,7 +2,7 @@
  * Maps from flows as ordinary `CompiledMap`s (DESIGN.md §7): the prover, the search and every
  * command see "enclose the image and the Jacobian of a box", computed by the validated Taylor
  * integrator (integrate.ts) over float64 intervals. The float methods (search, preconditioners)
- * use a plain float Taylor integrator of the same order (@heuristic).
+ * use a plain float Taylor integrator of the same order (float-flow.ts, @heuristic).
  *
  * Over any arithmetic other than float64 intervals (the prover's multiprecision escalation) the
  * evaluator refuses: it clears `status.continuous`, so the prover reports "not proven" rather
@@ -10,14 +10,14 @@
  */
 import type { Arithmetic, IntervalArithmetic } from '../interval/arithmetic.js';
 import { createFloatArithmetic } from '../interval/float-arith.js';
-import { dualArithmetic, type Dual } from '../expr/dual.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
 import { buildTape } from '../expr/tape.js';
 import { checkedWithOverrides, compileMap, paramBounds, type ParamOverrides } from '../model/compile.js';
 import type { CompiledMap, MapDefinition, MapEvaluator } from '../model/types.js';
 import { ValidatedFlow, type IntegratorOptions } from './integrate.js';
-import { buildSeriesProgram, SeriesEngine, type SeriesProgram } from './taylor.js';
-import { ReturnMapEvaluator, floatReturn, type SectionSpec } from './section.js';
+import { buildSeriesProgram, type SeriesProgram } from './taylor.js';
+import { ReturnMapEvaluator, type SectionSpec } from './section.js';
+import { FloatFlow } from './float-flow.js';
 
 export interface FlowMap extends CompiledMap {
   readonly kind: 'time-map' | 'return-map';
@@ -64,24 +64,20 @@ export function compileFlowMap(def: MapDefinition, overrides?: ParamOverrides, o
   const section: SectionSpec | null = surfaceTape && flow.section ? { tape: surfaceTape, sign: flow.section.crossing === 'increasing' ? 1 : -1 } : null;
   const durationOf = <T>(A: Arithmetic<T>): T => new TapeEvaluator<T>(durationTape!, A, enclosures).constantValue(durationTape!.outputs[0]!);
 
-  // @heuristic float integrator
-  const F = createFloatArithmetic();
-  const floatPoint = new SeriesEngine<number>(program, F, enclosures, options.order);
-  const FD = dualArithmetic(F, n);
-  const floatDual = new SeriesEngine<Dual<number>>(program, FD, enclosures, options.order);
-  const floatDuration = durationTape ? durationOf(F) : 0;
+  // @heuristic float integrator (float-flow.ts)
+  const floatDuration = durationTape ? durationOf(createFloatArithmetic()) : 0;
+  const floatFlowEngine = new FloatFlow(program, enclosures, options, section);
   const floatFlow = (x: ArrayLike<number>, out: Float64Array, jac: Float64Array | null): void => {
-    if (section) {
-      floatReturn(program, floatPoint, floatDual, FD, section, enclosures, options, x, out, jac);
-      return;
-    }
-    floatTimeMap(floatPoint, floatDual, FD, n, options, floatDuration, x, out, jac);
+    if (section) floatFlowEngine.returnMap(x, out, jac);
+    else floatFlowEngine.timeMap(floatDuration, x, out, jac);
   };
 
   const integrators = new WeakMap<object, unknown>();
   const map: FlowMap = {
     definition,
     dim: n,
+    float64Only: true,
+    costlyFloat: true,
     kind: section ? 'return-map' : 'time-map',
     program,
     enclosures,
@@ -158,97 +154,4 @@ function refusingEvaluator<T>(A: Arithmetic<T>, n: number, note: (r: string) => 
   };
   void n;
   return { image: (_x, out) => refuse(out, null), imageAndJacobian: (_x, out, jac) => refuse(out, jac) };
-}
-
-/** @heuristic float Taylor integration of the time-T map (and its derivative when `jac`). */
-function floatTimeMap(
-  point: SeriesEngine<number>,
-  dual: SeriesEngine<Dual<number>>,
-  FD: ReturnType<typeof dualArithmetic<number>>,
-  n: number,
-  opts: { order: number; tolerance: number; maxStep?: number; maxSteps?: number },
-  duration: number,
-  x0: ArrayLike<number>,
-  out: Float64Array,
-  jac: Float64Array | null,
-): void {
-  const x = Array.from({ length: n }, (_, i) => x0[i]!);
-  let V = jac ? identity(n) : null;
-  let t = 0;
-  let steps = 0;
-  while (t < duration && steps < (opts.maxSteps ?? 200_000)) {
-    let h = floatStepSize(point, x, t, opts);
-    if (t + h >= duration) h = duration - t;
-    if (V) {
-      V = floatDualStep(dual, FD, x, t, h, opts.order, V);
-    } else {
-      point.run(x, t, opts.order);
-      for (let i = 0; i < n; i++) x[i] = horner(point.xs[i]!, h, opts.order);
-    }
-    t += h;
-    steps++;
-  }
-  for (let i = 0; i < n; i++) out[i] = x[i]!;
-  if (jac && V) for (let k = 0; k < n * n; k++) jac[k] = V[k]!;
-}
-
-export function identity(n: number): Float64Array {
-  const I = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) I[i * n + i] = 1;
-  return I;
-}
-
-export function horner(c: readonly number[], h: number, order: number): number {
-  let s = c[order]!;
-  for (let k = order - 1; k >= 0; k--) s = s * h + c[k]!;
-  return s;
-}
-
-/** @heuristic step size from the last two Taylor coefficients (same rule as the validated one). */
-export function floatStepSize(point: SeriesEngine<number>, x: readonly number[], t: number, opts: { order: number; tolerance: number; maxStep?: number }): number {
-  const P = opts.order;
-  point.run(x, t, P - 1);
-  let h = opts.maxStep ?? 1;
-  let scale = 1;
-  for (const v of x) scale = Math.max(scale, Math.abs(v));
-  for (const k of [P - 1, P]) {
-    let m = 0;
-    for (let i = 0; i < x.length; i++) m = Math.max(m, Math.abs(point.xs[i]![k]!));
-    if (m > 0 && Number.isFinite(m)) h = Math.min(h, 0.8 * Math.pow((opts.tolerance * scale) / m, 1 / k));
-  }
-  return Number.isFinite(h) && h > 0 ? h : 1e-6;
-}
-
-/** @heuristic one float step of x and V (V ← Dφ_h(x)·V); updates x in place, returns V. */
-export function floatDualStep(
-  dual: SeriesEngine<Dual<number>>,
-  FD: ReturnType<typeof dualArithmetic<number>>,
-  x: number[],
-  t: number,
-  h: number,
-  order: number,
-  V: Float64Array,
-): Float64Array {
-  const n = x.length;
-  const xd = x.map((v, i) => FD.variable(v, i));
-  dual.run(xd, FD.lift(t), order);
-  const J = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    const c = dual.xs[i]!;
-    let s = c[order]!.v;
-    for (let k = order - 1; k >= 0; k--) s = s * h + c[k]!.v;
-    x[i] = s;
-    for (let j = 0; j < n; j++) {
-      let d = c[order]!.d[j] ?? 0;
-      for (let k = order - 1; k >= 0; k--) d = d * h + (c[k]!.d[j] ?? 0);
-      J[i * n + j] = d;
-    }
-  }
-  const out = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-    let s = 0;
-    for (let k = 0; k < n; k++) s += J[i * n + k]! * V[k * n + j]!;
-    out[i * n + j] = s;
-  }
-  return out;
 }

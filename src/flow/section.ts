@@ -14,13 +14,13 @@
  * probe steps) enclose the unique crossing; τ ∈ [a, b]. Then P(X0) ⊂ φ([a, b], X0) and
  * DP = (I − F·∇gᵀ/(∇g·F))·Dφ evaluated over that box, refusing when ∇g·F may vanish there.
  */
-import type { Arithmetic, IntervalArithmetic } from '../interval/arithmetic.js';
-import type { Dual, DualArithmetic } from '../expr/dual.js';
+import type { IntervalArithmetic } from '../interval/arithmetic.js';
 import { TapeEvaluator, type ParamEnclosure } from '../expr/evaluate.js';
-import { createFloatArithmetic } from '../interval/float-arith.js';
 import type { Tape } from '../expr/tape.js';
 import { ValidatedFlow } from './integrate.js';
-import { SeriesEngine, type SeriesProgram } from './taylor.js';
+import { SeriesEngine } from './taylor.js';
+import { FloatSeries } from './float-series.js';
+import { createFloatArithmetic } from '../interval/float-arith.js';
 
 export interface SectionSpec {
   /** The surface g over the state names, one output. */
@@ -39,6 +39,12 @@ export class ReturnMapEvaluator<T> {
   private readonly sgn: T;
   private readonly gOut: T[];
   private readonly gJac: T[];
+  // @heuristic float side: where to look for the crossing time
+  private readonly floatSeries: FloatSeries;
+  private readonly gFloat: TapeEvaluator<number>;
+  private readonly gFloatOut = [0];
+  private readonly floatX: number[];
+  private readonly sign: number;
 
   constructor(readonly flow: ValidatedFlow<T>, section: SectionSpec, params: readonly ParamEnclosure[]) {
     this.A = flow.A;
@@ -48,6 +54,10 @@ export class ReturnMapEvaluator<T> {
     this.sgn = this.A.fromNumber(section.sign);
     this.gOut = [this.A.fromNumber(0)];
     this.gJac = new Array<T>(this.n).fill(this.A.fromNumber(0));
+    this.floatSeries = new FloatSeries(flow.prog, params, flow.order, false);
+    this.gFloat = new TapeEvaluator<number>(section.tape, createFloatArithmetic(), params);
+    this.floatX = new Array<number>(this.n).fill(0);
+    this.sign = section.sign;
   }
 
   /** s·g over a box. */
@@ -67,6 +77,39 @@ export class ReturnMapEvaluator<T> {
       s = A.add(s, A.mul(this.gJac[i]!, f[i]!));
     }
     return A.mul(this.sgn, s);
+  }
+
+  /**
+   * @heuristic Crossing time in [0, h] of the float trajectory from the point c (bisection on its
+   * Taylor polynomial for s·g from < 0 to ≥ 0); null when s·g is not < 0 at 0 and ≥ 0 at h.
+   * Also leaves that polynomial in `floatSeries` for `floatPointAt`.
+   */
+  private floatCrossing(c: ArrayLike<number>, h: number): number | null {
+    const P = this.floatSeries.maxOrder;
+    this.floatSeries.run(c, 0, P - 1);
+    const sgAt = (t: number): number => {
+      for (let i = 0; i < this.n; i++) this.floatX[i] = this.floatSeries.stateAt(i, 0, t, P);
+      this.gFloat.image(this.floatX, this.gFloatOut);
+      return this.sign * this.gFloatOut[0]!;
+    };
+    if (!(sgAt(0) < 0 && sgAt(h) >= 0)) return null;
+    let lo = 0;
+    let hi = h;
+    for (let it = 0; it < 80 && hi - lo > 0; it++) {
+      const m = 0.5 * (lo + hi);
+      if (m <= lo || m >= hi) break;
+      if (sgAt(m) < 0) lo = m;
+      else hi = m;
+    }
+    return 0.5 * (lo + hi);
+  }
+
+  /** The point (as a degenerate box) of the last float polynomial at time t. */
+  private floatPointAt(t: number): T[] {
+    const P = this.floatSeries.maxOrder;
+    const out = new Array<T>(this.n);
+    for (let i = 0; i < this.n; i++) out[i] = this.A.fromNumber(this.floatSeries.stateAt(i, 0, t, P));
+    return out;
   }
 
   private pos(v: T): boolean {
@@ -154,27 +197,25 @@ export class ReturnMapEvaluator<T> {
     if (endBox === null) throw ValidatedFlow.refusal('the a priori enclosure failed on a repeated step');
     const gEnd = this.sg(endBox);
     if (this.neg(gEnd)) return null;
-    // @heuristic crossing time of the centre: bisection on point probes
-    let lo = 0;
-    let hi = h;
-    for (let it = 0; it < 60 && hi - lo > 1e-15 * (1 + h); it++) {
-      const m = 0.5 * (lo + hi);
-      const bx = probe(A.fromNumber(m), m);
-      if (bx === null) break;
-      const v = A.midNumber(this.sg(bx));
-      if (v < 0) lo = m;
-      else hi = m;
-    }
-    const tStar = 0.5 * (lo + hi);
-    // widen a bracket around tStar until both ends are certain
-    let eps = Math.max(1e-14, 4 * (hi - lo));
+    // @heuristic crossing time of the centre's trajectory, on its float Taylor polynomial (no
+    // validated steps); then a bracket around it whose ends are certain (validated probes)
+    F.restore(start);
+    const startBox = F.box();
+    const tStar = this.floatCrossing(F.centre(), h);
+    if (tStar === null) return { ok: false, reason: 'the crossing time could not be bracketed' };
+    // first half-width: the spread of g over the box divided by the crossing speed
+    const speed = A.midNumber(this.sdg(this.floatPointAt(tStar), new Array<T>(n)));
+    const spread = A.widUp(this.sg(startBox));
+    let eps = Math.max(1e-14 * (1 + h), speed > 0 && Number.isFinite(spread / speed) ? 0.75 * (spread / speed) : 0);
     for (let it = 0; it < 40; it++, eps *= 4) {
       const a = Math.max(0, tStar - eps);
       const b = Math.min(h, tStar + eps);
-      const ga = a === 0 ? null : probe(A.fromNumber(a), a);
-      const aOk = a === 0 ? false : ga !== null && this.neg(this.sg(ga));
-      if (!aOk && a > 0) continue;
-      if (a === 0) return { ok: false, reason: 'the crossing is too close to a step boundary to bracket' };
+      // s·g < 0 at time a for the whole set (at a = 0: on the step's starting box)
+      const ga = a === 0 ? startBox : probe(A.fromNumber(a), a);
+      if (ga === null || !this.neg(this.sg(ga))) {
+        if (a === 0) return { ok: false, reason: 'the crossing is too close to a step boundary to bracket' };
+        continue;
+      }
       const gb = probe(A.fromNumber(b), b);
       if (gb === null || !this.pos(this.sg(gb))) {
         if (b === h) return { ok: false, reason: 'the crossing time could not be bracketed' };
@@ -203,131 +244,4 @@ export class ReturnMapEvaluator<T> {
     }
     return { ok: false, reason: 'the crossing time could not be bracketed' };
   }
-}
-
-/** @heuristic float return map (and DP when `jac`), same definition as the validated one. */
-export function floatReturn(
-  prog: SeriesProgram,
-  point: SeriesEngine<number>,
-  dual: SeriesEngine<Dual<number>>,
-  FD: DualArithmetic<number>,
-  section: SectionSpec,
-  params: readonly ParamEnclosure[],
-  opts: { order: number; tolerance: number; maxStep?: number },
-  x0: ArrayLike<number>,
-  out: Float64Array,
-  jac: Float64Array | null,
-): void {
-  void prog;
-  const n = out.length;
-  const Fa: Arithmetic<number> = createFloatArithmetic();
-  const g = new TapeEvaluator<number>(section.tape, Fa, params);
-  const gv = [0];
-  const gj = new Array<number>(n).fill(0);
-  const s = section.sign;
-  const sg = (x: readonly number[]): number => {
-    g.image(x, gv);
-    return s * gv[0]!;
-  };
-  const P = opts.order;
-  let x = Array.from({ length: n }, (_, i) => x0[i]!);
-  let V = jac ? identityF(n) : null;
-  let left = false;
-  let steps = 0;
-  while (steps++ < 20_000) {
-    let h = stepSize(point, x, P, opts);
-    const x1 = x.slice();
-    let V1 = V;
-    if (V1) V1 = dualStep(dual, FD, x1, h, P, V1);
-    else {
-      point.run(x1, 0, P);
-      for (let i = 0; i < n; i++) x1[i] = polyAt(point.xs[i]!, h, P);
-    }
-    const g0 = sg(x);
-    const g1 = sg(x1);
-    if (!left) {
-      if (g1 > 0) left = true;
-      x = x1;
-      V = V1;
-      continue;
-    }
-    if (g0 <= 0 && g1 > 0) {
-      // Newton/bisection on the step polynomial for the crossing time
-      point.run(x, 0, P);
-      let lo = 0;
-      let hi = h;
-      for (let it = 0; it < 80; it++) {
-        const m = 0.5 * (lo + hi);
-        const xm = Array.from({ length: n }, (_, i) => polyAt(point.xs[i]!, m, P));
-        if (sg(xm) < 0) lo = m;
-        else hi = m;
-      }
-      h = 0.5 * (lo + hi);
-      if (V) {
-        V = dualStep(dual, FD, x, h, P, V);
-      } else for (let i = 0; i < n; i++) x[i] = polyAt(point.xs[i]!, h, P);
-      for (let i = 0; i < n; i++) out[i] = x[i]!;
-      if (jac && V) {
-        g.imageAndJacobian(x, gv, gj);
-        point.run(x, 0, 0);
-        const f = Array.from({ length: n }, (_, i) => point.xs[i]![1]!);
-        let gf = 0;
-        for (let i = 0; i < n; i++) gf += gj[i]! * f[i]!;
-        for (let c = 0; c < n; c++) {
-          let gvc = 0;
-          for (let k = 0; k < n; k++) gvc += gj[k]! * V[k * n + c]!;
-          for (let i = 0; i < n; i++) jac[i * n + c] = V[i * n + c]! - (f[i]! * gvc) / gf;
-        }
-      }
-      return;
-    }
-    x = x1;
-    V = V1;
-  }
-  out.fill(Number.NaN);
-  if (jac) jac.fill(Number.NaN);
-}
-
-function identityF(n: number): Float64Array {
-  const I = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) I[i * n + i] = 1;
-  return I;
-}
-
-function polyAt(c: readonly number[], h: number, order: number): number {
-  let s = c[order]!;
-  for (let k = order - 1; k >= 0; k--) s = s * h + c[k]!;
-  return s;
-}
-
-function stepSize(point: SeriesEngine<number>, x: readonly number[], P: number, opts: { tolerance: number; maxStep?: number }): number {
-  point.run(x, 0, P - 1);
-  let h = opts.maxStep ?? 1;
-  let scale = 1;
-  for (const v of x) scale = Math.max(scale, Math.abs(v));
-  for (const k of [P - 1, P]) {
-    let m = 0;
-    for (let i = 0; i < x.length; i++) m = Math.max(m, Math.abs(point.xs[i]![k]!));
-    if (m > 0 && Number.isFinite(m)) h = Math.min(h, 0.8 * Math.pow((opts.tolerance * scale) / m, 1 / k));
-  }
-  return Number.isFinite(h) && h > 0 ? h : 1e-6;
-}
-
-function dualStep(dual: SeriesEngine<Dual<number>>, FD: DualArithmetic<number>, x: number[], h: number, order: number, V: Float64Array): Float64Array {
-  const n = x.length;
-  const xd = x.map((v, i) => FD.variable(v, i));
-  dual.run(xd, FD.lift(0), order);
-  const J = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    const c = dual.xs[i]!;
-    x[i] = polyAt(c.map((q) => q.v), h, order);
-    for (let j = 0; j < n; j++) J[i * n + j] = polyAt(c.map((q) => q.d[j] ?? 0), h, order);
-  }
-  const out = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-    let s2 = 0;
-    for (let k = 0; k < n; k++) s2 += J[i * n + k]! * V[k * n + j]!;
-    out[i * n + j] = s2;
-  }
-  return out;
 }

@@ -7,7 +7,7 @@
 import { existsSync } from 'node:fs';
 import { MapLanguageError, suggestionHint } from '../expr/errors.js';
 import { loadMapFile } from './load.js';
-import type { MapDefinition, ParamValue } from './types.js';
+import type { FlowSpec, MapDefinition, ParamValue } from './types.js';
 
 const exact = (value: string): ParamValue => ({ kind: 'exact', value });
 
@@ -16,9 +16,18 @@ interface Entry {
   description: string;
   state: string[];
   params: Record<string, ParamValue>;
+  /** Step formulas (empty for a flow). */
   step: Record<string, string>;
   region: Record<string, [string, string]>;
+  /** For maps from flows (DESIGN.md §7): right-hand sides, time variable, duration or section. */
+  flow?: FlowSpec;
 }
+
+// The Lorenz flow: E. N. Lorenz, "Deterministic nonperiodic flow", J. Atmos. Sci. 20 (1963)
+// 130–141, with his σ = 10, ρ = 28, β = 8/3. Parameters are exact decimals, and 8/3 has no
+// finite decimal: β is written into the formula as the exact quotient 8/3 (enclosed by outward
+// rounding like every literal operation), not as a rounded parameter.
+const LORENZ_RHS: Record<string, string> = { x: 'sigma*(y - x)', y: 'x*(rho - z) - y', z: 'x*y - 8/3*z' };
 
 const CATALOGUE: ReadonlyMap<string, Entry> = new Map<string, Entry>([
   // R. M. May, "Simple mathematical models with very complicated dynamics", Nature 261 (1976) 459–467.
@@ -137,6 +146,47 @@ const CATALOGUE: ReadonlyMap<string, Entry> = new Map<string, Entry>([
     step: { x: 'y', y: '-b*x + a*y - y^3' },
     region: { x: ['-2', '2'], y: ['-2', '2'] },
   }],
+  // Return map of the Lorenz flow to the plane z = ρ − 1 crossed downwards. Both non-trivial
+  // equilibria (±√(β(ρ−1)), ±√(β(ρ−1)), ρ − 1) = (±8.485.., ±8.485.., 27) lie on that plane, on
+  // the curve xy = 72 where the flow is tangent to it (z' = xy − 8/3·z = 0); the region
+  // |x|, |y| ≤ 7.5 keeps xy ≤ 56.25 < 72, so the flow crosses the plane downwards (transversally)
+  // everywhere in it, and it holds every crossing of the attractor (observed, @heuristic: a long
+  // float orbit stays within |x|, |y| < 7.1). Each crossing is one loop around an equilibrium.
+  ['lorenz', {
+    title: 'Lorenz flow, section z = rho - 1',
+    description: "x' = sigma (y - x), y' = x (rho - z) - y, z' = x y - 8/3 z; Lorenz 1963, J. Atmos. Sci. 20; section z = rho - 1 crossed downwards.",
+    state: ['x', 'y', 'z'],
+    params: { sigma: exact('10'), rho: exact('28') },
+    step: {},
+    flow: { rhs: LORENZ_RHS, section: { surface: 'z - (rho - 1)', crossing: 'decreasing' } },
+    region: { x: ['-7.5', '7.5'], y: ['-7.5', '7.5'], z: ['26.9', '27.1'] },
+  }],
+  // The same flow cut at the maxima of z: z' = xy − 8/3·z = 0 crossed with z' decreasing
+  // (z'' < 0), the "next-maximum" map of Lorenz 1963 (his Fig. 4 plots successive z maxima).
+  // Region: where a long float orbit's maxima lie (observed, @heuristic: |x| < 17, |y| < 8.3,
+  // 31 < z < 46), with a margin.
+  ['lorenz-maxima', {
+    title: 'Lorenz flow, z maxima',
+    description: "The Lorenz flow (Lorenz 1963) cut where z has a maximum: section x y - 8/3 z = 0 (z' = 0) crossed downwards (z'' < 0).",
+    state: ['x', 'y', 'z'],
+    params: { sigma: exact('10'), rho: exact('28') },
+    step: {},
+    flow: { rhs: LORENZ_RHS, section: { surface: 'x*y - 8/3*z', crossing: 'decreasing' } },
+    region: { x: ['-18', '18'], y: ['-9', '9'], z: ['30', '48'] },
+  }],
+  // Periodically forced Duffing oscillator x'' + δx' − x + x³ = γ cos(ωt) (double-well form),
+  // δ = 0.25, γ = 0.3, ω = 1 (from memory; common practice, e.g. J. Guckenheimer and P. Holmes,
+  // Nonlinear Oscillations, Dynamical Systems, and Bifurcations of Vector Fields, 1983, §2.2),
+  // sampled once per forcing period T = 2π/ω (the time-T, stroboscopic, map).
+  ['forced-duffing', {
+    title: 'Forced Duffing oscillator',
+    description: "x' = v, v' = -delta v + x - x^3 + gamma cos(omega t); double-well Duffing oscillator sampled once per forcing period.",
+    state: ['x', 'v'],
+    params: { delta: exact('0.25'), gamma: exact('0.3'), omega: exact('1') },
+    step: {},
+    flow: { rhs: { x: 'v', v: '-delta*v + x - x^3 + gamma*cos(omega*t)' }, time: 't', duration: '2*pi/omega' },
+    region: { x: ['-2', '2'], v: ['-2', '2'] },
+  }],
 ]);
 
 /** Names of the shipped maps, in catalogue order. */
@@ -154,7 +204,7 @@ export function getCatalogueMap(name: string): MapDefinition | undefined {
   for (const [k, v] of Object.entries(e.step)) step[k] = v;
   const region: Record<string, [string, string]> = Object.create(null) as Record<string, [string, string]>;
   for (const [k, v] of Object.entries(e.region)) region[k] = [v[0], v[1]];
-  return {
+  const def: MapDefinition = {
     title: e.title,
     description: e.description,
     state: [...e.state],
@@ -163,6 +213,18 @@ export function getCatalogueMap(name: string): MapDefinition | undefined {
     region,
     origin: `catalogue:${name}`,
   };
+  if (e.flow !== undefined) def.flow = copyFlow(e.flow);
+  return def;
+}
+
+function copyFlow(f: FlowSpec): FlowSpec {
+  const rhs: Record<string, string> = Object.create(null) as Record<string, string>;
+  for (const [k, v] of Object.entries(f.rhs)) rhs[k] = v;
+  const out: FlowSpec = { rhs };
+  if (f.time !== undefined) out.time = f.time;
+  if (f.duration !== undefined) out.duration = f.duration;
+  if (f.section !== undefined) out.section = { ...f.section };
+  return out;
 }
 
 /**

@@ -82,6 +82,16 @@ export interface CompiledMap {
    * ∂f_i/∂x_j over the whole box (for abs/min/max a slope enclosure, flag `BOX_NONSMOOTH`).
    */
   intervalJacobian?(box: Float64Array, out: Float64Array, jac: Float64Array): number;
+  /**
+   * True for maps enclosed in float64 intervals only (flows, src/flow/): their evaluator over a
+   * multiprecision arithmetic refuses, so candidate points are iterated with `evalFloat`.
+   */
+  readonly float64Only?: boolean;
+  /**
+   * True when one float evaluation is costly (flows: every evaluation integrates an ODE over
+   * hundreds of Taylor steps): the float search then uses far fewer seeds, attractor seeds first.
+   */
+  readonly costlyFloat?: boolean;
 }
 
 /** Flag of `intervalImage`/`intervalJacobian`: some operation left its domain of continuity (or overflowed). */

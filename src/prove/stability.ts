@@ -360,7 +360,7 @@ function compareLo(x: DecimalPair, y: DecimalPair): number {
  * decimal arithmetic). Null when the discs decide nothing (e.g. long orbits: the direct product
  * wraps; then the moving-frame bound below is reported as fast engine only).
  */
-function stabilityDirect<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability | null {
+function stabilityDirect<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number, moduliOut?: DecimalPair[]): ProvenStability | null {
   const nn = n * n;
   let M: T[] = [];
   for (let i = 0; i < nn; i++) M.push(a.fromNumber(i % (n + 1) === 0 ? 1 : 0));
@@ -376,6 +376,12 @@ function stabilityDirect<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: n
   else if (outside.every(Boolean)) cls = 'repelling';
   else if (inside.every((b, i) => b || outside[i])) cls = 'saddle';
   if (cls === null) return null;
+  // the discs' moduli (each disc is inside or outside the unit circle, so the two unions are
+  // disjoint; per-disc moduli as in the moving-frame report below)
+  if (moduliOut) {
+    for (const d of discs) moduliOut.push(widenPair(decimalOfDouble(d.modulusLo), decimalOfDouble(d.modulusHi)));
+    moduliOut.sort((x, y) => cmp(x[0], y[0]));
+  }
   const rows = (m: Float64Array): string[][] =>
     Array.from({ length: n }, (_, i) => Array.from(m.subarray(i * n, i * n + n), (v) => decimalOfDouble(v)));
   return {
@@ -386,10 +392,16 @@ function stabilityDirect<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: n
 
 function stabilityN<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {
   const moving = stabilityMovingFrames(a, blocks, p, n);
-  const direct = stabilityDirect(a, blocks, p, n);
+  const directModuli: DecimalPair[] = [];
+  const direct = stabilityDirect(a, blocks, p, n, directModuli);
   if (direct === null) return moving;
-  // the class the checker re-verifies; the moving-frame moduli stay as prover-only information
-  return { ...direct, ...(moving.proverOnly ? { proverOnly: moving.proverOnly } : {}) };
+  // the class the checker re-verifies; the moduli stay as prover-only information: the moving-frame
+  // discs, or the direct product's discs when those are narrower (e.g. return maps of flows,
+  // whose monodromy has an eigenvalue 0 and a strongly contracting one: the moving frames there
+  // gave |λ| ∈ [0, 7260] where the direct discs give [4.4, 4.5])
+  const widest = (ms: readonly DecimalPair[]): number => Math.max(...ms.map((m) => Number(m[1]) - Number(m[0])));
+  const moduli = moving.proverOnly && widest(moving.proverOnly.eigenvalueModuli) <= widest(directModuli) ? moving.proverOnly.eigenvalueModuli : directModuli;
+  return { ...direct, proverOnly: { class: direct.class, eigenvalueModuli: moduli, method: 'gershgorin' } };
 }
 
 function stabilityMovingFrames<T>(a: IntervalArithmetic<T>, blocks: readonly T[], p: number, n: number): ProvenStability {

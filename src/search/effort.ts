@@ -45,8 +45,13 @@ export function estimateExpansion(map: CompiledMap, seedLo: Float64Array, seedHi
 /**
  * Default effort by state dimension and period (see findCandidates), times `effort`. `expansion`
  * is estimateExpansion's exponent λ; e^{λp}/p estimates the number of orbits of period p.
+ * `costly`: the map's float evaluation is expensive (CompiledMap.costlyFloat).
  */
-export function defaultEffort(n: number, p: number, expansion: number, effort: number): { grid: number; random: number; attractor: number } {
+export function defaultEffort(n: number, p: number, expansion: number, effort: number, costly = false): { grid: number; random: number; attractor: number } {
+  // Maps whose float evaluation integrates an ODE (about 1 ms, against 0.1 µs for a formula):
+  // windows of a long orbit where it nearly returns (what finds the short orbits of a flow's
+  // attractor, e.g. Lorenz), one grid seed and a few random ones; the work stays at seconds.
+  if (costly) return { grid: 1, random: Math.round(20 * effort), attractor: Math.max(1, Math.round(150 * effort)) };
   const orbitsExpected = Math.exp(Math.min(expansion * p, 40)) / p;
   // 1-D: a chaotic map has up to ~2^p/p orbits of period p; about 4 grid points per periodic
   // point of f^p find them all for the logistic map at r = 4 (bench/search-bench.ts); beyond

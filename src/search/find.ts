@@ -59,12 +59,14 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   const enough = opts.enough === undefined ? Infinity : checkCount(opts.enough, 'enough', 0) || Infinity;
   const needDefault = opts.gridPerAxis === undefined || opts.randomSeeds === undefined || opts.attractorSeeds === undefined;
   // own PRNG stream, so the seeds below are what they were before the estimate existed
-  const expansion = needDefault ? estimateExpansion(map, region.lo, region.hi, createRng((opts.seed ?? 1) ^ 0x5bd1e995), 1e6 * (1 + region.scale)) : 0;
-  const effort = defaultEffort(n, p, expansion, effortFactor);
+  const costly = map.costlyFloat === true;
+  const expansion = needDefault && !costly ? estimateExpansion(map, region.lo, region.hi, createRng((opts.seed ?? 1) ^ 0x5bd1e995), 1e6 * (1 + region.scale)) : 0;
+  const effort = defaultEffort(n, p, expansion, effortFactor, costly);
   const grid = checkCount(opts.gridPerAxis, 'gridPerAxis', effort.grid);
   const randomSeedCount = checkCount(opts.randomSeeds, 'randomSeeds', effort.random);
   const attractorSeedCount = checkCount(opts.attractorSeeds, 'attractorSeeds', effort.attractor);
-  const maxIterations = checkCount(opts.maxIterations, 'maxIterations', 40);
+  // a flow's Newton step costs milliseconds: seeds that have not converged in 15 steps rarely do
+  const maxIterations = checkCount(opts.maxIterations, 'maxIterations', costly ? 15 : 40);
   const rng = createRng(opts.seed ?? 1);
 
   // The box seeds are drawn from: the region, or a box around `near` clipped to the region.
@@ -94,7 +96,7 @@ export function findCandidates(givenMap: CompiledMap, opts: SearchOptions): Cand
   // the orbit through `near` itself first: Newton from near, f(near), …, f^{p−1}(near)
   if (opts.near !== undefined) iteratedSeed(ctx, opts.near);
   // attractor seeds first when stopping early on a long shooting vector (what finds such orbits)
-  const attractorFirst = enough !== Infinity && p * n > 50;
+  const attractorFirst = (enough !== Infinity && p * n > 50) || costly;
   if (attractorFirst) attractorSeeds(ctx, attractorSeedCount, rng, collector.tolerance());
   gridSeeds(ctx, grid);
   randomSeeds(ctx, randomSeedCount, rng);

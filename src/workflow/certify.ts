@@ -17,6 +17,7 @@ import { proveOrbit } from '../prove/index.js';
 import type { ProvenOrbit } from '../prove/types.js';
 import { candidatesByDistance, findCandidates, type Candidate } from '../search/index.js';
 import { iterateFromStart } from './start.js';
+import { encloseFlowPeriod, isFlowMap } from '../flow/period.js';
 import { defaultWorkerCount, runPool, workersAvailable } from './pool.js';
 import type { ProveTask, ProveTaskResult } from './prove-task.js';
 
@@ -110,10 +111,15 @@ export interface OrbitOutcome {
   orbit?: ProvenOrbit;
   certificatePath?: string;
   check?: CheckReport;
+  /**
+   * For a proven orbit of a flow map: an enclosure [lo, hi] (exact decimals) of the flow period
+   * (sum of the return times, or p·T for a time-T map; src/flow/period.ts), or why there is none.
+   */
+  flowPeriod?: { lo: string; hi: string } | { refused: string };
 }
 
 export interface CertifyReport {
-  map: { title: string; origin?: string; state: string[] };
+  map: { title: string; origin?: string; state: string[]; flow?: 'time-map' | 'return-map' };
   period: number;
   candidatesFound: number;
   /** Parameters given as intervals (a proof must then hold for every value in them). */
@@ -387,6 +393,10 @@ export async function certifyOrbits(
       dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
+    if (isFlowMap(compiled)) {
+      const T = encloseFlowPeriod(compiled, orbit.boxes);
+      outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
+    }
     if (checkOn && def.flow !== undefined) {
       outcome.reason = FLOW_NOT_REVERIFIED;
     } else if (checkOn) {
@@ -432,7 +442,12 @@ export async function certifyOrbits(
       (o) => (o.status === 'verified' || (!checkOn && o.status === 'prover-only')) && o.orbit?.minimalPeriod === opts.period,
     );
   return {
-    map: { title: def.title, ...(def.origin !== undefined ? { origin: def.origin } : {}), state: [...def.state] },
+    map: {
+      title: def.title,
+      ...(def.origin !== undefined ? { origin: def.origin } : {}),
+      state: [...def.state],
+      ...(isFlowMap(compiled) ? { flow: compiled.kind } : {}),
+    },
     period: opts.period,
     candidatesFound: found.length,
     source,

@@ -4,7 +4,8 @@
  * definition the caller compiled (overrides already applied), so the worker proves exactly the
  * map the calling thread would.
  */
-import { compileMap, type FormulaMap } from '../model/compile.js';
+import { compileAnyMap } from '../flow/compile.js';
+import type { CompiledMap } from '../model/types.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
 import { proveOrbit } from '../prove/index.js';
 import type { CandidateCoordinate } from '../prove/orbit.js';
@@ -24,11 +25,11 @@ export interface ProveTaskResult {
   verdict: OrbitVerdict;
 }
 
-let cached: { key: string; map: FormulaMap } | undefined;
+let cached: { key: string; map: CompiledMap } | undefined;
 
 export function proveTask(t: ProveTask): ProveTaskResult {
   const key = JSON.stringify(t.map);
-  if (cached?.key !== key) cached = { key, map: compileMap(t.map) };
+  if (cached?.key !== key) cached = { key, map: compileAnyMap(t.map) }; // formula maps and flow maps alike
   const verdict = proveOrbit(cached.map, t.points, t.maxBits ? { maxBits: t.maxBits } : {});
   return { verdict };
 }

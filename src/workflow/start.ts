@@ -22,6 +22,7 @@ export function startDigits(period: number): number {
  * left the domain come back as "NaN"-free best guesses (the prover then reports not proven).
  */
 export function iterateFromStart(map: CompiledMap, start: readonly string[], period: number, digits = startDigits(period)): string[][] {
+  if (map.float64Only === true) return iterateFloat(map, start, period);
   const bits = bitsForDigits(digits);
   const arith = mpIntervalArithmetic(bits);
   const ev = map.evaluator(arith);
@@ -33,6 +34,23 @@ export function iterateFromStart(map: CompiledMap, start: readonly string[], per
     ev.image(x, next);
     x = next.map((v) => arith.midPoint(v));
     out.push(x.map((v) => arith.toDecimal(v).lo));
+  }
+  return out;
+}
+
+/**
+ * @heuristic The same for maps enclosed in float64 only (flows): x_{i+1} = f(x_i) with
+ * `evalFloat`, each point written as the shortest round-trip decimal of its double.
+ */
+function iterateFloat(map: CompiledMap, start: readonly string[], period: number): string[][] {
+  const n = map.dim;
+  const out: string[][] = [start.slice()];
+  let x = Float64Array.from(start, (s) => Number(s));
+  for (let i = 1; i < period; i++) {
+    const next = new Float64Array(n);
+    map.evalFloat(x, next);
+    out.push(Array.from(next, (v) => String(v)));
+    x = next;
   }
   return out;
 }

@@ -28,3 +28,15 @@ it('proves the vibrating-bracket example, never says re-verified, exits 1', asyn
   expect(c.exitCode).toBe(1);
   expect(c.stdout).toMatch(/REJECTED/);
 }, 30_000);
+
+it('examples/flows/convection-cell.yaml is the catalogue Lorenz return map (proven in tests/flow/lorenz.test.ts) with its header command', async () => {
+  const { loadMapFile } = await import('../../src/model/load.js');
+  const { getCatalogueMap } = await import('../../src/model/catalogue.js');
+  const file = join(root, 'examples/flows/convection-cell.yaml');
+  const def = loadMapFile(file);
+  const cat = getCatalogueMap('lorenz')!;
+  expect({ ...def.flow, rhs: { ...def.flow!.rhs } }).toEqual({ ...cat.flow, rhs: { ...cat.flow!.rhs } });
+  expect(def.params).toEqual(cat.params);
+  expect(def.region).toEqual(cat.region);
+  expect(readFileSync(file, 'utf8')).toMatch(/^#\s+orbitseal prove examples\/flows\/convection-cell\.yaml --period 2 --start 2\.1473676319181183,-2\.078048211461248,27$/m);
+});

@@ -5,6 +5,7 @@ import { intervalArithmetic } from '../../src/interval/interval-arith.js';
 import type { Interval } from '../../src/interval/interval.js';
 import { catalogueNames, getCatalogueMap, resolveMap } from '../../src/model/catalogue.js';
 import { compileMap } from '../../src/model/compile.js';
+import { compileAnyMap } from '../../src/flow/compile.js';
 import { MapLanguageError } from '../../src/expr/errors.js';
 
 /**
@@ -54,12 +55,34 @@ describe('catalogue', () => {
   it('ships the published maps', () => {
     expect(catalogueNames()).toEqual([
       'logistic', 'henon', 'ikeda', 'lozi', 'tent', 'sine', 'quadratic', 'gauss', 'delayed-logistic', 'tinkerbell', 'duffing',
+      'lorenz', 'lorenz-maxima', 'forced-duffing',
     ]);
     for (const name of catalogueNames()) {
       const def = getCatalogueMap(name)!;
       expect(def.origin).toBe(`catalogue:${name}`);
-      expect(compileMap(def).dim).toBe(def.state.length);
+      expect(compileAnyMap(def).dim).toBe(def.state.length);
     }
+  });
+
+  it('flows: Lorenz with sigma = 10, rho = 28, beta = 8/3 exactly (Lorenz 1963, J. Atmos. Sci. 20), forced Duffing with delta = 0.25, gamma = 0.3, omega = 1 (issue 12, from memory)', () => {
+    for (const name of ['lorenz', 'lorenz-maxima']) {
+      const def = getCatalogueMap(name)!;
+      expect(def.params).toEqual({ sigma: { kind: 'exact', value: '10' }, rho: { kind: 'exact', value: '28' } });
+      // beta = 8/3 is the exact quotient in the formula, never a rounded decimal parameter
+      expect(def.flow!.rhs).toEqual({ x: 'sigma*(y - x)', y: 'x*(rho - z) - y', z: 'x*y - 8/3*z' });
+      expect(def.flow!.section!.crossing).toBe('decreasing');
+    }
+    expect(getCatalogueMap('lorenz')!.flow!.section!.surface).toBe('z - (rho - 1)');
+    expect(getCatalogueMap('lorenz-maxima')!.flow!.section!.surface).toBe('x*y - 8/3*z');
+    // the z = 27 region keeps away from the equilibria (±√72, ±√72, 27) (closed form): |x|, |y| < √72
+    const r = getCatalogueMap('lorenz')!.region;
+    for (const v of ['x', 'y']) expect(Math.max(Math.abs(Number(r[v]![0])), Math.abs(Number(r[v]![1])))).toBeLessThan(Math.sqrt(72));
+    const duffing = getCatalogueMap('forced-duffing')!;
+    expect(duffing.params).toEqual({ delta: { kind: 'exact', value: '0.25' }, gamma: { kind: 'exact', value: '0.3' }, omega: { kind: 'exact', value: '1' } });
+    expect(duffing.flow!.duration).toBe('2*pi/omega');
+    // fresh copies: changing one does not change the catalogue
+    getCatalogueMap('lorenz')!.flow!.rhs['x'] = 'x';
+    expect(getCatalogueMap('lorenz')!.flow!.rhs['x']).toBe('sigma*(y - x)');
   });
 
   it('Hénon parameters are those of Hénon 1976 (a = 1.4, b = 0.3, Commun. Math. Phys. 50)', () => {
@@ -99,7 +122,7 @@ describe('catalogue', () => {
     expect(() => resolveMap('./no/such/file.yaml')).toThrow(MapLanguageError);
   });
 
-  describe.each(catalogueNames())('%s: forward-mode Jacobian', (name) => {
+  describe.each(catalogueNames().filter((name) => getCatalogueMap(name)!.flow === undefined))('%s: forward-mode Jacobian', (name) => {
     const m = compileMap(getCatalogueMap(name)!);
     const n = m.dim;
 

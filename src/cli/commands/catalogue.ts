@@ -17,6 +17,8 @@ export interface CatalogueEntry {
   params: Record<string, string>;
   region: Record<string, [string, string]>;
   source: string;
+  /** For maps from flows: the ODE (right-hand sides), time variable, duration or section. */
+  flow?: { rhs: Record<string, string>; time?: string; duration?: string; section?: { surface: string; crossing: string } };
 }
 
 export function catalogueEntries(): CatalogueEntry[] {
@@ -24,7 +26,9 @@ export function catalogueEntries(): CatalogueEntry[] {
     const d = getCatalogueMap(name) as MapDefinition;
     const params: Record<string, string> = {};
     for (const [k, v] of Object.entries(d.params)) params[k] = paramText(v);
-    return { name, title: d.title, state: d.state, step: { ...d.step }, params, region: { ...d.region }, source: d.description ?? '' };
+    const entry: CatalogueEntry = { name, title: d.title, state: d.state, step: { ...d.step }, params, region: { ...d.region }, source: d.description ?? '' };
+    if (d.flow !== undefined) entry.flow = { ...d.flow, rhs: { ...d.flow.rhs } };
+    return entry;
   });
 }
 
@@ -40,7 +44,11 @@ export function renderCatalogue(maps: readonly CatalogueEntry[]): string {
   const out = [`${maps.length} catalogue maps; name one instead of a map file (orbitseal show henon)`];
   for (const m of maps) {
     out.push('', `${m.name} — ${m.title}`);
-    for (const v of m.state) out.push(`  ${v}' = ${m.step[v]}`);
+    if (m.flow !== undefined) {
+      for (const v of m.state) out.push(`  d${v}/d${m.flow.time ?? 't'} = ${m.flow.rhs[v]}`);
+      if (m.flow.duration !== undefined) out.push(`  map: time-T map, T = ${m.flow.duration}`);
+      if (m.flow.section !== undefined) out.push(`  map: return map to ${m.flow.section.surface} = 0, crossed ${m.flow.section.crossing === 'increasing' ? 'upwards' : 'downwards'}`);
+    } else for (const v of m.state) out.push(`  ${v}' = ${m.step[v]}`);
     const params = Object.entries(m.params);
     out.push(`  parameters: ${params.length ? params.map(([k, v]) => `${k} = ${v}`).join(', ') : 'none'}`);
     out.push(`  region: ${m.state.map((v) => `${v} ∈ [${m.region[v]![0]}, ${m.region[v]![1]}]`).join(', ')}`);

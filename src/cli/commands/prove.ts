@@ -170,6 +170,11 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
             bits: o.orbit.bits,
           }
         : {}),
+      ...(o.flowPeriod !== undefined
+        ? 'refused' in o.flowPeriod
+          ? { flowPeriodRefused: o.flowPeriod.refused }
+          : { flowPeriod: [o.flowPeriod.lo, o.flowPeriod.hi] }
+        : {}),
       ...(o.certificatePath ? { certificate: o.certificatePath } : {}),
       ...(o.check
         ? { check: { verdict: o.check.verdict, reason: o.check.reason, claimsVerified: o.check.claimsVerified } }
@@ -202,6 +207,9 @@ function pointsCell(o: OrbitOutcome, state: string[]): string {
   });
   if (boxes.length > MAX_POINTS_SHOWN) lines.push(`… ${boxes.length} points in all`);
   lines.push(`widths ≤ ${maxW}`);
+  if (o.flowPeriod !== undefined) {
+    lines.push('refused' in o.flowPeriod ? 'flow period: not enclosed' : `flow period T ∈ ${formatInterval([o.flowPeriod.lo, o.flowPeriod.hi], 10)}`);
+  }
   return lines.join('\n');
 }
 
@@ -239,7 +247,7 @@ export function renderProve(r: CertifyReport, header: string, cwd: string, width
   const out: string[] = [header];
   out.push(
     r.source === 'start'
-      ? `candidate (not a proof): the ${r.period} points from --start, iterated in multiprecision arithmetic`
+      ? `candidate (not a proof): the ${r.period} points from --start, iterated in ${r.map.flow !== undefined ? 'float' : 'multiprecision'} arithmetic`
       : r.source === 'points'
         ? `candidate (not a proof): the ${r.period} points from the --points file`
         : r.source === 'near-iterates'
