@@ -60,3 +60,9 @@ export const MAX_EDGE_DIMENSION = 4;
 export const MAX_FLOW_ORDER = 40;
 /** Most integration steps per orbit point in a flow certificate's plan. */
 export const MAX_FLOW_STEPS = 20_000;
+
+/**
+ * Box-graph counts: a grid level has at most 2^this cells (n · level ≤ this), so cell keys stay
+ * exact integers and the checker's work stays bounded; prover and checker alike.
+ */
+export const MAX_BOX_GRAPH_GRID_LOG2 = 36;

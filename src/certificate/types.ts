@@ -181,6 +181,52 @@ export interface CountPartV1 {
   sha256: string;
 }
 
+export const CERTIFICATE_KIND_BOX_GRAPH_COUNT = 'periodic-orbit-count-box-graph';
+
+/**
+ * The box graph of one period of a count by the box-graph method (n ≥ 2): the grid of level
+ * `level` cuts each interval of the cover's `grid` into 2^level equal slabs (every edge an exact binary
+ * fraction); `cells` are the kept cells as keys k = Σ_a i_a·2^(level·(n−1−a)) in increasing
+ * order; `successors[c]` the indices (into `cells`, increasing) of the cells that cell c's image
+ * meets. Refined from the certificate's base cover, level by level, keeping cells on closed walks
+ * of length p.
+ */
+export interface BoxGraphV1 {
+  level: number;
+  cells: number[];
+  successors: number[][];
+}
+
+export interface BoxGraphCountEntry {
+  period: number;
+  graph: BoxGraphV1;
+  /** Closed paths C_0 → … → C_{p−1} → C_0 of the graph of clusters (touching cells) with C_0 least on the path. */
+  cycles: number;
+  /**
+   * The cover codes (COUNT_ALPHABET coding, as for pieces) of the closed paths' shooting boxes
+   * (hulls of the clusters), one after another in lexicographic order; each code is self-delimiting.
+   */
+  code: string;
+  claims: CountClaims;
+}
+
+export interface BoxGraphCountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-orbit-count-box-graph';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  region: DecimalInterval[];
+  /**
+   * The base cover: the grid cuts the box `grid` (⊇ region; its ends are exact binary fractions,
+   * every cell edge lo + i·(hi − lo)/2^level too); from level `startLevel` (all cells) to `level`,
+   * cells without a successor or a predecessor dropped at each level (the invariant part).
+   */
+  cover: { startLevel: number; level: number; grid: DecimalInterval[] };
+  counts: BoxGraphCountEntry[];
+  sha256: string;
+}
+
 // ---- kinds of issue 10: periodic windows and bifurcation edges (docs/windows.md) ----
 
 export const CERTIFICATE_KIND_WINDOW = 'periodic-window';

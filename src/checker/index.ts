@@ -60,7 +60,7 @@ import {
   MAX_UNKNOWNS,
   STRUCTURED_FROM_UNKNOWNS,
 } from '../certificate/limits.js';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_FLOW_ORBIT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_BOX_GRAPH_COUNT, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_FLOW_ORBIT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
@@ -78,6 +78,7 @@ import { checkAbsence } from './absence.js';
 import { checkSuperstableCount } from './superstable-count.js';
 import { checkCount, CountRejection } from './count.js';
 import { flowImage, flowWork, readFlow, verifyFlowPeriod, type FlowRead } from './flow.js';
+import { checkBoxGraphCount } from './boxgraph.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count' | 'flow-period';
@@ -245,7 +246,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
   const isFlow = d.kind === CERTIFICATE_KIND_FLOW_ORBIT;
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT && !isFlow) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "${CERTIFICATE_KIND_FLOW_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence", "superstable-count" or "${CERTIFICATE_KIND_COUNT}")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT && !isFlow) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "${CERTIFICATE_KIND_FLOW_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence", "superstable-count", "${CERTIFICATE_KIND_COUNT}" or "${CERTIFICATE_KIND_BOX_GRAPH_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
   onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256', ...(isFlow ? ['plan'] : [])], '$');
@@ -563,6 +564,15 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'pieceDepth', 'counts', 'sha256'], '$');
     onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
     checkCount(top, digits, limits);
+    return { claims: ['count'], digits };
+  }
+  if (top && top.format === CERTIFICATE_FORMAT && top.formatVersion === CERTIFICATE_FORMAT_VERSION && top.kind === CERTIFICATE_KIND_BOX_GRAPH_COUNT) {
+    // box-graph count certificates: checker/boxgraph.ts
+    const digits = opts.digits ?? DEFAULT_DIGITS;
+    if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+    onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'cover', 'counts', 'sha256'], '$');
+    onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
+    checkBoxGraphCount(top, digits, limits);
     return { claims: ['count'], digits };
   }
   const other = otherKind(doc, opts, limits);
