@@ -5,6 +5,7 @@
 import { runCheckBench } from './check-bench.js';
 import { runEvalBench } from './eval-bench.js';
 import { runCountBench } from './count-bench.js';
+import { runBoxGraphBench } from './boxgraph-bench.js';
 import { runExprBench } from './expr-bench.js';
 import { runFlowBench } from './flow-bench.js';
 import { runFlowCheckBench } from './flow-check-bench.js';
@@ -30,6 +31,7 @@ const BENCHES: BenchSpec[] = [
   { title: 'prover', file: 'bench/prove-bench.ts', run: runProveBench },
   { title: 'independent checker', file: 'bench/check-bench.ts', run: () => runCheckBench() },
   { title: 'orbit counting', file: 'bench/count-bench.ts', run: runCountBench },
+  { title: 'orbit counting, box graph (n = 2)', file: 'bench/boxgraph-bench.ts', run: runBoxGraphBench },
   { title: 'long orbits', file: 'bench/long-bench.ts', run: runLongBench },
   { title: 'windows and edges', file: 'bench/window-bench.ts', run: runWindowBench },
   { title: 'flow integrator', file: 'bench/flow-bench.ts', run: runFlowBench },

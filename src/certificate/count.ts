@@ -6,7 +6,7 @@ import type { MapDefinition } from '../model/types.js';
 import { certificateMap } from './build.js';
 import { certificateHash } from './canonical.js';
 import { packageVersion, PRODUCER_NAME } from './producer.js';
-import type { CountCertificateV1, CountPartV1, CountPeriodEntry, DecimalInterval } from './types.js';
+import type { BoxGraphCountCertificateV1, BoxGraphCountEntry, CountCertificateV1, CountPartV1, CountPeriodEntry, DecimalInterval } from './types.js';
 
 export interface CountHeader {
   definition: MapDefinition;
@@ -39,5 +39,13 @@ export function buildCountPart(h: CountHeader, shard: { index: number; count: nu
     periods: parts.map((p) => p.period).sort((a, b) => a - b),
     parts: [...parts].sort((a, b) => a.period - b.period),
   };
+  return { ...unsigned, sha256: certificateHash(unsigned) };
+}
+
+/** A count certificate of the box-graph method (kind "periodic-orbit-count-box-graph"). */
+export function buildBoxGraphCountCertificate(h: Omit<CountHeader, 'pieceDepth'>, cover: BoxGraphCountCertificateV1['cover'], counts: BoxGraphCountEntry[]): BoxGraphCountCertificateV1 {
+  const { pieceDepth, ...rest } = header({ ...h, pieceDepth: 0 });
+  void pieceDepth;
+  const unsigned = { ...rest, kind: 'periodic-orbit-count-box-graph' as const, cover: { ...cover, grid: cover.grid.map((g) => [g[0], g[1]] as DecimalInterval) }, counts: [...counts].sort((a, b) => a.period - b.period) };
   return { ...unsigned, sha256: certificateHash(unsigned) };
 }

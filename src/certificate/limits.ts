@@ -50,7 +50,19 @@ export const MAX_BITS = 100_000;
 /** Upper limit of `--workers` (worker threads of src/workflow/pool.ts; more only cost memory). */
 export const MAX_WORKERS = 64;
 
+/**
+ * Largest state dimension n of a det(M ∓ I) fold/flip certificate (n ≥ 2): prover and checker
+ * expand determinants and adjugates by cofactors (n! terms).
+ */
+export const MAX_EDGE_DIMENSION = 4;
+
 /** Highest Taylor order of a flow integration plan (prover options and the checker's reading). */
 export const MAX_FLOW_ORDER = 40;
 /** Most integration steps per orbit point in a flow certificate's plan. */
 export const MAX_FLOW_STEPS = 20_000;
+
+/**
+ * Box-graph counts: a grid level has at most 2^this cells (n · level ≤ this), so cell keys stay
+ * exact integers and the checker's work stays bounded; prover and checker alike.
+ */
+export const MAX_BOX_GRAPH_GRID_LOG2 = 36;

@@ -186,6 +186,52 @@ export interface CountPartV1 {
   sha256: string;
 }
 
+export const CERTIFICATE_KIND_BOX_GRAPH_COUNT = 'periodic-orbit-count-box-graph';
+
+/**
+ * The box graph of one period of a count by the box-graph method (n ≥ 2): the grid of level
+ * `level` cuts each interval of the cover's `grid` into 2^level equal slabs (every edge an exact binary
+ * fraction); `cells` are the kept cells as keys k = Σ_a i_a·2^(level·(n−1−a)) in increasing
+ * order; `successors[c]` the indices (into `cells`, increasing) of the cells that cell c's image
+ * meets. Refined from the certificate's base cover, level by level, keeping cells on closed walks
+ * of length p.
+ */
+export interface BoxGraphV1 {
+  level: number;
+  cells: number[];
+  successors: number[][];
+}
+
+export interface BoxGraphCountEntry {
+  period: number;
+  graph: BoxGraphV1;
+  /** Closed paths C_0 → … → C_{p−1} → C_0 of the graph of clusters (touching cells) with C_0 least on the path. */
+  cycles: number;
+  /**
+   * The cover codes (COUNT_ALPHABET coding, as for pieces) of the closed paths' shooting boxes
+   * (hulls of the clusters), one after another in lexicographic order; each code is self-delimiting.
+   */
+  code: string;
+  claims: CountClaims;
+}
+
+export interface BoxGraphCountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-orbit-count-box-graph';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  region: DecimalInterval[];
+  /**
+   * The base cover: the grid cuts the box `grid` (⊇ region; its ends are exact binary fractions,
+   * every cell edge lo + i·(hi − lo)/2^level too); from level `startLevel` (all cells) to `level`,
+   * cells without a successor or a predecessor dropped at each level (the invariant part).
+   */
+  cover: { startLevel: number; level: number; grid: DecimalInterval[] };
+  counts: BoxGraphCountEntry[];
+  sha256: string;
+}
+
 // ---- kinds of issue 10: periodic windows and bifurcation edges (docs/windows.md) ----
 
 export const CERTIFICATE_KIND_WINDOW = 'periodic-window';
@@ -225,7 +271,9 @@ export type EdgeKindV1 = 'fold' | 'flip' | 'superstable';
 
 /**
  * Exactly one (x_0..x_{p-1}, θ) in boxes × param with x_{i+1 mod p} = f(x_i, θ) and
- * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable). One-dimensional maps.
+ * Λ = Π f'(x_i) = +1 (fold), −1 (flip), or f'(x_0) = 0 (superstable) for one-dimensional maps;
+ * for n ≥ 2 state variables det(M − I) = 0 (fold) or det(M + I) = 0 (flip) with the monodromy
+ * M = Df(x_{p−1})⋯Df(x_0), and `boxes` / `centre.orbit` hold p·n entries, point by point.
  * `map.params[parameter]` holds the range searched (θ* lies in `param`, inside it).
  */
 export interface EdgeCertificateV1 {
@@ -276,5 +324,75 @@ export interface AbsenceCertificateV1 {
   /** Absent: no orbit of minimal period p. fold / flip: no zero of the period-p system with Λ = +1 / −1. */
   condition?: 'fold' | 'flip';
   pieces: { param: DecimalInterval; leaves: AbsenceLeafV1[] }[];
+  sha256: string;
+}
+
+/** One node of an n ≥ 2 absence cover, in pre-order (src/windows/absence-n.ts). */
+export type AbsenceNodeV1 =
+  | { kind: 'split'; axis: number; at: DecimalString }
+  | { kind: 'empty' }
+  | { kind: 'multiplier' }
+  | {
+      kind: 'lower';
+      divisor: number;
+      /** p·n (and d·n) entries, point by point. */
+      boxes: DecimalInterval[];
+      centre: DecimalString[];
+      lowerBoxes: DecimalInterval[];
+      lowerCentre: DecimalString[];
+    };
+
+/**
+ * `periodic-absence` for maps with n ≥ 2 state variables: `region` is a box (n intervals, in
+ * state order) and each piece's `cover` a bisection tree of it in pre-order (a `split` node
+ * halves the current box along `axis` at `at`, lower half first; other nodes are leaves).
+ * `condition` fold / flip: no zero of the period-p system with det(M − I) = 0 / det(M + I) = 0.
+ */
+export interface AbsenceCertificateNV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'periodic-absence';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval[];
+  condition?: 'fold' | 'flip';
+  pieces: { param: DecimalInterval; cover: AbsenceNodeV1[] }[];
+  sha256: string;
+}
+
+export const CERTIFICATE_KIND_SUPERSTABLE_COUNT = 'superstable-count';
+
+/** The orbit of c through the period-q system's boxes x_1..x_{q−1} and θ-box, with the Krawczyk centre. */
+export interface CriticalOrbitV1 {
+  param: DecimalInterval;
+  boxes: DecimalInterval[];
+  centre: { orbit: DecimalString[]; param: DecimalString };
+}
+
+export type SuperstableLeafV1 =
+  | { kind: 'none'; param: DecimalInterval }
+  | (CriticalOrbitV1 & { kind: 'unique'; minimalPeriod: number | null; lower?: CriticalOrbitV1 & { divisor: number } });
+
+/**
+ * Exactly `count` parameters θ in `range` (= map.params[parameter]) whose orbit of the critical
+ * point `critical` (f_x(c, θ) = 0 for every θ in the range) is periodic of minimal period `period`
+ * with all points in `region` (one-dimensional maps). Leaves tile `range` (src/checker/superstable-count.ts).
+ */
+export interface SuperstableCountCertificateV1 {
+  format: 'orbitseal-certificate';
+  formatVersion: 1;
+  kind: 'superstable-count';
+  producer: CertificateProducer;
+  map: CertificateMap;
+  period: number;
+  parameter: string;
+  range: DecimalInterval;
+  region: DecimalInterval;
+  critical: DecimalString;
+  count: number;
+  leaves: SuperstableLeafV1[];
   sha256: string;
 }

@@ -12,13 +12,14 @@ import { Evaluator } from './formula.js';
 import { Exact, isSubset, type Iv } from './interval.js';
 import { image, krawczyk, preconditioner, type Shooting } from './krawczyk.js';
 import { header, parseSteps, Reader, type KindLimits, type Reject } from './window.js';
+import { checkAbsenceN } from './absence-n.js';
 
 export const MAX_ABSENCE_LEAVES = 1_000_000;
 
 export function checkAbsence(d: Record<string, unknown>, digits: number, limits: KindLimits, reject: Reject): { leaves: number } {
   const r = new Reader(reject, limits);
   const { p, parameter, m, range } = header(r, d, 'periodic-absence');
-  if (m.state.length !== 1) reject('$.map.state', 'absence certificates are for one-dimensional maps');
+  if (m.state.length !== 1) return checkAbsenceN(d, digits, limits, reject);
   const declared = r.ivl(d.range, '$.range');
   if (declared[0] !== range[0] || declared[1] !== range[1]) reject('$.range', `range differs from map.params.${parameter}`);
   const region = r.ivl(d.region, '$.region');

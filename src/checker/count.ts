@@ -30,12 +30,12 @@ export class CountRejection extends Error {
     super(message);
   }
 }
-const reject = (path: string, msg: string): never => {
+export const reject = (path: string, msg: string): never => {
   throw new CountRejection(msg, path);
 };
 
 /** Exact arithmetic for node boxes: dyadic midpoints of decimal ends need few hundred digits. */
-const Hi = Decimal.clone({ precision: 1000, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
+export const Hi = Decimal.clone({ precision: 1000, rounding: Decimal.ROUND_HALF_EVEN, minE: -9e15, maxE: 9e15 });
 
 const SWEEPS = 6;
 const KRAWCZYK_STEPS = 6;
@@ -44,19 +44,19 @@ const MAX_PIECE_DEPTH = 16;
 const MAX_COUNT_UNKNOWNS = COUNT_ALPHABET.length;
 
 type Obj = Record<string, unknown>;
-function obj(v: unknown, path: string): Obj {
+export function obj(v: unknown, path: string): Obj {
   if (typeof v !== 'object' || v === null || Array.isArray(v)) reject(path, `expected an object at ${path}`);
   return v as Obj;
 }
-function arr(v: unknown, path: string): unknown[] {
+export function arr(v: unknown, path: string): unknown[] {
   if (!Array.isArray(v)) reject(path, `expected an array at ${path}`);
   return v as unknown[];
 }
-function str(v: unknown, path: string): string {
+export function str(v: unknown, path: string): string {
   if (typeof v !== 'string') reject(path, `expected a string at ${path}`);
   return v as string;
 }
-function int(v: unknown, path: string, min: number, max: number): number {
+export function int(v: unknown, path: string, min: number, max: number): number {
   if (typeof v !== 'number' || !Number.isInteger(v) || v < min || v > max) reject(path, `expected an integer in [${min}, ${max}] at ${path}`);
   return v as number;
 }
@@ -72,8 +72,11 @@ export interface CountCheckLimits {
   maxFormulaLength: number;
 }
 
-/** Verifies a parsed count certificate; throws CountRejection (or DomainViolation) when it cannot. */
-export function checkCount(d: Obj, digits: number, limits: CountCheckLimits): void {
+/**
+ * The common part of count certificates: hash, map (state, parameters, step formulas) and region.
+ * Throws CountRejection.
+ */
+export function readCountHeader(d: Obj, digits: number, limits: CountCheckLimits): { c: IvCtx; params: Map<string, Iv>; step: Node[]; n: number; region: { lo: Decimal; hi: Decimal }[] } {
   if (certificateHash(d) !== str(d.sha256, '$.sha256')) reject('$.sha256', `sha256 does not match the document (computed ${certificateHash(d)})`);
   const map = obj(d.map, '$.map');
   const state = arr(map.state, '$.map.state').map((s, i) => str(s, `$.map.state[${i}]`));
@@ -119,6 +122,12 @@ export function checkCount(d: Obj, digits: number, limits: CountCheckLimits): vo
     if (!lo.lt(hi)) reject(`$.region[${a}]`, 'region interval must have lo < hi');
     return { lo, hi };
   });
+  return { c, params, step, n, region };
+}
+
+/** Verifies a parsed count certificate; throws CountRejection (or DomainViolation) when it cannot. */
+export function checkCount(d: Obj, digits: number, limits: CountCheckLimits): void {
+  const { c, params, step, n, region } = readCountHeader(d, digits, limits);
   const depth = int(d.pieceDepth, '$.pieceDepth', 0, MAX_PIECE_DEPTH);
   const counts = arr(d.counts, '$.counts');
   if (counts.length === 0) reject('$.counts', 'no counts');
@@ -150,7 +159,7 @@ export function checkCount(d: Obj, digits: number, limits: CountCheckLimits): vo
   });
 }
 
-interface Zero {
+export interface Zero {
   K: Iv[];
   X: Iv[];
 }
@@ -176,39 +185,53 @@ function countPeriod(s: Shooting, region: { lo: Decimal; hi: Decimal }[], depth:
       if ((j >> (depth - 1 - l)) & 1) lo[cmp] = mid;
       else hi[cmp] = mid;
     }
-    const stack: { lo: Decimal[]; hi: Decimal[] }[] = [{ lo, hi }];
-    let pos = 0;
-    while (stack.length > 0) {
-      const B = stack.pop()!;
-      if (pos >= code.length) reject(`${path}[${j}]`, `cover code of piece ${j} ends early (a box is missing)`);
-      const ch = code[pos++]!;
-      if (ch === '?') {
-        undecidedBoxes++;
-        continue;
-      }
-      if (ch === '-' || ch === '*') {
-        const X: Iv[] = [];
-        for (let k = 0; k < N; k++) X.push(s.c.literal(B.lo[k]!.toFixed(), B.hi[k]!.toFixed()));
-        // the mark is a plan: what counts is the checker's own decision. A box decided "none" or
-        // "one zero (recorded)" is accounted for either way (a zero recorded from a neighbouring
-        // leaf's inflated box is a true zero and is identified with that leaf's zero later).
-        const r = decide(s, X, width);
-        if (r === 'split') reject(`${path}[${j}]`, `piece ${j}, code position ${pos - 1}: box marked '${ch}' is neither excluded nor shown to hold exactly one zero by the checker (${describe(B, n)})`);
-        if (typeof r === 'object') zeros.push(r);
-        continue;
-      }
-      const k = COUNT_ALPHABET.indexOf(ch);
-      if (k < 0 || k >= N) reject(`${path}[${j}]`, `piece ${j}, code position ${pos - 1}: unknown mark ${JSON.stringify(ch)}`);
-      const mid = Hi.div(Hi.add(B.lo[k]!, B.hi[k]!), 2);
-      const low = { lo: [...B.lo], hi: [...B.hi] };
-      low.hi[k] = mid;
-      const high = { lo: [...B.lo], hi: [...B.hi] };
-      high.lo[k] = mid;
-      stack.push(high, low);
-    }
-    if (pos !== code.length) reject(`${path}[${j}]`, `cover code of piece ${j} has ${code.length - pos} characters after its last box`);
+    const r = replayTree(s, { lo, hi }, code, 0, width, zeros, `${path}[${j}]`, `piece ${j}`);
+    undecidedBoxes += r.undecided;
+    if (r.pos !== code.length) reject(`${path}[${j}]`, `cover code of piece ${j} has ${code.length - r.pos} characters after its last box`);
   }
   return classify(s, zeros, region, undecidedBoxes);
+}
+
+/**
+ * Replays the subtree code starting at `start` for the root box B (exact decimal ends): every
+ * leaf decided afresh, zeros appended to `zeros`. Returns the position after the subtree and the
+ * number of '?' leaves. `width` scales the Krawczyk threshold (region widths).
+ */
+export function replayTree(s: Shooting, root: { lo: Decimal[]; hi: Decimal[] }, code: string, start: number, width: Decimal[], zeros: Zero[], path: string, label: string): { pos: number; undecided: number } {
+  const N = s.p * s.n;
+  const n = s.n;
+  let undecided = 0;
+  const stack: { lo: Decimal[]; hi: Decimal[] }[] = [root];
+  let pos = start;
+  while (stack.length > 0) {
+    const B = stack.pop()!;
+    if (pos >= code.length) reject(path, `cover code of ${label} ends early (a box is missing)`);
+    const ch = code[pos++]!;
+    if (ch === '?') {
+      undecided++;
+      continue;
+    }
+    if (ch === '-' || ch === '*') {
+      const X: Iv[] = [];
+      for (let k = 0; k < N; k++) X.push(s.c.literal(B.lo[k]!.toFixed(), B.hi[k]!.toFixed()));
+      // the mark is a plan: what counts is the checker's own decision. A box decided "none" or
+      // "one zero (recorded)" is accounted for either way (a zero recorded from a neighbouring
+      // leaf's inflated box is a true zero and is identified with that leaf's zero later).
+      const r = decide(s, X, width);
+      if (r === 'split') reject(path, `${label}, code position ${pos - 1}: box marked '${ch}' is neither excluded nor shown to hold exactly one zero by the checker (${describe(B, n)})`);
+      if (typeof r === 'object') zeros.push(r);
+      continue;
+    }
+    const k = COUNT_ALPHABET.indexOf(ch);
+    if (k < 0 || k >= N) reject(path, `${label}, code position ${pos - 1}: unknown mark ${JSON.stringify(ch)}`);
+    const mid = Hi.div(Hi.add(B.lo[k]!, B.hi[k]!), 2);
+    const low = { lo: [...B.lo], hi: [...B.hi] };
+    low.hi[k] = mid;
+    const high = { lo: [...B.lo], hi: [...B.hi] };
+    high.lo[k] = mid;
+    stack.push(high, low);
+  }
+  return { pos, undecided };
 }
 
 function describe(B: { lo: Decimal[]; hi: Decimal[] }, n: number): string {
@@ -351,7 +374,7 @@ function krawczykBox(s: Shooting, X: Iv[]): Iv[] | null {
 }
 
 /** Identification, region membership and minimal period (the prover's rules, derived afresh). */
-function classify(s: Shooting, all: Zero[], region: { lo: Decimal; hi: Decimal }[], undecidedBoxes: number): { zeros: number; orbits: Record<string, number>; undecidedBoxes: number; undecidedZeros: number } {
+export function classify(s: Shooting, all: Zero[], region: { lo: Decimal; hi: Decimal }[], undecidedBoxes: number): { zeros: number; orbits: Record<string, number>; undecidedBoxes: number; undecidedZeros: number } {
   const { c, p, n } = s;
   const N = p * n;
   const sub = (a: Iv[], b: Iv[], sa = 0, sb = 0): boolean => {

@@ -66,30 +66,7 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
       Af[4 * i + k] = Number(At[4 * i + k]!.toString());
     }
   }
-  // @heuristic directions: v forward (unstable), w backward (stable)
-  const v = new Float64Array(2 * p);
-  const w = new Float64Array(2 * p);
-  const laps = Math.max(3, Math.ceil(300 / p));
-  let x = 0.8;
-  let y = 0.6;
-  for (let lap = 0; lap < laps; lap++) {
-    for (let i = 0; i < p; i++) {
-      v[2 * i] = x;
-      v[2 * i + 1] = y;
-      const o = 4 * i;
-      [x, y] = unit(Af[o]! * x + Af[o + 1]! * y, Af[o + 2]! * x + Af[o + 3]! * y);
-    }
-  }
-  x = 0.6;
-  y = -0.8;
-  for (let lap = 0; lap < laps; lap++) {
-    for (let i = p - 1; i >= 0; i--) {
-      const o = 4 * i;
-      [x, y] = unit(Af[o + 3]! * x - Af[o + 1]! * y, -Af[o + 2]! * x + Af[o]! * y);
-      w[2 * i] = x;
-      w[2 * i + 1] = y;
-    }
-  }
+  const { v, w } = directions(Af, p);
   // P_i exact decimals (from the shortest strings of the floats), P^{-1} enclosed, E_i enclosed
   const P: Decimal[][] = new Array(p);
   const Pinv: Iv[][] = new Array(p);
@@ -138,6 +115,149 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
       hF[2 * i + k] = Number(new Approx(c.midpoint(Pinv[q]![2 * k]!)).toString()) * f0 + Number(new Approx(c.midpoint(Pinv[q]![2 * k + 1]!)).toString()) * f1;
     }
   }
+  const yt = signedSolve(hF, Emid, back, p);
+  const zt: Decimal[] = new Array(2 * p);
+  for (let i = 0; i < p; i++) {
+    for (let r = 0; r < 2; r++) {
+      const z = v[2 * i + r]! * yt[2 * i]! + w[2 * i + r]! * yt[2 * i + 1]!;
+      zt[2 * i + r] = new Approx(Number.isFinite(z) ? String(z) : '0');
+    }
+  }
+  // float images of the magnitudes for the (heuristic) sweeps, shared by both paths
+  const magF = Float64Array.from(Emag, (e) => Number(e.toSD(17).toString()));
+  const invMigF = Float64Array.from(invMig, (e) => Number(e.toSD(17).toString()));
+  // over the box: R, G
+  return (X: readonly Iv[], inner: readonly Iv[], lb: string): KrawczykOutcome => {
+  label = lb;
+  const D: Iv[][] = new Array(p);
+  for (let i = 0; i < p; i++) D[i] = image(s, [X[2 * i]!, X[2 * i + 1]!], true, i).jac!;
+  const G: Decimal[] = new Array(2 * p);
+  let gTop = -Infinity;
+  const tiny = new Up('1e-100000');
+  for (let i = 0; i < p; i++) {
+    const jac = D[i]!;
+    const nx = ((i + 1) % p) * 2;
+    const r: Iv[] = [];
+    for (let row = 0; row < 2; row++) {
+      const az = c.add(c.scale(At[4 * i + 2 * row]!, c.point(zt[2 * i]!)), c.scale(At[4 * i + 2 * row + 1]!, c.point(zt[2 * i + 1]!)));
+      let acc = c.sub(c.neg(Fm[2 * i + row]!), c.sub(c.point(zt[nx + row]!), az));
+      for (let col = 0; col < 2; col++) {
+        acc = c.add(acc, c.mul(c.sub(jac[2 * row + col]!, c.point(At[4 * i + 2 * row + col]!)), c.sub(X[2 * i + col]!, M[2 * i + col]!)));
+      }
+      r.push(acc);
+    }
+    const q = Pinv[(i + 1) % p]!;
+    for (let k = 0; k < 2; k++) {
+      const h = c.add(c.mul(q[2 * k]!, r[0]!), c.mul(q[2 * k + 1]!, r[1]!));
+      G[2 * i + k] = Up.add(c.mag(h), tiny);
+      if (!G[2 * i + k]!.isZero()) gTop = Math.max(gTop, G[2 * i + k]!.e);
+    }
+  }
+  // @heuristic ū by float sweeps on G/10^gTop (the inequalities are linear in G)
+  const scale = new Up(`1e${gTop}`);
+  const Gf = Float64Array.from(G, (g) => Number(Up.div(g, scale).toSD(17).toString()) + 1e-300);
+  const U = sweepBound(Gf, magF, invMigF, back, p);
+  if (typeof U === 'string') return fail(U);
+  if (!U.every((t) => t > 0 && t < Infinity)) return fail('no finite bound');
+  const Ud = Array.from(U, (t) => mulU(new Up(String(t * (1 + 2 ** -20))), scale));
+  // rigorous: T ū + G ≤ ū
+  for (let k = 0; k < 2; k++) {
+    const l = 1 - k;
+    for (let i = 0; i < p; i++) {
+      const cpl = Up.add(mulU(Emag[4 * i + 2 * k + l]!, Ud[2 * i + l]!), G[2 * i + k]!);
+      const nx = (i + 1) % p;
+      if (back[k]) {
+        if (!mulU(Up.add(Ud[2 * nx + k]!, cpl), invMig[2 * i + k]!).lte(Ud[2 * i + k]!)) return fail(`the magnitude bound is not a fixed point at point ${i}`);
+      } else if (!Up.add(mulU(Emag[4 * i + 3 * k]!, Ud[2 * i + k]!), cpl).lte(Ud[2 * nx + k]!)) return fail(`the magnitude bound is not a fixed point at point ${i}`);
+    }
+  }
+  for (let i = 0; i < p; i++) {
+    for (let row = 0; row < 2; row++) {
+      const pr = P[i]!;
+      const rad = Up.add(mulU(pr[2 * row]!.abs(), Ud[2 * i]!), mulU(pr[2 * row + 1]!.abs(), Ud[2 * i + 1]!));
+      const k = c.add(c.add(M[2 * i + row]!, c.point(zt[2 * i + row]!)), c.sym(rad));
+      const box = inner[2 * i + row]!;
+      if (!isInterior(k, box)) {
+        const over = Up.max(Up.sub(box.lo, k.lo), Up.sub(k.hi, box.hi));
+        return { ok: false, reason: `${label}: K(X) not inside the interior of the box at point ${i}, component ${row}: K = ${fmt(k, 20)}, box = ${fmt(box, 20)}, exceeds by ${over.toSD(3).toString()} (structured bound)` };
+      }
+    }
+  }
+  return { ok: true, jacobians: D };
+  };
+}
+
+/**
+ * @heuristic ū ≥ 0 with T ū + G ≈≤ ū by float Gauss–Seidel sweeps (closed-form cyclic solve per
+ * component), or the reason why none exists (a component does not contract around the cycle).
+ * Only the rigorous check that follows it counts.
+ */
+export function sweepBound(Gf: Float64Array, magF: Float64Array, invMigF: Float64Array, back: readonly boolean[], p: number): Float64Array | string {
+  const U = new Float64Array(2 * p);
+  for (let sweep = 0; sweep < 40; sweep++) {
+    let change = 0;
+    for (let k = 0; k < 2; k++) {
+      const l = 1 - k;
+      const g = (i: number): number => Gf[2 * i + k]! + magF[4 * i + 2 * k + l]! * U[2 * i + l]!;
+      const before = U[k]!;
+      let t = 0;
+      let prod = 1;
+      if (back[k]) {
+        for (let i = p - 1; i >= 0; i--) {
+          t = (t + g(i)) * invMigF[2 * i + k]!;
+          prod *= invMigF[2 * i + k]!;
+        }
+        t /= 1 - prod;
+        for (let i = p - 1; i >= 0; i--) U[2 * i + k] = t = (t + g(i)) * invMigF[2 * i + k]!;
+      } else {
+        for (let i = 0; i < p; i++) {
+          t = magF[4 * i + 3 * k]! * t + g(i);
+          prod *= magF[4 * i + 3 * k]!;
+        }
+        t /= 1 - prod;
+        for (let i = 0; i < p; i++) {
+          U[2 * i + k] = t;
+          t = magF[4 * i + 3 * k]! * t + g(i);
+        }
+      }
+      if (!(prod < 1)) return `component ${k} does not contract around the cycle`;
+      change = Math.max(change, Math.abs(U[k]! - before) / Math.max(U[k]!, 1e-300));
+    }
+    if (sweep > 0 && change < 1e-9) break;
+  }
+  return U;
+}
+
+/** @heuristic directions along the cocycle Ã_i (floats): v forward (unstable), w backward (stable). */
+export function directions(Af: Float64Array, p: number): { v: Float64Array; w: Float64Array } {
+  const v = new Float64Array(2 * p);
+  const w = new Float64Array(2 * p);
+  const laps = Math.max(3, Math.ceil(300 / p));
+  let x = 0.8;
+  let y = 0.6;
+  for (let lap = 0; lap < laps; lap++) {
+    for (let i = 0; i < p; i++) {
+      v[2 * i] = x;
+      v[2 * i + 1] = y;
+      const o = 4 * i;
+      [x, y] = unit(Af[o]! * x + Af[o + 1]! * y, Af[o + 2]! * x + Af[o + 3]! * y);
+    }
+  }
+  x = 0.6;
+  y = -0.8;
+  for (let lap = 0; lap < laps; lap++) {
+    for (let i = p - 1; i >= 0; i--) {
+      const o = 4 * i;
+      [x, y] = unit(Af[o + 3]! * x - Af[o + 1]! * y, -Af[o + 2]! * x + Af[o]! * y);
+      w[2 * i] = x;
+      w[2 * i + 1] = y;
+    }
+  }
+  return { v, w };
+}
+
+/** @heuristic ỹ ≈ solution of y_{i+1} = E_i y_i + h_i (float Gauss–Seidel, closed-form cyclic solve per component). */
+export function signedSolve(hF: Float64Array, Emid: Float64Array, back: readonly boolean[], p: number): Float64Array {
   const yt = new Float64Array(2 * p);
   const sweepSigned = (): void => {
     for (let k = 0; k < 2; k++) {
@@ -167,102 +287,5 @@ export function prepareCyclic2(s: Shooting, M: readonly Iv[]): BoxTest {
     }
   };
   for (let sw = 0; sw < 4; sw++) sweepSigned();
-  const zt: Decimal[] = new Array(2 * p);
-  for (let i = 0; i < p; i++) {
-    for (let r = 0; r < 2; r++) {
-      const z = v[2 * i + r]! * yt[2 * i]! + w[2 * i + r]! * yt[2 * i + 1]!;
-      zt[2 * i + r] = new Approx(Number.isFinite(z) ? String(z) : '0');
-    }
-  }
-  // over the box: R, G
-  return (X: readonly Iv[], inner: readonly Iv[], lb: string): KrawczykOutcome => {
-  label = lb;
-  const G: Decimal[] = new Array(2 * p);
-  let gTop = -Infinity;
-  const D: Iv[][] = new Array(p);
-  const tiny = new Up('1e-100000');
-  for (let i = 0; i < p; i++) {
-    const jac = image(s, [X[2 * i]!, X[2 * i + 1]!], true, i).jac!;
-    D[i] = jac;
-    const nx = ((i + 1) % p) * 2;
-    const r: Iv[] = [];
-    for (let row = 0; row < 2; row++) {
-      const az = c.add(c.scale(At[4 * i + 2 * row]!, c.point(zt[2 * i]!)), c.scale(At[4 * i + 2 * row + 1]!, c.point(zt[2 * i + 1]!)));
-      let acc = c.sub(c.neg(Fm[2 * i + row]!), c.sub(c.point(zt[nx + row]!), az));
-      for (let col = 0; col < 2; col++) {
-        acc = c.add(acc, c.mul(c.sub(jac[2 * row + col]!, c.point(At[4 * i + 2 * row + col]!)), c.sub(X[2 * i + col]!, M[2 * i + col]!)));
-      }
-      r.push(acc);
-    }
-    const q = Pinv[(i + 1) % p]!;
-    for (let k = 0; k < 2; k++) {
-      const h = c.add(c.mul(q[2 * k]!, r[0]!), c.mul(q[2 * k + 1]!, r[1]!));
-      G[2 * i + k] = Up.add(c.mag(h), tiny);
-      if (!G[2 * i + k]!.isZero()) gTop = Math.max(gTop, G[2 * i + k]!.e);
-    }
-  }
-  // @heuristic ū by float sweeps on G/10^gTop (the inequalities are linear in G)
-  const scale = new Up(`1e${gTop}`);
-  const Gf = Float64Array.from(G, (g) => Number(Up.div(g, scale).toSD(17).toString()) + 1e-300);
-  const magF = Float64Array.from(Emag, (e) => Number(e.toSD(17).toString()));
-  const invMigF = Float64Array.from(invMig, (e) => Number(e.toSD(17).toString()));
-  const U = new Float64Array(2 * p);
-  for (let sweep = 0; sweep < 40; sweep++) {
-    let change = 0;
-    for (let k = 0; k < 2; k++) {
-      const l = 1 - k;
-      const g = (i: number): number => Gf[2 * i + k]! + magF[4 * i + 2 * k + l]! * U[2 * i + l]!;
-      const before = U[k]!;
-      let t = 0;
-      let prod = 1;
-      if (back[k]) {
-        for (let i = p - 1; i >= 0; i--) {
-          t = (t + g(i)) * invMigF[2 * i + k]!;
-          prod *= invMigF[2 * i + k]!;
-        }
-        t /= 1 - prod;
-        for (let i = p - 1; i >= 0; i--) U[2 * i + k] = t = (t + g(i)) * invMigF[2 * i + k]!;
-      } else {
-        for (let i = 0; i < p; i++) {
-          t = magF[4 * i + 3 * k]! * t + g(i);
-          prod *= magF[4 * i + 3 * k]!;
-        }
-        t /= 1 - prod;
-        for (let i = 0; i < p; i++) {
-          U[2 * i + k] = t;
-          t = magF[4 * i + 3 * k]! * t + g(i);
-        }
-      }
-      if (!(prod < 1)) return fail(`component ${k} does not contract around the cycle`);
-      change = Math.max(change, Math.abs(U[k]! - before) / Math.max(U[k]!, 1e-300));
-    }
-    if (sweep > 0 && change < 1e-9) break;
-  }
-  if (!U.every((t) => t > 0 && t < Infinity)) return fail('no finite bound');
-  const Ud = Array.from(U, (t) => mulU(new Up(String(t * (1 + 2 ** -20))), scale));
-  // rigorous: T ū + G ≤ ū
-  for (let k = 0; k < 2; k++) {
-    const l = 1 - k;
-    for (let i = 0; i < p; i++) {
-      const cpl = Up.add(mulU(Emag[4 * i + 2 * k + l]!, Ud[2 * i + l]!), G[2 * i + k]!);
-      const nx = (i + 1) % p;
-      if (back[k]) {
-        if (!mulU(Up.add(Ud[2 * nx + k]!, cpl), invMig[2 * i + k]!).lte(Ud[2 * i + k]!)) return fail(`the magnitude bound is not a fixed point at point ${i}`);
-      } else if (!Up.add(mulU(Emag[4 * i + 3 * k]!, Ud[2 * i + k]!), cpl).lte(Ud[2 * nx + k]!)) return fail(`the magnitude bound is not a fixed point at point ${i}`);
-    }
-  }
-  for (let i = 0; i < p; i++) {
-    for (let row = 0; row < 2; row++) {
-      const pr = P[i]!;
-      const rad = Up.add(mulU(pr[2 * row]!.abs(), Ud[2 * i]!), mulU(pr[2 * row + 1]!.abs(), Ud[2 * i + 1]!));
-      const k = c.add(c.add(M[2 * i + row]!, c.point(zt[2 * i + row]!)), c.sym(rad));
-      const box = inner[2 * i + row]!;
-      if (!isInterior(k, box)) {
-        const over = Up.max(Up.sub(box.lo, k.lo), Up.sub(k.hi, box.hi));
-        return { ok: false, reason: `${label}: K(X) not inside the interior of the box at point ${i}, component ${row}: K = ${fmt(k, 20)}, box = ${fmt(box, 20)}, exceeds by ${over.toSD(3).toString()} (structured bound)` };
-      }
-    }
-  }
-  return { ok: true, jacobians: D };
-  };
+  return yt;
 }

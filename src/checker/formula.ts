@@ -185,7 +185,7 @@ export class Evaluator {
   kink = false;
   constructor(
     readonly c: IvCtx,
-    private readonly params: ReadonlyMap<string, Iv>,
+    readonly params: ReadonlyMap<string, Iv>,
   ) {
     this.slope = { lo: new c.Down('-1'), hi: new c.Up('1') };
   }

@@ -10,7 +10,12 @@
  *     digit of a decimal string (only strings and Decimals are passed to constructors; small
  *     integer JS numbers, which decimal.js converts exactly, appear as operands such as k in k!).
  *     decimal.js exp/ln/pow/trig are never used for enclosures.
- *  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
+ *  1b. Exact BigInt integer arithmetic (+ − ×, `/` truncating toward 0, `>>` flooring) for the
+     binary fixed-point paths of the structured bounds and of n ≤ 2 stability (fixed.ts,
+     formula-fixed.ts, cyclic-fixed.ts, cyclic2-fixed.ts, stability-fixed.ts; issue 8 item 1).
+     Each path only ever says "shown"; when it cannot show a claim the decimal path above decides
+     and words the reason (tests/checker/fixed-differential.test.ts compares both).
+  2. Node's `JSON.parse` for decoding single JSON string tokens (the document structure is read by
  *     our own strict reader, json.ts), and node:crypto SHA-256.
  *  3. The mathematics, stated where it is used: Krawczyk's theorem (K(X) ⊂ int X ⇒ exactly one
  *     zero in X) with interval Jacobians / slope enclosures (krawczyk.ts), series remainder bounds
@@ -57,20 +62,25 @@ import {
   MAX_UNKNOWNS,
   STRUCTURED_FROM_UNKNOWNS,
 } from '../certificate/limits.js';
-import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_FLOW_ORBIT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
+import { CERTIFICATE_FORMAT, CERTIFICATE_FORMAT_VERSION, CERTIFICATE_KIND_BOX_GRAPH_COUNT, CERTIFICATE_KIND_COUNT, CERTIFICATE_KIND_FLOW_ORBIT, CERTIFICATE_KIND_PERIODIC_ORBIT, type CertificateV1 } from '../certificate/types.js';
 import { DomainViolation, Exact, fmt, isDecimalLiteral, isSubset, type Iv } from './interval.js';
 import { ivCtx } from './elementary.js';
 import { Evaluator, FormulaError, isValidName, parseFormula, type Node } from './formula.js';
 import { certificateHash, JsonError, parseStrictJson } from './json.js';
-import { krawczyk, preconditioner, stability, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
+import { krawczyk, preconditioner, stability, type FixedJacobians, type KrawczykOutcome, type Precond, type Shooting, type Stability } from './krawczyk.js';
 import { parseEigenbasis, stabilityN, type EigenbasisHint } from './stability-n.js';
-import { prepareCyclic } from './cyclic.js';
-import { prepareCyclic2, type BoxTest } from './cyclic2.js';
+import { prepareCyclicFast, prepareCyclicFixed } from './cyclic-fixed.js';
+import { type BoxTest } from './cyclic2.js';
+import { prepareCyclic2Fast } from './cyclic2-fixed.js';
+import { stability1Fixed, stability2Fixed } from './stability-fixed.js';
+import { fixedPaths } from './fixed.js';
 import { estimateWork, formulaOps } from './budget.js';
 import { checkEdge, checkWindow } from './window.js';
 import { checkAbsence } from './absence.js';
+import { checkSuperstableCount } from './superstable-count.js';
 import { checkCount, CountRejection } from './count.js';
 import { flowImage, flowWork, readFlow, verifyFlowPeriod, type FlowRead } from './flow.js';
+import { checkBoxGraphCount } from './boxgraph.js';
 
 export type Verdict = 'VERIFIED' | 'REJECTED' | 'UNREADABLE';
 export type ClaimName = 'existence' | 'uniqueness' | 'minimal-period' | 'stability' | 'absence' | 'count' | 'flow-period';
@@ -238,7 +248,7 @@ function readCertificate(doc: unknown, opts: CheckOptions, limits: CheckLimits):
   if (d.format !== CERTIFICATE_FORMAT) reject('$.format', `unknown format ${JSON.stringify(d.format)} (expected "${CERTIFICATE_FORMAT}")`);
   if (d.formatVersion !== CERTIFICATE_FORMAT_VERSION) reject('$.formatVersion', `unknown formatVersion ${JSON.stringify(d.formatVersion)} (this checker reads version ${CERTIFICATE_FORMAT_VERSION})`);
   const isFlow = d.kind === CERTIFICATE_KIND_FLOW_ORBIT;
-  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT && !isFlow) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "${CERTIFICATE_KIND_FLOW_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence" or "${CERTIFICATE_KIND_COUNT}")`);
+  if (d.kind !== CERTIFICATE_KIND_PERIODIC_ORBIT && !isFlow) reject('$.kind', `unknown kind ${JSON.stringify(d.kind)} (expected "${CERTIFICATE_KIND_PERIODIC_ORBIT}", "${CERTIFICATE_KIND_FLOW_ORBIT}", "periodic-window", "bifurcation-edge", "periodic-absence", "superstable-count", "${CERTIFICATE_KIND_COUNT}" or "${CERTIFICATE_KIND_BOX_GRAPH_COUNT}")`);
   // the schema forbids other keys (additionalProperties: false): a key the checker does not read
   // could still be read by a person ("note": "all orbits for r in …") and is refused
   onlyKeys(d, ['claims', 'format', 'formatVersion', 'hints', 'kind', 'map', 'orbit', 'period', 'producer', 'sha256', ...(isFlow ? ['plan'] : [])], '$');
@@ -406,7 +416,7 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     return decC ? krawczyk(s, decC, b.M, Y, inner, label) : noC;
   };
   const cyclic: KrawczykTest = (Y, inner, label) => {
-    prepared ??= n === 1 ? prepareCyclic(s, b.M) : prepareCyclic2(s, b.M);
+    prepared ??= n === 1 ? prepareCyclicFast(s, b.M) : prepareCyclic2Fast(s, b.M);
     return prepared(Y, inner, label);
   };
   const forms: KrawczykTest[] = [];
@@ -419,7 +429,14 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
     if (!hintedHigh && N <= limits.maxDecimalPrecondUnknowns && fallbackOk('dense-decimal')) forms.push(denseDecimal);
     if (n <= 2) forms.push(cyclic);
   }
+  // dense first (dimension 1, short periods): the fixed-point structured bound is tried before
+  // any form and only ever says "shown"; otherwise the forms run as before, reasons unchanged
+  let fixedFirst: ((Y: readonly Iv[], inner: readonly Iv[]) => KrawczykOutcome | null) | undefined;
   return (Y, inner, label) => {
+    if (!cyclicFirst && n === 1 && fixedPaths.enabled) {
+      const out = (fixedFirst ??= prepareCyclicFixed(s, b.M))(Y, inner);
+      if (out) return out;
+    }
     let firstOut: KrawczykOutcome | null = null;
     for (const f of forms) {
       const out = f(Y, inner, label);
@@ -431,10 +448,10 @@ function krawczykForms(r: ReadCertificate, s: Shooting, b: Boxes, plan: Plan, li
 }
 
 /** Existence: Krawczyk on the boxes. Returns D = J(X). */
-function verifyExistence(test: KrawczykTest, b: Boxes): { D: Iv[][] } {
+function verifyExistence(test: KrawczykTest, b: Boxes): Extract<KrawczykOutcome, { ok: true }> {
   const kx = test(b.X, b.Xexact, 'existence');
   if (!kx.ok) reject('$.orbit.boxes', kx.reason);
-  return { D: (kx as { jacobians: Iv[][] }).jacobians };
+  return kx as Extract<KrawczykOutcome, { ok: true }>; // its decimal Jacobians may be made on first read
 }
 
 /** Uniqueness: every box inside centre ± radius, and Krawczyk on the (outer) radius box. */
@@ -480,9 +497,23 @@ function verifyMinimalPeriod(p: number, n: number, Xexact: Iv[]): void {
 }
 
 /** Stability: the class re-derived from D = J(X), and every stated enclosure contains the checker's. */
-function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+function verifyStability(s: Shooting, ex: { jacobians: Iv[][]; fixedJacobians?: FixedJacobians }, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
+  // n = 1, 2: the fixed-point products first (stability-fixed.ts); the decimal ones decide whenever
+  // those do not verify the claim, so a verdict or a reason never rests on the faster path
+  const fast = !fixedPaths.enabled ? null : n === 2 ? stability2Fixed(s.c, ex.fixedJacobians ?? ex.jacobians) : n === 1 && ex.fixedJacobians ? stability1Fixed(s.c, ex.fixedJacobians) : null;
+  if (fast) {
+    try {
+      return verifyStabilityWith(fast, n, claim, kinkOnX);
+    } catch (e) {
+      if (!(e instanceof Refusal)) throw e;
+    }
+  }
   // n >= 3: Gershgorin discs in the certificate's (untrusted) eigenbasis, src/checker/stability-n.ts
-  const st: Stability = n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n);
+  const D = ex.jacobians;
+  verifyStabilityWith(n >= 3 ? { cls: stabilityN(s.c, D, n, claim.eigenbasis ?? null).cls } : stability(s.c, D, n), n, claim, kinkOnX);
+}
+
+function verifyStabilityWith(st: Stability, n: number, claim: StabilityClaim, kinkOnX: boolean): void {
   const claimed = claim.cls;
   // n >= 2 on a kink: D holds slope sets, and eigenvalues of one product cannot decide stability
   if (claimed !== 'undecided' && n >= 2 && kinkOnX) reject('$.claims.stability.class', `claimed class "${claimed}" but a box touches a kink of abs/min/max, where the checker only accepts "undecided" in dimension ${n}`);
@@ -512,17 +543,18 @@ function verifyStability(s: Shooting, D: Iv[][], n: number, claim: StabilityClai
 function otherKind(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } | null {
   const d = doc as Record<string, unknown>;
   if (typeof doc !== 'object' || doc === null || d.format !== CERTIFICATE_FORMAT || d.formatVersion !== CERTIFICATE_FORMAT_VERSION) return null;
-  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence') return null;
+  if (d.kind !== 'periodic-window' && d.kind !== 'bifurcation-edge' && d.kind !== 'periodic-absence' && d.kind !== 'superstable-count') return null;
   const digits = opts.digits ?? DEFAULT_DIGITS;
   // as for orbits: no key the checker does not read (a person could read it as a claim)
   const common = ['format', 'formatVersion', 'kind', 'producer', 'map', 'period', 'parameter', 'sha256'];
-  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : ['range', 'region', 'condition', 'pieces'];
+  const own = d.kind === 'periodic-window' ? ['range', 'pieces', 'gaps'] : d.kind === 'bifurcation-edge' ? ['edge', 'param', 'centre', 'boxes', 'minimalPeriod'] : d.kind === 'superstable-count' ? ['range', 'region', 'critical', 'count', 'leaves'] : ['range', 'region', 'condition', 'pieces'];
   onlyKeys(d, [...common, ...own], '$');
   onlyKeys(obj(d.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
   if (d.kind === 'periodic-window') checkWindow(d, digits, limits, reject);
   else if (d.kind === 'bifurcation-edge') checkEdge(d, digits, limits, reject);
+  else if (d.kind === 'superstable-count') checkSuperstableCount(d, digits, limits, reject);
   else checkAbsence(d, digits, limits, reject);
-  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : ['absence'], digits };
+  return { claims: d.kind === 'periodic-window' ? ['existence', 'minimal-period', 'stability'] : d.kind === 'bifurcation-edge' ? ['existence', 'uniqueness'] : d.kind === 'superstable-count' ? ['count'] : ['absence'], digits };
 }
 
 function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { claims: ClaimName[]; digits: number } {
@@ -534,6 +566,15 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'pieceDepth', 'counts', 'sha256'], '$');
     onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
     checkCount(top, digits, limits);
+    return { claims: ['count'], digits };
+  }
+  if (top && top.format === CERTIFICATE_FORMAT && top.formatVersion === CERTIFICATE_FORMAT_VERSION && top.kind === CERTIFICATE_KIND_BOX_GRAPH_COUNT) {
+    // box-graph count certificates: checker/boxgraph.ts
+    const digits = opts.digits ?? DEFAULT_DIGITS;
+    if (!Number.isInteger(digits) || digits < 10 || digits > limits.maxDigits) reject('$', `working precision ${digits} digits outside [10, ${limits.maxDigits}]`);
+    onlyKeys(top, ['format', 'formatVersion', 'kind', 'producer', 'map', 'region', 'cover', 'counts', 'sha256'], '$');
+    onlyKeys(obj(top.map, '$.map'), ['params', 'state', 'step', 'title'], '$.map');
+    checkBoxGraphCount(top, digits, limits);
     return { claims: ['count'], digits };
   }
   const other = otherKind(doc, opts, limits);
@@ -559,7 +600,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     }
   }
   const test = krawczykForms(r, s, b, plan, limits);
-  const { D } = verifyExistence(test, b);
+  const existence = verifyExistence(test, b);
   const verified: ClaimName[] = ['existence'];
   const kinkOnX = s.ev.kink; // only evaluations over X (and the point M) have run so far
   if (r.radius !== null) {
@@ -571,7 +612,7 @@ function runCheck(doc: unknown, opts: CheckOptions, limits: CheckLimits): { clai
     verified.push('minimal-period');
   }
   if (r.stability) {
-    verifyStability(s, D, n, r.stability, kinkOnX);
+    verifyStability(s, existence, n, r.stability, kinkOnX);
     verified.push('stability');
   }
   if (r.flow && r.flowPeriod) {

@@ -10,6 +10,7 @@
 import type { Decimal } from 'decimal.js';
 import { DomainViolation, fmt, isInterior, IvCtx, type Iv } from './interval.js';
 import type { Evaluator, Node } from './formula.js';
+import type { FixCtx, Fx } from './fixed.js';
 
 export interface Shooting {
   c: IvCtx;
@@ -175,8 +176,14 @@ function precondWith<T>(s: Shooting, box: readonly Iv[], F: Field<T>): Precond |
   return { cols, vals };
 }
 
+/** Jacobians over X in fixed point (fixed.ts), when a fixed-point path showed the inclusion. */
+export interface FixedJacobians {
+  k: FixCtx;
+  D: Fx[][];
+}
+
 export type KrawczykOutcome =
-  | { ok: true; jacobians: Iv[][] }
+  | { ok: true; jacobians: Iv[][]; fixedJacobians?: FixedJacobians }
   | { ok: false; reason: string };
 
 /**
@@ -257,7 +264,8 @@ export interface Stability {
   moduli?: Iv[];
 }
 
-function classify(moduli: Iv[]): Stability['cls'] {
+/** The class from enclosures of the eigenvalue moduli. */
+export function classify(moduli: Iv[]): Stability['cls'] {
   if (moduli.every((m) => m.hi.lt(1))) return 'attracting';
   if (moduli.every((m) => m.lo.gt(1))) return 'repelling';
   if (moduli.some((m) => m.hi.lt(1)) && moduli.some((m) => m.lo.gt(1))) return 'saddle';
@@ -311,7 +319,11 @@ export function stability(c: IvCtx, D: Iv[][], n: number): Stability {
   const detFrames = c.sub(c.mul(Mf[0]!, Mf[3]!), c.mul(Mf[1]!, Mf[2]!));
   const T = direct ? meet(c.add(M[0]!, M[3]!), c.add(Mf[0]!, Mf[3]!)) : c.add(Mf[0]!, Mf[3]!);
   const detDirect = direct ? meet(c.sub(c.mul(M[0]!, M[3]!), c.mul(M[1]!, M[2]!)), detFrames) : detFrames;
-  const det = meet(detDirect, detProd);
+  return fromTraceDet(c, T, meet(detDirect, detProd));
+}
+
+/** n = 2: the class and the moduli from enclosures T ∋ trace and det ∋ determinant of the monodromy. */
+export function fromTraceDet(c: IvCtx, T: Iv, det: Iv): Stability {
   if (det.lo.gt(det.hi) || T.lo.gt(T.hi)) throw new DomainViolation('internal: monodromy enclosures disjoint');
   const disc = c.sub(c.sqr(T), c.scale(new c.Down('4'), det));
   const out: Stability = { cls: 'undecided', trace: T, determinant: det };

@@ -13,6 +13,7 @@ import { DomainViolation, Exact, fmt, isDecimalLiteral, isInterior, isSubset, ty
 import { certificateHash } from './json.js';
 import { krawczyk, preconditioner, stability, type Shooting } from './krawczyk.js';
 import { derivative, SymbolicError } from './symbolic.js';
+import { checkEdgeN } from './edge-n.js';
 
 type Obj = Record<string, unknown>;
 export type Reject = (path: string, msg: string) => never;
@@ -263,7 +264,7 @@ export function checkWindow(d: Obj, digits: number, limits: KindLimits, reject: 
 }
 
 /** @heuristic float inverse (Gauss–Jordan, partial pivoting); null when singular. Any C is valid. */
-function floatInverse(a: number[][]): number[][] | null {
+export function floatInverse(a: number[][]): number[][] | null {
   const N = a.length;
   const m = a.map((row, i) => [...row, ...row.map((_, j) => (i === j ? 1 : 0))]);
   for (let k = 0; k < N; k++) {
@@ -284,14 +285,14 @@ function floatInverse(a: number[][]): number[][] | null {
 }
 
 /**
- * Verify a `bifurcation-edge` certificate (n = 1): Krawczyk on G(x, θ) = (x_{i+1} − f(x_i, θ), g)
+ * Verify a `bifurcation-edge` certificate (n = 1; n ≥ 2 in edge-n.ts): Krawczyk on G(x, θ) = (x_{i+1} − f(x_i, θ), g)
  * with g = Λ − 1, Λ + 1 or f_x(x_0, θ), its Jacobian from ∂f/∂x (symbolic) evaluated in forward
  * mode over the box.
  */
 export function checkEdge(d: Obj, digits: number, limits: KindLimits, reject: Reject): { kind: string } {
   const r = new Reader(reject, limits);
   const { p, parameter, m, range } = header(r, d, 'bifurcation-edge');
-  if (m.state.length !== 1) reject('$.map.state', 'edge certificates are for one-dimensional maps');
+  if (m.state.length !== 1) return checkEdgeN(d, digits, limits, reject);
   if (p + 1 > MAX_EDGE_UNKNOWNS) reject('$.period', `period ${p} exceeds the edge limit of ${MAX_EDGE_UNKNOWNS - 1}`);
   const kind = r.str(d.edge, '$.edge');
   if (!['fold', 'flip', 'superstable'].includes(kind)) reject('$.edge', `unknown edge kind ${JSON.stringify(kind)}`);

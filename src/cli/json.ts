@@ -10,7 +10,47 @@ import type { CommandResult, ExitCode } from './errors.js';
 
 export const CLI_JSON_FORMAT_VERSION = 1;
 
-export type CliJsonKind = 'map' | 'candidates' | 'proofs' | 'check' | 'demo' | 'report' | 'catalogue' | 'error';
+/**
+ * `window`, `edges`, `audit`, `count` and `merge` keep the kinds their reports always had
+ * (`window-report`, …; `merge` prints a count, so `count-report`): readers of format version 1
+ * go on working.
+ */
+export type CliJsonKind =
+  | 'map'
+  | 'candidates'
+  | 'proofs'
+  | 'check'
+  | 'demo'
+  | 'report'
+  | 'catalogue'
+  | 'window-report'
+  | 'edges-report'
+  | 'audit-report'
+  | 'count-report'
+  | 'error';
+
+/** Exact parameters as the envelope gives them: a decimal string, or "[lo, hi]" for an interval. */
+export function paramsJson(params: Record<string, string | readonly [string, string] | { kind: 'exact'; value: string } | { kind: 'interval'; lo: string; hi: string }>): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const [name, v] of Object.entries(params)) {
+    if (typeof v === 'string') out[name] = v;
+    else if (Array.isArray(v)) out[name] = `[${v[0]}, ${v[1]}]`;
+    else {
+      const p = v as { kind: 'exact'; value: string } | { kind: 'interval'; lo: string; hi: string };
+      out[name] = p.kind === 'exact' ? p.value : `[${p.lo}, ${p.hi}]`;
+    }
+  }
+  return out;
+}
+
+/**
+ * The outcome of an item backed by one certificate: 'verified' (the independent checker said
+ * VERIFIED), 'prover-only' (checker not run), else 'rejected-by-checker' — as `prove` says it.
+ */
+export function certificateOutcome(check: { verdict: string } | null | undefined): 'verified' | 'prover-only' | 'rejected-by-checker' {
+  if (check === null || check === undefined) return 'prover-only';
+  return check.verdict === 'VERIFIED' ? 'verified' : 'rejected-by-checker';
+}
 
 /** The envelope as an object (kind and formatVersion first, exitCode last). */
 export function jsonDocument(kind: CliJsonKind, body: Record<string, unknown>, exitCode: ExitCode): Record<string, unknown> {

@@ -112,6 +112,7 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--no-check', 'do not run the independent checker (results are then labelled "fast engine only")')
     .option('--digits <D>', 'decimal digits for the checker (default: the certificate hint)')
     .option('--workers <K>', 'worker threads (default: the number of cores); certificates are the same for any K')
+    .option('--recheck', 'a re-run resumes the orbits an earlier run of the same command finished; re-check their certificates instead of relying on the recorded verdict')
     .option('--param <name=value>', PARAM_HELP, collect)
     .option('--json', 'print one JSON document')
     .action((map: string, o: ProveCommandOptions) => {
@@ -139,12 +140,13 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
 
   program
     .command('edges')
-    .description('enclose fold (multiplier +1), flip (−1) and superstable parameters of period-P orbits in a range (one-dimensional maps)')
+    .description('enclose fold (multiplier +1 / det(M − I) = 0), flip (−1 / det(M + I) = 0) and superstable parameters of period-P orbits in a range')
     .argument('<map>', 'catalogue name or map file (YAML/JSON)')
     .requiredOption('--period <P>', 'period of the orbits')
     .option('--param <name=value>', RANGE_HELP, collect)
     .option('--kind <list>', 'fold, flip, superstable (comma-separated; default fold,flip)')
     .option('--samples <N>', 'parameter samples for the float seeds (default 12)')
+    .option('--critical <c>', 'with --kind superstable: count them exactly (orbit of the critical point c, the rest of the range excluded)')
     .option('--out <dir>', 'folder for certificates', DEFAULT_OUT_DIR)
     .option('--force', 'replace existing certificate files')
     .option('--no-check', 'do not run the independent checker')
@@ -222,6 +224,9 @@ export async function runCli(argv: readonly string[], ctx: RunContext = {}): Pro
     .option('--workers <K>', 'worker threads (default 1)')
     .option('--shard <i/n>', 'run only shard i of n and write a partial certificate (combine with merge)')
     .option('--pieces <k>', 'cut the work into 2^k pieces (default 6)')
+    .option('--method <name>', 'shooting (branch and prune on region^P; n = 1 always) or box-graph (default for n >= 2)')
+    .option('--level <L>', 'box graph: level of the base cover, 2^L slabs per coordinate (default 6)')
+    .option('--max-level <L>', 'box graph: finest level of the per-period refinement (default 12)')
     .option('--out <file>', 'write the certificate (or partial certificate) here')
     .option('--force', 'replace an existing file')
     .option('--no-check', 'do not run the independent checker')

@@ -128,16 +128,29 @@ export class ShootingCounter {
 
   /** Decides piece j completely. */
   runPiece(j: number): PieceResult {
+    const root = this.slot(0);
+    if (!this.pieceBox(j, root)) {
+      return { period: this.period, piece: j, code: '?', zeros: new Float64Array(0), undecided: 1, nodes: 1 };
+    }
+    return { period: this.period, piece: j, ...this.runRoot() };
+  }
+
+  /**
+   * Decides the subtree of an explicit root box (2N doubles, exact dyadic splits below it), e.g. a
+   * cycle's box sequence of the box graph; same coding as a piece.
+   */
+  runBox(root: Float64Array): { code: string; zeros: Float64Array; undecided: number; nodes: number } {
+    this.slot(0).set(root);
+    return this.runRoot();
+  }
+
+  private runRoot(): { code: string; zeros: Float64Array; undecided: number; nodes: number } {
     const N = this.N;
     const code: number[] = [];
     let zeros = new Float64Array(64 * N);
     let nz = 0;
     let undecided = 0;
     let nodes = 0;
-    const root = this.slot(0);
-    if (!this.pieceBox(j, root)) {
-      return { period: this.period, piece: j, code: '?', zeros: new Float64Array(0), undecided: 1, nodes: 1 };
-    }
     let h = 1; // stack height; slot(h-1) is the top box
     while (h > 0) {
       const B = this.slot(--h);
@@ -189,7 +202,7 @@ export class ShootingCounter {
     }
     let text = '';
     for (let i = 0; i < code.length; i += 8192) text += String.fromCharCode(...code.slice(i, i + 8192));
-    return { period: this.period, piece: j, code: text, zeros: zeros.slice(0, nz * 4 * N), undecided, nodes };
+    return { code: text, zeros: zeros.slice(0, nz * 4 * N), undecided, nodes };
   }
 
   /** NONE, UNIQUE (K and Xt hold the Krawczyk data) or SPLIT (X holds the contracted box). */

@@ -37,16 +37,17 @@ export const REPORT_RELATIVE_MARGIN = '9.3132257461547851562e-10';
 export const REPORT_ABSOLUTE_MARGIN = '1e-300';
 
 /**
- * [lo, hi] widened outward by |·|·2^-30 + 1e-300 and rounded outward to `digits` significant
+ * [lo, hi] widened outward by |·|·2^-30 + `absoluteMargin` (default 1e-300; a quantity held in
+ * scaled form m·2^e passes 1e-300·2^e, so a determinant like 0.3^5000 stays readable) and rounded outward to `digits` significant
  * digits, so an independent checker computing with different rounding lands inside it.
  */
-export function widenPair(lo: string, hi: string, digits = 20): [string, string] {
+export function widenPair(lo: string, hi: string, digits = 20, absoluteMargin: string = REPORT_ABSOLUTE_MARGIN): [string, string] {
   const Dn = ExactFloor;
   const Up = ExactCeil;
   const l = new Dn(lo);
   const h = new Up(hi);
-  const wl = l.sub(l.abs().mul(REPORT_RELATIVE_MARGIN).toSignificantDigits(30, Decimal.ROUND_CEIL)).sub(REPORT_ABSOLUTE_MARGIN);
-  const wh = h.add(h.abs().mul(REPORT_RELATIVE_MARGIN).toSignificantDigits(30, Decimal.ROUND_CEIL)).add(REPORT_ABSOLUTE_MARGIN);
+  const wl = l.sub(l.abs().mul(REPORT_RELATIVE_MARGIN).toSignificantDigits(30, Decimal.ROUND_CEIL)).sub(absoluteMargin);
+  const wh = h.add(h.abs().mul(REPORT_RELATIVE_MARGIN).toSignificantDigits(30, Decimal.ROUND_CEIL)).add(absoluteMargin);
   return [wl.toSignificantDigits(digits, Decimal.ROUND_FLOOR).toString(), wh.toSignificantDigits(digits, Decimal.ROUND_CEIL).toString()];
 }
 

@@ -16,7 +16,7 @@ import { cyclicPreconditioner, floatPreconditioner, pointPreconditioner, type Pr
 import { MAX_DECIMAL_DENSE_UNKNOWNS, MAX_DENSE_UNKNOWNS, MAX_UNKNOWNS, STRUCTURED_FROM_UNKNOWNS } from '../certificate/limits.js';
 import { decimalContext } from '../linalg/decimal.js';
 import { attempt, type AttemptClaims, type AttemptResult } from './orbit-core.js';
-import { floatShootingInverse, refineFloat, refineMp, type MpRefinement } from './refine.js';
+import { floatShootingInverse, refineFloat, refineMp, refineMpStructured, type MpRefinement, type MpStructuredRefinement } from './refine.js';
 import { DECIMAL_LITERAL, decimalOfDouble, digitsForBits } from '../interval/decimal-literal.js';
 import { intervalArithmetic } from '../interval/interval-arith.js';
 import { mpIntervalArithmetic } from '../interval/mp.js';
@@ -217,12 +217,19 @@ export function proveOrbitWith(
   }
 
   const acceptAssumed = opts.acceptAssumed ?? true;
+  // Up to MAX_DECIMAL_DENSE_UNKNOWNS the dense multiprecision inverse is kept (it also handles
+  // cycles the structured bound cannot split, e.g. complex multipliers).
+  const mpStructured = structured && N > MAX_DECIMAL_DENSE_UNKNOWNS;
   const wantMore = (): boolean =>
     book.best === null || (escalateIncomplete && !book.best.claims.complete) || (!acceptAssumed && book.best.claims.assumed);
-  const hardStop = book.lastFailure.reason === 'newton-failed' && book.best === null && opts.refine !== false;
+  // (a long orbit given exactly, e.g. --start with many digits, may fail float Newton only
+  // because it passes close to a critical point: the structured multiprecision ladder still runs)
+  const hardStop = book.lastFailure.reason === 'newton-failed' && book.best === null && opts.refine !== false && !(exactStart && mpStructured);
   // Multiprecision escalation forms a dense decimal inverse: refused beyond its own limit (it would
   // run for minutes and exhaust memory), with the reason in the attempts.
-  const mpAllowed = N <= MAX_DECIMAL_DENSE_UNKNOWNS;
+  // The structured bound (dimensions 1 and 2, long periods) escalates without any dense matrix:
+  // Newton by iterative refinement and the block-cyclic preconditioner (refineMpStructured).
+  const mpAllowed = N <= MAX_DECIMAL_DENSE_UNKNOWNS || mpStructured;
   if (ariths.mp && wantMore() && !hardStop && !mpAllowed) {
     attempts.push({ bits: 106, outcome: 'failed', detail: `multiprecision escalation not attempted: p·n = ${N} exceeds ${MAX_DECIMAL_DENSE_UNKNOWNS} unknowns (dense multiprecision solve)` });
   }
@@ -235,6 +242,31 @@ export function proveOrbitWith(
       const tr = performance.now();
       const noRefine = opts.refine === false;
       mpStart ??= mpStartOf();
+      if (mpStructured) {
+        const sref: MpStructuredRefinement = refineMpStructured(a, ev, D, mpStart, p, n, noRefine ? 0 : 60);
+        refineMs += performance.now() - tr;
+        const C = sref.blocks === null ? null : cyclicPreconditioner<unknown>(sref.blocks);
+        if ((!sref.converged && !noRefine) || C === null) {
+          const detail = C === null ? 'the shooting Jacobian could not be evaluated in float64 range for the structured preconditioner' : `Newton (iterative refinement) did not converge (last relative correction ${shortNumber(sref.lastStep)}); if a multiplier is near ±1 (a fold or flip parameter) the orbit is not isolated and cannot be proven there`;
+          book.fail(bits, C === null ? 'singular' : 'newton-failed', detail);
+          continue;
+        }
+        if (!exactStart) mpStart = sref.x;
+        const res = attempt({
+          arith: a,
+          evaluator: ev,
+          period: p,
+          dim: n,
+          centre: sref.x.map((v) => a.midPoint(a.fromDecimal(v.toString()))),
+          C,
+          digits: digitsForBits(bits),
+          floatEndpoints: false,
+          uniqueness,
+          maxInflations,
+        });
+        book.record(bits, res);
+        continue;
+      }
       const ref: MpRefinement = refineMp(a, ev, D, mpStart, p, n, noRefine ? 0 : 60);
       refineMs += performance.now() - tr;
       if ((!ref.converged && !noRefine) || ref.inverse === null) {

@@ -23,7 +23,7 @@
  * class is decided from the widened enclosures only.
  */
 import type { IntervalArithmetic } from '../interval/arithmetic.js';
-import { ExactCeil, ExactFloor, pairAbsAboveOne, pairAbsBelowOne, widenPair } from './decimal-out.js';
+import { ExactCeil, ExactFloor, pairAbsAboveOne, pairAbsBelowOne, REPORT_ABSOLUTE_MARGIN, widenPair } from './decimal-out.js';
 import { compareDecimal as cmp, decimalOfDouble } from '../interval/decimal-literal.js';
 import { intervalMatMul, orthogonalInverseEnclosure, orthonormalColumns } from '../linalg/interval-matrix.js';
 import { down, mulDown, mulUp, up } from '../interval/round.js';
@@ -104,7 +104,10 @@ function scaledPair(lo: number, hi: number, e: number): DecimalPair {
   // lower end: lo·2^e rounded down (2^e rounded so that the product moves down)
   const L = lo >= 0 ? ExactFloor.mul(decimalOfDouble(lo), pow(ExactFloor)) : ExactFloor.mul(decimalOfDouble(lo), pow(ExactCeil));
   const H = hi >= 0 ? ExactCeil.mul(decimalOfDouble(hi), pow(ExactCeil)) : ExactCeil.mul(decimalOfDouble(hi), pow(ExactFloor));
-  return widenPair(L.toString(), H.toString());
+  // the absolute floor scaled like the value (1e-300·2^e, rounded up): a scaled enclosure of a
+  // determinant (−0.3)^5000 is printed as itself, not as ±1e-300
+  const floor = e < 0 ? ExactCeil.mul(REPORT_ABSOLUTE_MARGIN, pow(ExactCeil)).toSignificantDigits(3, ExactCeil.ROUND_CEIL).toString() : REPORT_ABSOLUTE_MARGIN;
+  return widenPair(L.toString(), H.toString(), 20, floor);
 }
 
 /**

@@ -105,12 +105,15 @@ export function renderReportHtml(entries: readonly ReportEntry[], opts: ReportOp
     const id = `cert-${i + 1}`;
     const r: Rendered = { entry, id };
     if (entry.verdict === 'VERIFIED' && entry.certificate) {
-      const view = kindView(entry.certificate.kind);
+      // the edge and absence views draw one-dimensional maps; det(M ∓ I) edges and box covers of n ≥ 2 have none yet
+      const dim = (entry.certificate as { map?: { state?: unknown[] } }).map?.state?.length ?? 1;
+      const oneDimOnly = (entry.certificate.kind === 'bifurcation-edge' || entry.certificate.kind === 'periodic-absence') && dim !== 1;
+      const view = oneDimOnly ? undefined : kindView(entry.certificate.kind);
       if (view) {
         r.view = view.render(entry.certificate, id);
         const d = view.parameterDiagram?.(entry.certificate);
         if (d) r.diagram = d;
-      } else r.noView = `no view for certificate kind “${entry.certificate.kind}” yet`;
+      } else r.noView = oneDimOnly ? `no view for ${entry.certificate.kind} certificates of ${dim}-dimensional maps yet` : `no view for certificate kind “${entry.certificate.kind}” yet`;
     }
     return r;
   });

@@ -33,7 +33,7 @@ export interface ProvenEdge {
   parameter: string;
   /** Enclosure of θ*. */
   param: DecimalPair;
-  /** p boxes (n = 1), and the Krawczyk centre (x then θ). */
+  /** p boxes (n = 1; p·n flattened point by point for n ≥ 2, edges-n.ts), and the Krawczyk centre (x then θ). */
   boxes: DecimalPair[];
   centre: string[];
   centreParam: string;
@@ -105,10 +105,15 @@ export function augmentedSystem<T>(A: Arithmetic<T>, so: unknown, kind: EdgeKind
 /** @heuristic float Newton on the augmented system; null when it does not converge. */
 export function newtonAugmented(so: unknown, kind: EdgeKind, start: readonly number[], maxIter = 60): number[] | null {
   const A = createFloatArithmetic();
+  return newtonOn((z) => augmentedSystem(A, so, kind, z, true), start, maxIter);
+}
+
+/** @heuristic float Newton on any square system given as G and sparse Jacobian columns. */
+export function newtonOn(system: (z: readonly number[]) => { G: number[]; cols: SparseColumn<number>[] }, start: readonly number[], maxIter = 60): number[] | null {
   const z = [...start];
   const N = z.length;
   for (let it = 0; it < maxIter; it++) {
-    const { G, cols } = augmentedSystem(A, so, kind, z, true);
+    const { G, cols } = system(z);
     const J = new Float64Array(N * N);
     for (let k = 0; k < N; k++) for (let q = 0; q < cols[k]!.rows.length; q++) J[cols[k]!.rows[q]! * N + k] += cols[k]!.values[q]!;
     const dz = solve(J, N, G);
@@ -130,20 +135,32 @@ export interface EdgeProofOptions {
   maxInflations?: number;
 }
 
+/** An augmented system over float64 intervals: G(z) and (withJacobian) its sparse columns. */
+export type AugmentedIntervalSystem = (A: IntervalArithmetic<Interval>, so: unknown, z: readonly Interval[], withJacobian: boolean) => { G: Interval[]; cols: SparseColumn<Interval>[] };
+
 /** Krawczyk proof around a float solution z of the augmented system; null when not proven. */
 export function proveEdgeAt(ext: FormulaMap, kind: EdgeKind, z: readonly number[], opts: EdgeProofOptions = {}): { Z: Interval[]; m: Interval[] } | null {
+  return proveAugmentedAt(ext, (A, so, zz, j) => augmentedSystem(A, so, kind, zz, j), z, opts);
+}
+
+/**
+ * Epsilon-inflation and Krawczyk around a float zero z of any augmented system (n = 1 edges,
+ * and det(M ∓ I) edges of n ≥ 2 in edges-n.ts); null when not proven. The returned Z is a box
+ * where K(Z) ⊂ int Z was seen.
+ */
+export function proveAugmentedAt(ext: FormulaMap, augmentedSystem: AugmentedIntervalSystem, z: readonly number[], opts: EdgeProofOptions = {}): { Z: Interval[]; m: Interval[] } | null {
   const A: IntervalArithmetic<Interval> = intervalArithmetic();
   const so = ext.secondOrder(A);
   const m = z.map((v) => A.fromNumber(v));
   resetStatus(A);
-  const Gm = augmentedSystem(A, so, kind, m, false).G;
+  const Gm = augmentedSystem(A, so, m, false).G;
   if (!A.status.continuous) return null;
   let X = m.map((v) => A.inflate(v, 1e-15 * (1 + Math.abs(A.midNumber(v)))));
   let C: Float64Array | null = null;
   const maxInflations = opts.maxInflations ?? 25;
   for (let it = 0; it < maxInflations; it++) {
     resetStatus(A);
-    const { cols } = augmentedSystem(A, so, kind, X, true);
+    const { cols } = augmentedSystem(A, so, X, true);
     if (!A.status.continuous) return null;
     if (C === null) C = floatInverseOfColumns(A, cols);
     if (C === null) return null;
@@ -153,7 +170,7 @@ export function proveEdgeAt(ext: FormulaMap, kind: EdgeKind, z: readonly number[
       let Y = k.image.map((v, i) => A.intersect(v, X[i]!)!);
       for (let t = 0; t < 3; t++) {
         resetStatus(A);
-        const c2 = augmentedSystem(A, so, kind, Y, true).cols;
+        const c2 = augmentedSystem(A, so, Y, true).cols;
         if (!A.status.continuous) break;
         const k2 = sparseKrawczyk(A, m, Gm, c2, Y, C);
         if (k2.kind !== 'inside') break;

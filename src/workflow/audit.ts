@@ -22,6 +22,7 @@ import type { DecimalPair } from '../prove/types.js';
 import { checkDirectoryUsable } from '../certificate/write.js';
 import { readClaimsFile, type WindowClaim } from './claims.js';
 import { runAbsence, runEdges, runWindow, type CertificateOutcome } from './window.js';
+import { MAX_EDGE_DIMENSION } from '../certificate/limits.js';
 
 export type AuditVerdict = 'CONFIRMED' | 'REFUTED' | 'UNDECIDED';
 
@@ -59,7 +60,7 @@ const verified = (c: CertificateOutcome | undefined): boolean => c?.check?.verdi
 
 function auditWindow(claim: WindowClaim, def: MapDefinition, exact: Record<string, ParamValue>, dir: string | undefined, force: boolean): AuditPart {
   const what = `window ${claim.parameter} in [${claim.range[0]}, ${claim.range[1]}], period ${claim.period}${claim.stability ? `, ${claim.stability}` : ''}`;
-  for (const at of def.state.length === 1 ? [claim.range[0], claim.range[1]] : []) {
+  for (const at of [claim.range[0], claim.range[1]]) {
     const a = runAbsence({ def, overrides: exact, parameter: claim.parameter, range: [at, at], period: claim.period, ...(dir ? { outDir: dir } : {}), file: `no-orbit-at-${at}.json`, force });
     if (a.status === 'proven' && verified(a.certificate)) {
       return { what, verdict: 'REFUTED', detail: `no orbit of minimal period ${claim.period} in the region at ${claim.parameter} = ${at}`, certificates: [a.certificate!] };
@@ -78,7 +79,7 @@ function auditWindow(claim: WindowClaim, def: MapDefinition, exact: Record<strin
 
 function auditEdge(claim: WindowClaim, e: WindowClaim['edges'][number], k: number, def: MapDefinition, exact: Record<string, ParamValue>, dir: string | undefined, force: boolean): AuditPart {
   const what = `${e.kind} at ${e.value} ± ${e.tolerance}`;
-  if (def.state.length !== 1) return { what, verdict: 'UNDECIDED', detail: 'edges of maps with more than one state variable are not implemented', certificates: [] };
+  if (def.state.length > MAX_EDGE_DIMENSION) return { what, verdict: 'UNDECIDED', detail: `edges of maps with more than ${MAX_EDGE_DIMENSION} state variables are not implemented`, certificates: [] };
   const v = new Decimal(e.value);
   const t = new Decimal(e.tolerance);
   const tol: DecimalPair = [v.minus(t).toString(), v.plus(t).toString()];

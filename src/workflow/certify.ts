@@ -5,10 +5,25 @@
  */
 import { basename, join } from 'node:path';
 import { Decimal } from 'decimal.js';
-import { buildCertificate } from '../certificate/build.js';
-import { renameSync, unlinkSync } from 'node:fs';
+import { buildCertificate, certificateMap } from '../certificate/build.js';
+import {
+  candidateHash,
+  mapHash,
+  readResumable,
+  RECHECKED_NOTE,
+  RECORDED_VERDICT_NOTE,
+  removeStaleTemporaries,
+  rereadCertificate,
+  sha256Hex,
+  UNCHECKED_NOTE,
+  type ManifestEntry,
+  type OrbitStatus,
+  type ResumedCertificate,
+  type RunManifest,
+} from './resume.js';
+import { readFileSync, renameSync, unlinkSync } from 'node:fs';
 import { OrbitIdentifier } from '../prove/identify.js';
-import { DirectorySync, certificateFileName, checkDirectoryUsable, writeCertificate, writeFileAtomic } from '../certificate/write.js';
+import { DirectorySync, certificateFileName, checkDirectoryUsable, serializeCertificate, writeFileAtomic } from '../certificate/write.js';
 import { packageVersion, PRODUCER_NAME } from '../certificate/producer.js';
 import { checkPaths, type CheckReport } from '../checker/index.js';
 import type { CompiledMap, MapDefinition, ParamValue } from '../model/types.js';
@@ -57,8 +72,10 @@ export interface CertifyOptions {
   progress?: (attempt: number, total: number) => void;
   /**
    * Worker threads (default: the number of cores). With more than one, the candidates are proven
-   * in parallel (src/workflow/prove-task.ts); identification, writing and checking then run in
-   * candidate order on this thread, so files and report are those of a one-worker run.
+   * and their certificates' bytes re-verified by the checker in parallel
+   * (src/workflow/prove-task.ts); identification and writing then run in candidate order on this
+   * thread (each written file compared byte for byte with what the checker read), so files and
+   * report are those of a one-worker run.
    */
   workers?: number;
   /** Called after each seed of the float search (`done` of `total`); for a progress display. */
@@ -79,27 +96,15 @@ export interface CertifyOptions {
    * Absent: no manifest.
    */
   manifestCommand?: string;
+  /**
+   * Resumed orbits (finished by an earlier run of the same command, recorded in its manifest):
+   * run the independent checker on their certificates again instead of relying on the VERIFIED
+   * verdict the manifest records for the same bytes.
+   */
+  recheck?: boolean;
 }
 
-/** The run manifest: what was asked, by which version, and which orbits finished. */
-export interface RunManifest {
-  kind: 'run-manifest';
-  formatVersion: 1;
-  command: string;
-  producer: string;
-  map: { title: string; state: string[]; params: Record<string, string | [string, string]> };
-  period: number;
-  candidatesFound: number;
-  toAttempt: number;
-  finished: { index: number; status: OrbitStatus; certificate?: string }[];
-  complete: boolean;
-}
-
-/**
- * How far a result got. Only `verified` means proven AND independently re-verified; `prover-only`
- * means the fast engine proved it and nobody re-checked (the user turned the checker off).
- */
-export type OrbitStatus = 'verified' | 'prover-only' | 'rejected-by-checker' | 'not-proven';
+export type { OrbitStatus, RunManifest } from './resume.js';
 
 export interface OrbitOutcome {
   /** 1-based, in candidate order. */
@@ -111,6 +116,15 @@ export interface OrbitOutcome {
   orbit?: ProvenOrbit;
   certificatePath?: string;
   check?: CheckReport;
+  /**
+   * Finished by an earlier run of the same command and re-read from its manifest and certificate,
+   * not proven again: 'recorded-verdict' (status from the checker verdict the manifest records for
+   * these exact bytes), 'rechecked' (the checker ran again in this run), 'unchecked' (checker off),
+   * 'not-proven' (the earlier attempt failed; same candidate, same command).
+   */
+  resumed?: 'recorded-verdict' | 'rechecked' | 'unchecked' | 'not-proven';
+  /** With `resumed: 'recorded-verdict'`: the claims the checker re-verified in the earlier run. */
+  recordedClaims?: string[];
   /**
    * For a proven orbit of a flow map: an enclosure [lo, hi] (exact decimals) of the flow period
    * (sum of the return times, or p·T for a time-T map; src/flow/period.ts), or why there is none.
@@ -148,6 +162,10 @@ export interface CertifyReport {
   merged: { attempt: number; sameAs: number }[];
   outDir: string;
   checked: boolean;
+  /** Attempts finished by an earlier run of the same command and not redone (see OrbitOutcome.resumed). */
+  resumed: number;
+  /** Proof attempts in this run (resumed ones included). */
+  toAttempt: number;
   /**
    * At least one orbit attempted, and every attempted one proven (and re-verified, when the
    * checker ran) with minimal period `period`. The CLI maps false to exit code 1.
@@ -251,6 +269,8 @@ export function planBoxes(orbit: ProvenOrbit): [string, string][][] {
   }));
 }
 
+/** Run manifests with up to this many finished entries are rewritten after every orbit. */
+const MANIFEST_EVERY_ORBIT_UP_TO = 500;
 
 /** How many candidates `prove` attempts without --near, --limit or --all. */
 export const DEFAULT_PROVE_LIMIT = 20;
@@ -260,6 +280,15 @@ function overrideTexts(o: Record<string, ParamValue> | undefined): Record<string
   const out: Record<string, string | [string, string]> = {};
   for (const [k, v] of Object.entries(o ?? {})) out[k] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
   return out;
+}
+
+/** Does the file at `path` hold exactly `text` (UTF-8)? False when it cannot be read. */
+function fileHolds(path: string, text: string): boolean {
+  try {
+    return readFileSync(path, 'utf8') === text;
+  } catch {
+    return false;
+  }
 }
 
 /**
@@ -333,6 +362,8 @@ export async function certifyOrbits(
   const chosen: Candidate[] = (limit === null ? order : order.slice(0, limit)).map((i) => found[i]!);
 
   const outcomes: OrbitOutcome[] = [];
+  /** The manifest entry of each outcome (same order). */
+  const entries: ManifestEntry[] = [];
   const merged: CertifyReport['merged'] = [];
   const identifier = new OrbitIdentifier(opts.period, compiled.dim);
   const keptIndex: number[] = [];
@@ -341,52 +372,157 @@ export async function certifyOrbits(
   // one folder fsync for the whole run (each file's data is synced as it is written); the run
   // manifest is rewritten after every orbit and shares it
   const dirSync = new DirectorySync();
+  const paramTexts = overrideTexts(opts.overrides);
   const manifestPath = opts.manifestCommand !== undefined
-    ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, overrideTexts(opts.overrides)).replace(/-0\.json$/, '.run'))
+    ? join(opts.outDir, certificateFileName(def.title, opts.period, 0, paramTexts).replace(/-0\.json$/, '.run'))
     : undefined;
+  // an interrupted earlier run may have left a temporary file of an unfinished atomic write
+  if (manifestPath !== undefined) removeStaleTemporaries(opts.outDir, basename(manifestPath).replace(/\.run$/, ''));
+  const certMap = certificateMap(def, opts.overrides);
+  const producer = `${PRODUCER_NAME} ${packageVersion()}`;
+  const candidateHashes = chosen.map((c) => candidateHash(startPoints ?? c.points));
+  // an earlier run of the same command: its finished attempts, matched by candidate (never with --force)
+  const previous = manifestPath !== undefined && !opts.force
+    ? readResumable(manifestPath, { command: opts.manifestCommand!, producer, mapHash: mapHash(certMap), period: opts.period })
+    : null;
+  /** Per attempt (0-based): what can be taken over from the earlier run, or null (prove it). */
+  const carried: ({ entry: ManifestEntry; cert: ResumedCertificate | null } | null)[] = chosen.map((_, i) => {
+    const entry = previous?.get(i + 1);
+    if (entry === undefined || entry.candidate !== candidateHashes[i]) return null;
+    if (entry.status === 'not-proven') return { entry, cert: null };
+    const wantStatus = checkOn && def.flow?.section === undefined ? 'verified' : 'prover-only';
+    if (entry.status !== wantStatus) return null;
+    if (wantStatus === 'verified' && !opts.recheck && entry.check?.verdict !== 'VERIFIED') return null;
+    const cert = rereadCertificate(entry, opts.outDir, certMap, opts.period);
+    return cert === null ? null : { entry, cert };
+  });
+  let attemptNo = 0;
+  // the manifest grows with the run, so rewriting it after every orbit costs O(N²) bytes: beyond
+  // MANIFEST_EVERY_ORBIT_UP_TO entries it is rewritten at most once a second (an orbit finished
+  // since is then proven again by a resumed run: its file has the same bytes, so no clash)
+  let lastManifestWrite = 0;
   const writeManifest = (complete: boolean): void => {
     if (manifestPath === undefined) return;
+    const now = performance.now();
+    if (!complete && entries.length > MANIFEST_EVERY_ORBIT_UP_TO && now - lastManifestWrite < 1000) return;
+    lastManifestWrite = now;
     const params: Record<string, string | [string, string]> = {};
     for (const [name, v] of Object.entries({ ...def.params, ...(opts.overrides ?? {}) })) params[name] = v.kind === 'exact' ? v.value : [v.lo, v.hi];
+    // entries of the earlier run not reached yet stay recorded: a second interruption loses nothing
+    const ahead = carried.slice(attemptNo).flatMap((c) => (c === null ? [] : [c.entry]));
     const manifest: RunManifest = {
       kind: 'run-manifest',
       formatVersion: 1,
       command: opts.manifestCommand!,
-      producer: `${PRODUCER_NAME} ${packageVersion()}`,
+      producer,
       map: { title: def.title, state: [...def.state], params },
+      mapHash: mapHash(certMap),
       period: opts.period,
       candidatesFound: found.length,
       toAttempt: chosen.length,
-      finished: outcomes.map((o) => ({ index: o.index, status: o.status, ...(o.certificatePath ? { certificate: basename(o.certificatePath) } : {}) })),
+      finished: [...entries, ...ahead],
+      merged,
       complete,
     };
     writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + '\n', { force: true, dirSync });
   };
   writeManifest(false);
-  let attemptNo = 0;
+  const entryOf = (o: OrbitOutcome, extra: Partial<ManifestEntry> = {}): ManifestEntry => ({
+    index: o.index,
+    attempt: attemptNo,
+    candidate: candidateHashes[attemptNo - 1]!,
+    status: o.status,
+    ...(o.certificatePath ? { certificate: basename(o.certificatePath) } : {}),
+    ...(o.reason !== undefined ? { reason: o.reason } : {}),
+    ...(o.orbit?.assumed ? { assumed: true } : {}),
+    ...(o.orbit?.stability.proverOnly ? { proverOnly: o.orbit.stability.proverOnly } : {}),
+    ...(o.orbit?.stability.note !== undefined ? { stabilityNote: o.orbit.stability.note } : {}),
+    ...(o.check ? { check: { verdict: o.check.verdict, claimsVerified: [...o.check.claimsVerified], digits: o.check.digits } } : {}),
+    ...extra,
+  });
   // all cores: the proofs (the parallel part) first, in the pool; progress counts across workers
-  const workers = Math.min(opts.workers ?? defaultWorkerCount(), chosen.length);
-  let proved: ProveTaskResult[] | null = null;
+  const toProve = chosen.flatMap((_, i) => (carried[i] === null ? [i] : []));
+  const workers = Math.min(opts.workers ?? defaultWorkerCount(), toProve.length);
+  const proved = new Map<number, ProveTaskResult>();
+  let inPool = false;
+  // the checker runs in the pool too, on the bytes that will be written (flows: no checker yet)
+  const checkInPool = checkOn && def.flow === undefined;
   if (workers > 1 && workersAvailable()) {
-    const tasks: ProveTask[] = chosen.map((c) => ({
+    inPool = true;
+    const tasks: ProveTask[] = toProve.map((i) => ({
       map: compiled.definition,
       def,
       ...(opts.overrides ? { overrides: opts.overrides } : {}),
-      points: startPoints ?? c.points,
+      points: startPoints ?? chosen[i]!.points,
       ...(opts.maxBits ? { maxBits: opts.maxBits } : {}),
+      ...(checkInPool ? { check: opts.digits ? { digits: opts.digits } : {} } : {}),
     }));
-    proved = await runPool<ProveTask, ProveTaskResult>(PROVE_TASK, tasks, { workers, ...(opts.progress ? { progress: opts.progress } : {}) });
+    const results = await runPool<ProveTask, ProveTaskResult>(PROVE_TASK, tasks, { workers, ...(opts.progress ? { progress: opts.progress } : {}) });
+    toProve.forEach((i, j) => proved.set(i, results[j]!));
   }
+  let resumedCount = 0;
+  let provedSoFar = 0;
   try {
   for (const candidate of chosen) {
     const index = outcomes.length + 1;
     attemptNo++;
-    if (proved === null) opts.progress?.(attemptNo, chosen.length);
+    const take = carried[attemptNo - 1]!;
+    if (take !== null) {
+      // finished by an earlier run of this command: re-read, not proven again
+      resumedCount++;
+      const { entry, cert } = take;
+      let outcome: OrbitOutcome;
+      if (cert === null) {
+        outcome = { index, candidate, status: 'not-proven', reason: entry.reason ?? 'not proven', resumed: 'not-proven' };
+      } else {
+        k++;
+        outcome = { index, candidate, status: entry.status, orbit: cert.orbit, certificatePath: cert.path };
+        if (isFlowMap(compiled)) {
+          // recomputed from the certificate's boxes, as the proving run computed it from the same boxes
+          const T = encloseFlowPeriod(compiled, cert.orbit.boxes);
+          outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
+        }
+        const notes = entry.reason !== undefined ? [entry.reason] : [];
+        if (entry.status === 'verified' && opts.recheck) {
+          const [report] = checkPaths([cert.path], opts.digits ? { digits: opts.digits } : {});
+          if (report === undefined) throw new Error(`checker returned no report for ${cert.path}`);
+          outcome.check = report;
+          outcome.resumed = 'rechecked';
+          if (report.verdict !== 'VERIFIED') {
+            // the file passed its hash test yet the checker rejects it now: never keep it as proven
+            outcome.status = 'rejected-by-checker';
+            outcome.certificatePath = setAsideRejected(cert.path);
+            notes.unshift(`${report.verdict}: ${report.reason ?? 'no reason given'}`);
+          } else notes.unshift(RECHECKED_NOTE);
+        } else if (entry.status === 'verified') {
+          outcome.resumed = 'recorded-verdict';
+          outcome.recordedClaims = [...(entry.check?.claimsVerified ?? [])];
+          notes.unshift(RECORDED_VERDICT_NOTE);
+        } else {
+          outcome.resumed = 'unchecked';
+          notes.unshift(UNCHECKED_NOTE);
+        }
+        outcome.reason = notes.join('; ');
+        if (outcome.status !== 'rejected-by-checker') {
+          identifier.add(cert.orbit);
+          keptIndex.push(index);
+          if (entry.identityUndecided) identityUndecided = true;
+        }
+      }
+      outcomes.push(outcome);
+      entries.push(outcome.status === 'rejected-by-checker' ? entryOf(outcome) : { ...entry, index });
+      writeManifest(false);
+      continue;
+    }
+    provedSoFar++;
+    if (!inPool) opts.progress?.(provedSoFar, toProve.length);
     const points = startPoints ?? candidate.points;
-    const verdict = proved !== null ? proved[attemptNo - 1]!.verdict : proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
+    const verdict = inPool ? proved.get(attemptNo - 1)!.verdict : proveOrbit(compiled, points, opts.maxBits ? { maxBits: opts.maxBits } : {});
     if (verdict.status !== 'proven') {
       const detail = typeof verdict.detail === 'string' && verdict.detail !== '' ? `: ${verdict.detail}` : '';
-      outcomes.push({ index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` });
+      const outcome: OrbitOutcome = { index, candidate, status: 'not-proven', reason: `${verdict.reason}${detail}` };
+      outcomes.push(outcome);
+      entries.push(entryOf(outcome));
       writeManifest(false);
       continue;
     }
@@ -396,6 +532,7 @@ export async function certifyOrbits(
     const identity = identifier.add(orbit, false);
     if (identity.kind === 'same') {
       merged.push({ attempt: attemptNo, sameAs: keptIndex[identity.sameAs]! });
+      writeManifest(false);
       continue;
     }
     const sameness = identity.kind === 'undecided' ? `boxes overlap #${keptIndex[identity.overlapsWith]!} (under a cyclic shift) without either lying in the other's uniqueness region: may be the same orbit` : '';
@@ -406,16 +543,23 @@ export async function certifyOrbits(
     const timeMap = isFlowMap(compiled) && compiled.kind === 'time-map' ? compiled : null;
     const flowPlan = isFlowMap(compiled) ? compiled.plan(compiled.kind === 'return-map' ? planBoxes(orbit) : orbit.boxes) : null;
     const flowPeriod: [string, string] | null = timeMap && T?.ok ? [T.decimal.lo, T.decimal.hi] : null;
-    const cert = buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) });
+    // the pool's bytes are used for formula maps only (a flow certificate carries the plan and
+    // period recorded here, which the pool's worker does not build)
+    const pooled = inPool && !isFlowMap(compiled) ? proved.get(attemptNo - 1)! : undefined;
+    const text = pooled?.certificateText ?? serializeCertificate(buildCertificate(orbit, def, { ...(opts.overrides ? { overrides: opts.overrides } : {}), ...(flowPlan ? { flowPlan } : {}), ...(flowPeriod ? { flowPeriod } : {}) }));
     k++;
-    const path = writeCertificate(join(opts.outDir, certificateFileName(def.title, opts.period, k, overrideTexts(opts.overrides))), cert, {
+    const path = writeFileAtomic(join(opts.outDir, certificateFileName(def.title, opts.period, k, paramTexts)), text, {
       force: opts.force ?? false,
       dirSync,
     });
     const outcome: OrbitOutcome = { index, candidate, status: 'prover-only', orbit, certificatePath: path };
     if (T) outcome.flowPeriod = T.ok ? T.decimal : { refused: T.reason };
     if (checkOn) {
-      const [report] = checkPaths([path], opts.digits ? { digits: opts.digits } : {});
+      // the pool's report stands for the file only when the file holds exactly the bytes it checked
+      // (an identical older file may have been kept); otherwise the file itself is checked here
+      const report = pooled?.check !== undefined && fileHolds(path, text)
+        ? { ...pooled.check, file: path }
+        : checkPaths([path], opts.digits ? { digits: opts.digits } : {})[0];
       if (report === undefined) throw new Error(`checker returned no report for ${path}`);
       outcome.check = report;
       if (report.verdict === 'VERIFIED') outcome.status = 'verified';
@@ -441,6 +585,10 @@ export async function certifyOrbits(
       if (notes.length > 0) outcome.reason = notes.join('; ');
     }
     outcomes.push(outcome);
+    entries.push(entryOf(outcome, {
+      ...(outcome.status !== 'rejected-by-checker' ? { sha256: sha256Hex(text) } : {}),
+      ...(sameness !== '' ? { identityUndecided: true } : {}),
+    }));
     writeManifest(false);
   }
   writeManifest(true);
@@ -475,6 +623,8 @@ export async function certifyOrbits(
     merged,
     outDir: opts.outDir,
     checked: checkOn,
+    resumed: resumedCount,
+    toAttempt: chosen.length,
     allProven: allGood,
   };
 }

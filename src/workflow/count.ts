@@ -5,9 +5,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
-import { buildCountCertificate, buildCountPart, type CountHeader } from '../certificate/count.js';
+import { buildBoxGraphCountCertificate, buildCountCertificate, buildCountPart, type CountHeader } from '../certificate/count.js';
+import { countByBoxGraph, dyadicGrid, DEFAULT_BOX_GRAPH_LEVEL, DEFAULT_BOX_GRAPH_MAX_LEVEL, DEFAULT_BOX_GRAPH_START } from './count-box-graph.js';
 import { writeFileAtomic } from '../certificate/write.js';
-import type { CountCertificateV1, CountClaims, CountPartV1, CountPeriodEntry, DecimalInterval } from '../certificate/types.js';
+import type { BoxGraphCountCertificateV1, CountCertificateV1, CountClaims, CountPartV1, CountPeriodEntry, DecimalInterval } from '../certificate/types.js';
 import { COUNT_ALPHABET } from '../certificate/types.js';
 import { classifyZeros } from '../count/classify.js';
 import { DEFAULT_PIECE_DEPTH } from '../count/params.js';
@@ -17,6 +18,7 @@ import { workerRunner } from '../count/workers.js';
 import { decimalOfDouble } from '../interval/decimal-literal.js';
 import { compileMap, type FormulaMap } from '../model/compile.js';
 import { UserError } from '../errors.js';
+import { MAX_BOX_GRAPH_GRID_LOG2 } from '../certificate/limits.js';
 
 export interface CountProgress {
   done: number;
@@ -39,6 +41,17 @@ export interface CountRequest {
   /** Run the independent checker on the certificate (default true; not for parts). */
   check?: boolean;
   onProgress?: (p: CountProgress) => void;
+  /**
+   * 'shooting': branch and prune on region^p (n = 1 always); 'box-graph': the box-graph method
+   * (default for n ≥ 2; src/count/boxgraph.ts).
+   */
+  method?: 'shooting' | 'box-graph';
+  /** Box-graph method: level of the base cover (2^level slabs per coordinate). */
+  level?: number;
+  /** Box-graph method: finest level of the per-period refinement. */
+  maxLevel?: number;
+  /** Box-graph method: first level of the cover. */
+  startLevel?: number;
 }
 
 export interface PeriodCount {
@@ -62,7 +75,9 @@ export interface CountReport {
   pieceDepth: number;
   shard: { index: number; count: number } | null;
   periods: PeriodCount[];
-  certificate: CountCertificateV1 | CountPartV1;
+  certificate: CountCertificateV1 | CountPartV1 | BoxGraphCountCertificateV1;
+  /** Present for the box-graph method: the cover's level and size, and the closed paths per period. */
+  boxGraph?: { level: number; startLevel: number; cells: number; perPeriod: { period: number; level: number; cells: number; clusters: number; cycles: number }[] };
   file: string | null;
   check: CheckReport | null;
   elapsedMs: number;
@@ -88,6 +103,8 @@ export async function countOrbits(req: CountRequest): Promise<CountReport> {
   for (const p of periods) {
     if (p * n > MAX_UNKNOWNS) throw new UserError('bad-period', `period ${p} × dimension ${n} exceeds ${MAX_UNKNOWNS} unknowns, the most a count certificate encodes`, `use a period up to ${Math.floor(MAX_UNKNOWNS / n)}`, '--period');
   }
+  if (n >= 2 && req.method !== 'shooting') return countBoxGraphWorkflow(req, t0, box, widened, region, periods);
+  if (req.method === 'box-graph') throw new UserError('bad-option', 'the box-graph method is for maps of dimension 2 or more', 'leave out --method for a one-dimensional map', '--method');
   const pieceDepth = req.pieceDepth ?? DEFAULT_PIECE_DEPTH;
   if (!Number.isInteger(pieceDepth) || pieceDepth < 0 || pieceDepth > MAX_PIECE_DEPTH) throw new UserError('bad-option', `piece depth must be 0..${MAX_PIECE_DEPTH}`, 'e.g. 6 (64 pieces)', '--pieces');
   const shard = req.shard ?? null;
@@ -157,6 +174,57 @@ export async function countOrbits(req: CountRequest): Promise<CountReport> {
     shard,
     periods: perPeriod,
     certificate,
+    file,
+    check,
+    elapsedMs: performance.now() - t0,
+  };
+}
+
+async function countBoxGraphWorkflow(req: CountRequest, t0: number, box: Float64Array, widened: boolean, region: DecimalInterval[], periods: number[]): Promise<CountReport> {
+  const map = req.map;
+  const def = map.definition;
+  if (req.shard) throw new UserError('bad-option', 'shards are not available for the box-graph method yet', 'run without --shard, or give --method shooting', '--shard');
+  const level = req.level ?? DEFAULT_BOX_GRAPH_LEVEL;
+  const startLevel = Math.min(req.startLevel ?? DEFAULT_BOX_GRAPH_START, level);
+  const maxLevel = req.maxLevel ?? DEFAULT_BOX_GRAPH_MAX_LEVEL;
+  const top = Math.floor(MAX_BOX_GRAPH_GRID_LOG2 / map.dim);
+  if (!Number.isInteger(level) || level < 0 || level > top) throw new UserError('bad-option', `box-graph level must be 0..${top}`, 'e.g. 6 (64 slabs per coordinate)', '--level');
+  if (!Number.isInteger(maxLevel) || maxLevel < 0 || maxLevel > top) throw new UserError('bad-option', `box-graph finest level must be 0..${top}`, 'e.g. 15', '--max-level');
+  const workers = Math.max(1, req.workers ?? 1);
+  const grid = dyadicGrid(box);
+  const res = await countByBoxGraph({
+    map,
+    region: box,
+    grid,
+    regionText: region,
+    periods,
+    level,
+    startLevel,
+    maxLevel,
+    workers,
+    onPeriodDone: (done, total, period) => req.onProgress?.({ done, total, period }),
+  });
+  const perPeriod = res.stats.map((st) => periodCount(st.period, st.claims, st.nodes, st.elapsedMs));
+  const certificate = buildBoxGraphCountCertificate({ definition: def, region }, { startLevel, level, grid: Array.from({ length: map.dim }, (_, a) => [decimalOfDouble(grid[2 * a]!), decimalOfDouble(grid[2 * a + 1]!)] as DecimalInterval) }, res.entries);
+  let file: string | null = null;
+  if (req.out) file = writeFileAtomic(req.out, JSON.stringify(certificate) + '\n', { force: req.force });
+  const check = req.check !== false ? checkCertificate(certificate) : null;
+  return {
+    kind: 'count-report',
+    formatVersion: 1,
+    title: def.title,
+    region,
+    regionWidened: widened,
+    pieceDepth: 0,
+    shard: null,
+    periods: perPeriod,
+    certificate,
+    boxGraph: {
+      level,
+      startLevel,
+      cells: res.base.succStart.length - 1,
+      perPeriod: res.stats.map((st) => ({ period: st.period, level: st.level, cells: st.cells, clusters: st.clusters, cycles: st.cycles })),
+    },
     file,
     check,
     elapsedMs: performance.now() - t0,

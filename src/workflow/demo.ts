@@ -8,11 +8,14 @@ import { join } from 'node:path';
 import { compileMap, parseMapSource } from '../model/index.js';
 import { certifyOrbits, type CertifyReport } from './certify.js';
 import { DEMO_SCENARIOS } from './demo-scenario.js';
+import type { ParamValue } from '../model/types.js';
 
 /** One certify run of the demo: the scenario's title, what it sets out to show, the report. */
 export interface DemoRun {
   scenario: string;
   story: string;
+  /** The exact parameters of the run (the scenario's map file; the demo overrides none). */
+  params: Record<string, ParamValue>;
   report: CertifyReport;
 }
 
@@ -45,7 +48,7 @@ export async function runDemo(outDir?: string, progress?: (scenario: string, per
         all: true,
         force: outDir !== undefined,
       });
-      runs.push({ scenario: def.title, story: task.story, report });
+      runs.push({ scenario: def.title, story: task.story, params: { ...def.params }, report });
     }
   }
   return { outDir: dir, runs, elapsedMs: performance.now() - t0, allProven: runs.every((r) => r.report.allProven) };

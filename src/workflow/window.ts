@@ -5,14 +5,18 @@
  */
 import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
-import { buildAbsenceCertificate, buildEdgeCertificate, buildWindowCertificate } from '../certificate/build-window.js';
+import { buildAbsenceCertificate, buildAbsenceCertificateN, buildEdgeCertificate, buildSuperstableCountCertificate, buildWindowCertificate } from '../certificate/build-window.js';
 import { checkDirectoryUsable, mapSlug, writeFileAtomic } from '../certificate/write.js';
 import { checkCertificate, type CheckReport } from '../checker/index.js';
 import type { MapDefinition, ParamValue } from '../model/types.js';
 import type { DecimalPair } from '../prove/types.js';
 import { coverWindow, type WindowCover } from '../windows/cover.js';
 import { findEdges, type EdgeKind, type ProvenEdge } from '../windows/edges.js';
+import { findEdgesN } from '../windows/edges-n.js';
+import { MAX_EDGE_DIMENSION } from '../certificate/limits.js';
 import { proveAbsenceOverRange } from '../windows/absence.js';
+import { proveAbsenceOverRangeN } from '../windows/absence-n.js';
+import { countSuperstable } from '../windows/superstable-count.js';
 import { UserError } from '../errors.js';
 
 export const WINDOW_REPORT_KIND = 'window-report';
@@ -195,19 +199,27 @@ export interface EdgesReport {
 }
 
 /**
- * Enclose folds, flips and superstable parameters of period-P orbits of a one-dimensional map in
- * the interval parameter's range; one `bifurcation-edge` certificate per edge, each re-verified.
+ * Enclose folds, flips and superstable parameters of period-P orbits of a one-dimensional map
+ * (folds det(M − I) = 0 and flips det(M + I) = 0 for 2 ≤ n ≤ MAX_EDGE_DIMENSION) in the interval
+ * parameter's range; one `bifurcation-edge` certificate per edge, each re-verified.
  * Edges the float seeds miss are not listed (no claim that none exist).
  */
 export function runEdges(req: EdgesRequest): EdgesReport {
   const t0 = performance.now();
   const { name, range, exact } = splitParameters(req.def, req.overrides);
-  if (req.def.state.length !== 1) {
-    throw new UserError('edges-dimension', `edges handles one-dimensional maps; this map has ${req.def.state.length} state variables`, 'use a map with one state variable (n ≥ 2 is not implemented yet)');
+  const n = req.def.state.length;
+  if (n > MAX_EDGE_DIMENSION) {
+    throw new UserError('edges-dimension', `edges handles maps with at most ${MAX_EDGE_DIMENSION} state variables; this map has ${n}`, `use a map with 1 to ${MAX_EDGE_DIMENSION} state variables`);
+  }
+  if (n >= 2 && req.kinds.includes('superstable')) {
+    throw new UserError('edges-superstable-dimension', `superstable parameters are for one-dimensional maps; this map has ${n} state variables`, 'ask for --kind fold,flip (det(M − I) = 0 and det(M + I) = 0)', '--kind');
   }
   if (req.outDir !== undefined) checkDirectoryUsable(req.outDir);
   req.progress?.(0, 1, 'searching');
-  const found: ProvenEdge[] = findEdges(req.def, exact, name, range, req.period, req.kinds, { ...(req.samples ? { samples: req.samples } : {}), ...(req.search !== undefined ? { search: req.search } : {}) });
+  const searchOpts = { ...(req.samples ? { samples: req.samples } : {}), ...(req.search !== undefined ? { search: req.search } : {}) };
+  const found: ProvenEdge[] = n === 1
+    ? findEdges(req.def, exact, name, range, req.period, req.kinds, searchOpts)
+    : findEdgesN(req.def, exact, name, range, req.period, req.kinds.filter((k): k is 'fold' | 'flip' => k !== 'superstable'), searchOpts);
   const edges = found.map((e, k) => {
     const cert = buildEdgeCertificate(e, req.def, range, exact);
     const file = `${mapSlug(req.def.title)}-${e.kind}-p${req.period}-${k + 1}.json`;
@@ -264,9 +276,15 @@ export interface AbsenceReport {
   certificate?: CertificateOutcome;
 }
 
-/** Prove that no orbit of minimal period P lies in the map's region for θ in the range. */
+/**
+ * Prove that no orbit of minimal period P lies in the map's region for θ in the range (n = 1:
+ * an interval cover; n ≥ 2: a bisection cover of the region box), or with `condition` that no
+ * period-P fold / flip happens there.
+ */
 export function runAbsence(req: AbsenceRequest): AbsenceReport {
-  if (req.def.state.length !== 1) throw new UserError('absence-dimension', 'absence proofs handle one-dimensional maps', 'use a map with one state variable');
+  const n = req.def.state.length;
+  if (n > MAX_EDGE_DIMENSION && req.condition) throw new UserError('absence-dimension', `fold/flip-free proofs handle maps with at most ${MAX_EDGE_DIMENSION} state variables`, `use a map with 1 to ${MAX_EDGE_DIMENSION} state variables`);
+  if (n >= 2) return runAbsenceN(req);
   const v = proveAbsenceOverRange(req.def, req.overrides, req.parameter, req.range, req.period, req.condition ? { condition: req.condition } : {});
   const base = { kind: 'absence-report' as const, formatVersion: 1 as const, period: req.period, parameter: req.parameter, range: req.range };
   if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `at ${v.parameter} in [${v.at[0]}, ${v.at[1]}]: ${v.reason}` };
@@ -276,4 +294,65 @@ export function runAbsence(req: AbsenceRequest): AbsenceReport {
   const leaves = v.pieces.reduce((n, p) => n + p.leaves.length, 0);
   const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
   return { ...base, status: rejected ? 'rejected' : 'proven', leaves, certificate };
+}
+
+/** runAbsence for n ≥ 2: a bisection cover of the region box per parameter piece (absence-n.ts). */
+function runAbsenceN(req: AbsenceRequest): AbsenceReport {
+  const v = proveAbsenceOverRangeN(req.def, req.overrides, req.parameter, req.range, req.period, req.condition ? { condition: req.condition } : {});
+  const base = { kind: 'absence-report' as const, formatVersion: 1 as const, period: req.period, parameter: req.parameter, range: req.range };
+  if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `at ${v.parameter} in [${v.at[0]}, ${v.at[1]}]: ${v.reason}` };
+  const cert = buildAbsenceCertificateN({ period: req.period, parameter: req.parameter, range: req.range, region: v.region, pieces: v.pieces, ...(req.condition ? { condition: req.condition } : {}) }, req.def, req.overrides);
+  const file = req.file ?? `${mapSlug(req.def.title)}-${req.condition ? `no-${req.condition}` : 'absence'}-p${req.period}.json`;
+  const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
+  const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
+  return { ...base, status: rejected ? 'rejected' : 'proven', leaves: v.leaves, certificate };
+}
+
+export interface SuperstableCountRequest {
+  def: MapDefinition;
+  /** Exact parameters, and the one interval parameter (its range). */
+  overrides: Record<string, ParamValue>;
+  period: number;
+  /** The critical point c (exact decimal; the checker verifies f_x(c, θ) = 0 over the range). */
+  critical: string;
+  outDir?: string;
+  force?: boolean;
+  check?: boolean;
+}
+
+export interface SuperstableCountReport {
+  kind: 'superstable-count-report';
+  formatVersion: 1;
+  map: { title: string; origin?: string };
+  period: number;
+  parameter: string;
+  range: DecimalPair;
+  critical: string;
+  status: 'proven' | 'undecided' | 'rejected';
+  /** Parameters of minimal period `period`, and zeros of the period-p system of a lower period. */
+  count?: number;
+  lowerPeriod?: number;
+  leaves?: number;
+  reason?: string;
+  certificate?: CertificateOutcome;
+  elapsedMs: number;
+}
+
+/**
+ * Count the superstable parameters of minimal period P in the interval parameter's range exactly
+ * (src/windows/superstable-count.ts): one `superstable-count` certificate, re-verified.
+ */
+export function runSuperstableCount(req: SuperstableCountRequest): SuperstableCountReport {
+  const t0 = performance.now();
+  const { name, range, exact } = splitParameters(req.def, req.overrides);
+  if (req.def.state.length !== 1) throw new UserError('count-dimension', `superstable counts are for one-dimensional maps; this map has ${req.def.state.length} state variables`, 'use a map with one state variable');
+  if (req.outDir !== undefined) checkDirectoryUsable(req.outDir);
+  const base = { kind: 'superstable-count-report' as const, formatVersion: 1 as const, map: { title: req.def.title, ...(req.def.origin ? { origin: req.def.origin } : {}) }, period: req.period, parameter: name, range, critical: req.critical };
+  const v = countSuperstable(req.def, exact, name, range, req.period, req.critical);
+  if (v.status !== 'proven') return { ...base, status: 'undecided', reason: `${v.reason} (${name} in [${v.at[0].slice(0, 20)}, ${v.at[1].slice(0, 20)}])`, elapsedMs: Math.round(performance.now() - t0) };
+  const cert = buildSuperstableCountCertificate({ period: req.period, parameter: name, range, region: v.region, critical: req.critical, count: v.count, leaves: v.leaves }, req.def, exact);
+  const file = `${mapSlug(req.def.title)}-superstable-count-p${req.period}.json`;
+  const certificate = writeAndCheck(cert, req.outDir, file, !!req.force, req.check ?? true);
+  const rejected = certificate.check !== undefined && certificate.check.verdict !== 'VERIFIED';
+  return { ...base, status: rejected ? 'rejected' : 'proven', count: v.count, lowerPeriod: v.lowerPeriod, leaves: v.leaves.length, certificate, elapsedMs: Math.round(performance.now() - t0) };
 }

@@ -6,7 +6,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli/program.js';
 import { validate } from '../certificate/mini-schema.js';
 
@@ -23,9 +23,27 @@ describe('--json: one envelope per kind, valid against its schema', () => {
     ['check', ['check', join(root, 'proofs/logistic/r3.2'), '--json'], 0],
     ['report', ['report', join(root, 'proofs/logistic/r3.2'), '--out', join(work, 'r.html'), '--json'], 0],
     ['catalogue', ['catalogue', '--json'], 0],
+    // the period-3 window of the logistic map opens at 1 + √8 ≈ 3.8284 (C. Zhang, arXiv:1204.0546)
+    ['window-report', ['window', 'logistic', '--period', '3', '--param', 'r=[3.8285,3.8414]', '--out', join(work, 'w'), '--json'], 0],
+    ['edges-report', ['edges', 'logistic', '--period', '3', '--param', 'r=[3.82,3.845]', '--samples', '6', '--out', join(work, 'e'), '--json'], 0],
+    ['audit-report', ['audit', join(work, 'one-claim.yaml'), '--out', join(work, 'a'), '--json'], 0],
+    // 4x(1 − x), period 4: 2 fixed points, 1 orbit of period 2, 3 of period 4 (OEIS A001037)
+    ['count-report', ['count', 'logistic', '--param', 'r=4', '--period', '4', '--pieces', '1', '--json'], 0],
+    ['count-report', ['merge', join(work, 'part-0.json'), join(work, 'part-1.json'), '--json'], 0],
+    ['demo', ['demo', '--out', join(work, 'demo'), '--json'], 0],
     ['error', ['prove', 'logistic', '--period', 'three', '--json'], 2],
     ['error', ['show', 'no-such-map', '--json'], 2],
   ];
+  beforeAll(async () => {
+    writeFileSync(
+      join(work, 'one-claim.yaml'),
+      'format: orbitseal-claims\nformatVersion: 1\nclaims:\n  - id: period-3-window\n    map: logistic\n    parameter: r\n    period: 3\n    range: [3.8285, 3.8414]\n    stability: attracting\n',
+    );
+    for (const i of [0, 1]) {
+      const part = await runCli(['count', 'logistic', '--param', 'r=4', '--period', '4', '--pieces', '1', '--shard', `${i}/2`, '--out', join(work, `part-${i}.json`)], { cwd: work });
+      expect(part.exitCode).toBe(0);
+    }
+  }, 60_000);
   for (const [kind, argv, exit] of cases) {
     it(`${argv.slice(0, 2).join(' ')} → kind ${kind}, exit ${exit}`, async () => {
       const r = await runCli(argv, { cwd: work });
@@ -48,8 +66,26 @@ describe('--json: one envelope per kind, valid against its schema', () => {
     for (const c of f.candidates) for (const m of c.multipliers) expect(Object.keys(m).sort()).toEqual(['im', 're']);
   });
 
+  it('every command with --json names the exact parameters of its map (window: the range as an interval; count: as certified)', async () => {
+    const w = JSON.parse((await runCli(['window', 'logistic', '--period', '3', '--param', 'r=[3.8285,3.8414]', '--out', join(work, 'w'), '--json'], { cwd: work })).stdout);
+    expect(w.map.params).toEqual({ r: '[3.8285, 3.8414]' });
+    expect(w.items.length).toBe(w.pieces.length + w.gaps.length);
+    const c = JSON.parse((await runCli(['count', 'logistic', '--param', 'r=4', '--period', '4', '--pieces', '1', '--json'], { cwd: work })).stdout);
+    expect(c.map.params).toEqual({ r: '4' });
+    expect(c.items).toEqual([{ period: 4, outcome: 'exact', orbits: 3, check: 'VERIFIED' }]); // A001037(4) = 3
+    const m = JSON.parse((await runCli(['merge', join(work, 'part-0.json'), join(work, 'part-1.json'), '--json'], { cwd: work })).stdout);
+    expect(m.items).toEqual(c.items);
+    const e = JSON.parse((await runCli(['window', 'logistic', '--period', '3', '--json'], { cwd: work })).stdout);
+    expect([e.kind, e.exitCode]).toEqual(['error', 2]); // no interval parameter: a user error, in the envelope
+  }, 60_000);
+
   it('a schema rejects a document of another kind (the check can fail)', () => {
     expect(validate(schema('check'), { kind: 'map', formatVersion: 1, items: [], exitCode: 0 }).length).toBeGreaterThan(0);
+    // each new kind refuses a document without its map / items
+    for (const kind of ['window-report', 'edges-report', 'audit-report', 'count-report']) {
+      expect(validate(schema(kind), { kind, formatVersion: 1, exitCode: 0 }).length, kind).toBeGreaterThan(0);
+    }
+    expect(validate(schema('count-report'), { kind: 'count-report', formatVersion: 1, map: { title: 't', state: ['x'], params: { r: 4 } }, region: [['0', '1']], periods: [], check: null, items: [], exitCode: 0 }).length).toBeGreaterThan(0); // a parameter as a number, not exact text
   });
 });
 

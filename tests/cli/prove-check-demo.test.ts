@@ -164,6 +164,9 @@ describe('orbitseal demo', () => {
     expect(r.exitCode).toBe(0);
     const doc = JSON.parse(r.stdout);
     const run = doc.runs.find((x: { scenario: string; period: number }) => x.scenario.startsWith('Alpine vole') && x.period === 2);
+    // each run carries the exact parameters it used (the JSON envelope's map rule; the scenario's map file)
+    expect(run.map.params).toEqual({ a: '0.6', b: '0.3' });
+    expect(doc.runs.find((x: { scenario: string }) => x.scenario.startsWith('Orchard moth')).map.params).toEqual({ r: '3.83', K: '12' });
     const o = run.orbits[0];
     expect(o.status).toBe('verified');
     expect(o.class).toBe('attracting');

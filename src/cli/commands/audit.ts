@@ -4,6 +4,7 @@ import { EXIT_NOT_PROVEN, EXIT_OK, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
 import { runAudit, type AuditReport } from '../../workflow/audit.js';
 import { DEFAULT_AUDIT_DIR } from '../options.js';
+import { jsonResult } from '../json.js';
 
 export interface AuditCommandOptions {
   out?: string;
@@ -29,7 +30,8 @@ export async function auditCommand(file: string, o: AuditCommandOptions, cwd = p
   });
   if (shown) progressSink?.('\r\x1b[K');
   const exitCode = report.allConfirmed ? EXIT_OK : EXIT_NOT_PROVEN;
-  if (o.json) return { stdout: JSON.stringify({ ...report, file, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+  // each claim names its own map and parameters (in `claims`); items: one per claim with its verdict
+  if (o.json) return jsonResult('audit-report', { ...report, file, items: report.claims.map((c) => ({ id: c.id, outcome: c.verdict })) }, exitCode);
   return { stdout: renderAudit({ ...report, file }, cwd) + '\n', stderr: '', exitCode };
 }
 

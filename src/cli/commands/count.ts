@@ -1,5 +1,6 @@
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult, type ExitCode } from '../errors.js';
 import { table } from '../format.js';
+import { jsonResult, paramsJson } from '../json.js';
 import { parsePeriod } from '../options.js';
 import { loadMap } from './common.js';
 import { countOrbits, mergeCounts, type CountReport } from '../../workflow/count.js';
@@ -12,6 +13,9 @@ export interface CountCommandOptions {
   workers?: string;
   shard?: string;
   pieces?: string;
+  method?: string;
+  level?: string;
+  maxLevel?: string;
   out?: string;
   force?: boolean;
   check?: boolean;
@@ -55,6 +59,13 @@ export async function countCommand(mapArg: string, o: CountCommandOptions, cwd =
     shard = { index: Number(m[1]), count: Number(m[2]) };
     if (!o.out) throw new UsageError('bad-option', '--shard', o.shard, 'a shard writes a partial certificate: give --out FILE', 'write e.g. --shard 0/8 --out part-0.json');
   }
+  let method: 'shooting' | 'box-graph' | undefined;
+  if (o.method !== undefined) {
+    if (o.method !== 'shooting' && o.method !== 'box-graph') throw new UsageError('bad-option', '--method', o.method, 'expected shooting or box-graph', 'write e.g. --method box-graph');
+    method = o.method;
+  }
+  const level = o.level !== undefined ? intOption(o.level, '--level', 0, 18, '6') : undefined;
+  const maxLevel = o.maxLevel !== undefined ? intOption(o.maxLevel, '--max-level', 0, 18, '12') : undefined;
   const showProgress = progress && !o.json;
   const report = await countOrbits({
     map,
@@ -62,11 +73,14 @@ export async function countCommand(mapArg: string, o: CountCommandOptions, cwd =
     region,
     workers,
     ...(pieceDepth !== undefined ? { pieceDepth } : {}),
+    ...(method ? { method } : {}),
+    ...(level !== undefined ? { level } : {}),
+    ...(maxLevel !== undefined ? { maxLevel } : {}),
     ...(shard ? { shard } : {}),
     ...(o.out ? { out: o.out.startsWith('/') ? o.out : `${cwd}/${o.out}` } : {}),
     force: !!o.force,
     check: o.check !== false,
-    ...(showProgress ? { onProgress: (p) => progress(progressBar(p.done, p.total)) } : {}),
+    ...(showProgress ? { onProgress: (p) => progress(progressBar(p.done, p.total, map.dim >= 2 && method !== 'shooting' ? 'periods' : 'pieces')) } : {}),
   });
   if (showProgress) progress('\r' + ' '.repeat(60) + '\r');
   return renderResult(report, !!o.json);
@@ -85,10 +99,10 @@ export async function mergeCommand(parts: string[], o: MergeCommandOptions, cwd 
   return renderResult(report, !!o.json);
 }
 
-function progressBar(done: number, total: number): string {
+function progressBar(done: number, total: number, unit: string): string {
   const w = 30;
   const k = total > 0 ? Math.round((w * done) / total) : w;
-  return `\rcounting [${'#'.repeat(k)}${' '.repeat(w - k)}] ${done}/${total} pieces`;
+  return `\rcounting [${'#'.repeat(k)}${' '.repeat(w - k)}] ${done}/${total} ${unit}`;
 }
 
 function exitOf(r: CountReport): ExitCode {
@@ -101,8 +115,15 @@ function renderResult(r: CountReport, json: boolean): CommandResult {
   const exitCode = exitOf(r);
   if (json) {
     const { certificate, ...rest } = r;
-    void certificate;
-    return { stdout: JSON.stringify({ ...rest, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+    // the map exactly as certified: title, state, formulas' parameters as exact decimals
+    const map = { title: certificate.map.title, state: [...certificate.map.state], params: paramsJson(certificate.map.params) };
+    const items = r.periods.map((p) => ({
+      period: p.period,
+      outcome: p.exact ? 'exact' : 'lower-bound',
+      orbits: p.claims.orbitsByMinimalPeriod[String(p.period)] ?? 0,
+      check: r.check === null ? null : r.check.verdict,
+    }));
+    return jsonResult('count-report', { ...rest, map, items }, exitCode);
   }
   return { stdout: renderCount(r) + '\n', stderr: '', exitCode };
 }
@@ -134,6 +155,13 @@ export function renderCount(r: CountReport): string {
   if (est.length > 0) {
     const last = est[est.length - 1]!;
     lines.push(`estimate (not proven): growth rate (1/p)·log(points) at p = ${last.period}: ${last.growthRateEstimate!.toFixed(4)}`);
+  }
+  if (r.boxGraph) {
+    const g = r.boxGraph;
+    lines.push(`box graph: base cover ${g.cells} cells (level ${g.level}); per period p: level,`);
+    lines.push('clusters, closed paths decided:');
+    const items = g.perPeriod.map((q) => `p${q.period}: ${q.level}, ${q.clusters}, ${q.cycles}`);
+    for (let i = 0; i < items.length; i += 4) lines.push('  ' + items.slice(i, i + 4).join('; '));
   }
   if (r.file) lines.push(`certificate: ${r.file}`);
   lines.push(`time ${(r.elapsedMs / 1000).toFixed(1)} s`);

@@ -5,6 +5,7 @@ import { jsonResult } from '../json.js';
 import { statusLabel, type OrbitOutcome } from '../../workflow/certify.js';
 import { runDemo, type DemoReport } from '../../workflow/demo.js';
 import { DEMO_SCENARIOS } from '../../workflow/demo-scenario.js';
+import { paramText } from './common.js';
 
 export interface DemoCommandOptions {
   out?: string;
@@ -19,10 +20,12 @@ export async function demoCommand(o: DemoCommandOptions, cwd = process.cwd()): P
       outDir: d.outDir,
       runs: d.runs.map((r) => ({
         scenario: r.scenario,
-        map: r.report.map,
+        // the envelope's map rule: title, state and the exact parameters used (as `prove` gives them)
+        map: { ...r.report.map, params: Object.fromEntries(Object.entries(r.params).map(([k, v]) => [k, paramText(v)])) },
         story: r.story,
         period: r.report.period,
         orbits: r.report.outcomes.map((x) => ({
+          index: x.index,
           status: x.status,
           class: x.orbit?.stability.class,
           boxes: x.orbit?.boxes,

@@ -3,11 +3,13 @@ import { resolve } from 'node:path';
 import { EXIT_NOT_PROVEN, EXIT_OK, UsageError, type CommandResult } from '../errors.js';
 import { table } from '../format.js';
 import { parsePeriod } from '../options.js';
-import { runEdges, type EdgesReport } from '../../workflow/window.js';
+import { runEdges, runSuperstableCount, type EdgesReport, type SuperstableCountReport } from '../../workflow/window.js';
+import { isDecimalLiteral } from '../../interval/decimal-literal.js';
 import type { EdgeKind } from '../../windows/edges.js';
 import { loadMap } from './common.js';
 import { DEFAULT_OUT_DIR } from '../options.js';
 import { certificateLine } from './window.js';
+import { certificateOutcome, jsonResult, paramsJson } from '../json.js';
 
 export interface EdgesCommandOptions {
   period: string;
@@ -18,6 +20,7 @@ export interface EdgesCommandOptions {
   force?: boolean;
   check?: boolean;
   json?: boolean;
+  critical?: string;
 }
 
 const KINDS: EdgeKind[] = ['fold', 'flip', 'superstable'];
@@ -41,6 +44,17 @@ export async function edgesCommand(mapArg: string, o: EdgesCommandOptions, cwd =
       throw new UsageError('bad-option', '--samples', o.samples, 'expected a whole number from 1 to 10000', 'write e.g. --samples 48');
     }
   }
+  if (o.critical !== undefined) {
+    if (kinds.length !== 1 || kinds[0] !== 'superstable') throw new UsageError('bad-option', '--critical', o.critical, '--critical counts superstable parameters: it needs --kind superstable', 'write e.g. --kind superstable --critical 0.5');
+    if (!isDecimalLiteral(o.critical.trim())) throw new UsageError('bad-option', '--critical', o.critical, 'expected an exact decimal (the critical point c)', 'write e.g. --critical 0.5');
+    const { def, overrides } = await loadMap(mapArg, o.param ?? [], cwd);
+    progressSink?.('\rcounting …\x1b[K');
+    const report = runSuperstableCount({ def, overrides, period, critical: o.critical.trim(), outDir: resolve(cwd, o.out ?? DEFAULT_OUT_DIR), force: !!o.force, check: o.check !== false });
+    progressSink?.('\r\x1b[K');
+    const exitCode = report.status === 'proven' ? EXIT_OK : EXIT_NOT_PROVEN;
+    if (o.json) return { stdout: JSON.stringify({ ...report, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+    return { stdout: renderSuperstableCount(report, cwd) + '\n', stderr: '', exitCode };
+  }
   const { def, overrides } = await loadMap(mapArg, o.param ?? [], cwd);
   let shown = false;
   const report = runEdges({
@@ -63,7 +77,13 @@ export async function edgesCommand(mapArg: string, o: EdgesCommandOptions, cwd =
   });
   if (shown) progressSink?.('\r\x1b[K');
   const exitCode = report.status === 'proven' ? EXIT_OK : EXIT_NOT_PROVEN;
-  if (o.json) return { stdout: JSON.stringify({ ...report, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+  if (o.json) {
+    return jsonResult('edges-report', {
+      ...report,
+      map: { ...report.map, state: [...def.state], params: paramsJson({ ...def.params, ...overrides }) },
+      items: report.edges.map((e) => ({ kind: e.kind, param: e.param, outcome: certificateOutcome(e.certificate.check) })),
+    }, exitCode);
+  }
   return { stdout: renderEdges(report, cwd) + '\n', stderr: '', exitCode };
 }
 
@@ -84,5 +104,17 @@ export function renderEdges(r: EdgesReport, cwd: string): string {
   for (const [i, e] of r.edges.entries()) lines.push(`${i + 1}: ${certificateLine(e.certificate, cwd)}`);
   lines.push('');
   lines.push('Each edge: exactly one (orbit, parameter) in its boxes; other edges in the range are not excluded.');
+  return lines.join('\n');
+}
+
+/** Pure renderer for `edges --kind superstable --critical C` (an exact count). */
+export function renderSuperstableCount(r: SuperstableCountReport, cwd: string): string {
+  const lines: string[] = [`${r.map.title} — period ${r.period}; superstable parameters of ${r.parameter} in [${r.range[0]}, ${r.range[1]}] (orbit of ${r.critical})`];
+  if (r.status === 'undecided') {
+    lines.push(`not proven: ${r.reason}`);
+    return lines.join('\n');
+  }
+  lines.push(`exactly ${r.count} of minimal period ${r.period}${r.lowerPeriod ? ` (and ${r.lowerPeriod} of a lower period dividing ${r.period})` : ''}; the rest of the range excluded (${r.leaves} leaves)`);
+  if (r.certificate) lines.push(certificateLine(r.certificate, cwd));
   return lines.join('\n');
 }

@@ -47,6 +47,8 @@ export interface ProveCommandOptions {
   start?: string;
   points?: string;
   effort?: string;
+  /** Re-run the checker on orbits resumed from an earlier run (default: their recorded verdict). */
+  recheck?: boolean;
   /** Terminal width for the table (default no limit). */
   columns?: number;
 }
@@ -110,6 +112,7 @@ export async function proveCommand(
     ...(workers !== undefined ? { workers } : {}),
     overrides,
     manifestCommand: proveCommandLine(mapArg, o),
+    ...(o.recheck ? { recheck: true } : {}),
   });
   bar.finish();
   const exitCode = proveExitCode(report);
@@ -133,9 +136,24 @@ export function proveCommandLine(mapArg: string, o: ProveCommandOptions): string
   return parts.map((p) => (/^[\w.,=/:+-]+$/.test(p) ? p : JSON.stringify(p))).join(' ');
 }
 
-/** 0 when every attempted orbit was proven (and re-verified when checked), else 1. */
+/**
+ * 0 when every attempted orbit was proven (and re-verified when checked), else 1; also 1 when the
+ * user asked for every candidate (--all) and some were left untried.
+ */
 export function proveExitCode(r: CertifyReport): ExitCode {
+  if (r.limit === null && r.unattempted > 0) return EXIT_NOT_PROVEN;
   return r.allProven ? EXIT_OK : EXIT_NOT_PROVEN;
+}
+
+/**
+ * The summary's part on candidates left untried by a limit: how many, or that the search stopped
+ * at the limit (then more may exist, number unknown); '' when nothing was left.
+ */
+export function untriedText(r: CertifyReport): string {
+  const why = r.limitFrom === 'near' ? '--near' : r.limitFrom === 'default' ? `default limit ${DEFAULT_PROVE_LIMIT}` : `--limit ${r.limit}`;
+  if (r.unattempted > 0) return `${r.unattempted} candidate${r.unattempted === 1 ? '' : 's'} left untried (${why})`;
+  if (r.searchStopped && r.source === 'search' && r.limitFrom !== 'near') return `search stopped at ${why}: more candidates may exist, untried`;
+  return '';
 }
 
 /** The `--json` document of a prove run. */
@@ -150,15 +168,20 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
     searchStopped: r.searchStopped,
     limit: r.limit,
     unattempted: r.unattempted,
+    // candidates left untried: a number, or null when the search stopped at the limit (unknown)
+    untried: r.unattempted > 0 || !(r.searchStopped && r.source === 'search' && r.limitFrom !== 'near') ? r.unattempted : null,
     searchScope: SEARCH_SCOPE,
     duplicatesMerged: r.merged.length,
     merged: r.merged,
     checked: r.checked,
     outDir: r.outDir,
+    toAttempt: r.toAttempt,
+    resumed: r.resumed,
     orbits: r.outcomes.map((o) => ({
       index: o.index,
       status: o.status,
       label: statusLabel(o.status),
+      ...(o.resumed !== undefined ? { resumed: o.resumed } : {}),
       ...(o.reason !== undefined ? { reason: o.reason } : {}),
       candidatePoints: o.candidate.points,
       ...(o.orbit
@@ -178,7 +201,9 @@ export function proveJson(r: CertifyReport, def?: MapDefinition, overrides: Reco
       ...(o.certificatePath ? { certificate: o.certificatePath } : {}),
       ...(o.check
         ? { check: { verdict: o.check.verdict, reason: o.check.reason, claimsVerified: o.check.claimsVerified } }
-        : {}),
+        : o.resumed === 'recorded-verdict'
+          ? { check: { verdict: 'VERIFIED', recorded: true, claimsVerified: o.recordedClaims ?? [] } }
+          : {}),
     })),
     exitCode: proveExitCode(r),
   };
@@ -276,6 +301,8 @@ export function renderProve(r: CertifyReport, header: string, cwd: string, width
   for (const o of r.outcomes) {
     if (o.check && o.status === 'verified') {
       out.push(`#${o.index}: the independent checker re-verified: ${o.check.claimsVerified.join(', ')}`);
+    } else if (o.resumed === 'recorded-verdict' && o.status === 'verified') {
+      out.push(`#${o.index}: the independent checker re-verified, in an earlier run (file unchanged since): ${(o.recordedClaims ?? []).join(', ')}`);
     } else if (o.orbit && o.orbit.assumed && o.status !== 'verified') {
       out.push(`#${o.index}: note: the fast engine's enclosures rest on the accuracy of built-in elementary functions`);
     }
@@ -371,6 +398,20 @@ export function summaryLine(r: CertifyReport): string {
   const notMinimal = r.outcomes.filter((o) => o.orbit !== undefined && o.orbit.minimalPeriod !== r.period).length;
   if (notMinimal > 0) parts.push(`${notMinimal} without a proof of minimal period ${r.period}`);
   if (r.merged.length > 0) parts.push(`${r.merged.length} duplicate${r.merged.length === 1 ? '' : 's'} merged`);
-  return `summary: ${parts.join('; ')}.` + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
+  const untried = untriedText(r);
+  if (untried !== '') parts.push(untried);
+  const summary = `summary: ${parts.join('; ')}.`;
+  const resumed = r.resumed > 0 ? `\n${resumedLine(r)}` : '';
+  return summary + resumed + (r.outcomes.some((o) => o.certificatePath) ? `\ncertificates in ${r.outDir}` : '');
 }
 
+
+/** "resumed: k of N already finished …" and how their verdict was established. */
+export function resumedLine(r: CertifyReport): string {
+  const recorded = r.outcomes.filter((o) => o.resumed === 'recorded-verdict').length;
+  const how =
+    recorded > 0
+      ? ` (not proven again; ${recorded} re-verified in that run, verdict recorded for the unchanged file: --recheck checks again)`
+      : ' (not proven again)';
+  return wrap(`resumed: ${r.resumed} of ${r.toAttempt} already finished by an earlier run of this command${how}`, 78, 6);
+}

@@ -9,6 +9,8 @@ import { DEFAULT_OUT_DIR } from '../options.js';
 import { UsageError } from '../errors.js';
 import { Decimal } from 'decimal.js';
 import { isDecimalLiteral } from '../../interval/decimal-literal.js';
+import { certificateOutcome, jsonResult, paramsJson } from '../json.js';
+import type { MapDefinition, ParamValue } from '../../model/types.js';
 
 export interface WindowCommandOptions {
   period: string;
@@ -51,8 +53,26 @@ export async function windowCommand(mapArg: string, o: WindowCommandOptions, cwd
   });
   if (shown) progressSink?.('\r\x1b[K');
   const exitCode = report.status === 'proven' ? EXIT_OK : EXIT_NOT_PROVEN;
-  if (o.json) return { stdout: JSON.stringify({ ...report, exitCode }, null, 2) + '\n', stderr: '', exitCode };
+  if (o.json) return jsonResult('window-report', windowJson(report, def, overrides), exitCode);
   return { stdout: renderWindow(report, cwd) + '\n', stderr: '', exitCode };
+}
+
+/**
+ * The `--json` body of a window run: the report, its map with state and the exact parameters
+ * (the range one as "[lo, hi]"), and `items`: the proven pieces and the undecided gaps in
+ * parameter order, each with its outcome.
+ */
+export function windowJson(r: WindowReport, def: MapDefinition, overrides: Record<string, ParamValue>): Record<string, unknown> {
+  const proven = certificateOutcome(r.certificate.check);
+  const items = [
+    ...r.pieces.map((p) => ({ param: p.param, outcome: proven, stability: p.stability, ...(p.multiplier ? { multiplier: p.multiplier } : {}) })),
+    ...r.gaps.map((g) => ({ param: g.param, outcome: 'undecided', reason: g.reason })),
+  ].sort((a, b) => new Decimal(a.param[0]).cmp(new Decimal(b.param[0])));
+  return {
+    ...r,
+    map: { ...r.map, state: [...def.state], params: paramsJson({ ...def.params, ...overrides }) },
+    items,
+  };
 }
 
 export function certificateLine(c: CertificateOutcome, cwd: string): string {
