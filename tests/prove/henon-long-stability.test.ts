@@ -8,6 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { intervalArithmetic } from '../../src/interval/interval-arith.js';
 import { orbitStability } from '../../src/prove/stability.js';
+import { exactDecimalOfDouble } from '../../src/interval/mp-convert.js';
 import { getCatalogueMap } from '../../src/model/catalogue.js';
 import { compileMap } from '../../src/model/compile.js';
 import { proveOrbit } from '../../src/prove/orbit.js';
@@ -76,7 +77,9 @@ describe('orbitStability n = 2, scaled (float64) path: containment vs decimal.js
           const blocks = bs.flatMap((b) => b.map((x) => a.fromNumber(x)));
           const st = orbitStability(a, blocks, bs.length, 2);
           let m = [new DX(1), new DX(0), new DX(0), new DX(1)];
-          for (const [p, q, r, s] of bs) {
+          // the reference multiplies the EXACT values of the doubles (a subnormal such as 2.5e-323 is
+          // really 5·2^-1074 = 2.4703…e-323; its shortest decimal string is not its value)
+          for (const [p, q, r, s] of bs.map((b) => b.map((x) => exactDecimalOfDouble(x)))) {
             m = [
               m[0]!.mul(p).add(m[2]!.mul(q)), m[1]!.mul(p).add(m[3]!.mul(q)),
               m[0]!.mul(r).add(m[2]!.mul(s)), m[1]!.mul(r).add(m[3]!.mul(s)),
