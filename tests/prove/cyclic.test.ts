@@ -8,6 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { cyclicMagnitudeBound, cyclicSolveFloat } from '../../src/prove/cyclic.js';
 import { divUp, mulUp } from '../../src/interval/round.js';
+import { exactDecimalOfDouble } from '../../src/interval/mp-convert.js';
 import { getCatalogueMap } from '../../src/model/catalogue.js';
 import { compileMap } from '../../src/model/compile.js';
 import { proveOrbit } from '../../src/prove/orbit.js';
@@ -23,15 +24,18 @@ function solveCyclic(a: number[], r: number[]): Decimal[] {
   // δ_0 = (Σ_j (Π_{k>j} a_k) r_j) / (1 − Π a_k), then forward
   let acc = new D80(0);
   let prod = new D80(1);
+  // the EXACT values of the doubles (a double's shortest string is not its value)
+  const A = a.map((x) => new D80(exactDecimalOfDouble(x)));
+  const R = r.map((x) => new D80(exactDecimalOfDouble(x)));
   for (let j = 0; j < p; j++) {
-    acc = acc.mul(a[j]!).add(r[j]!);
-    prod = prod.mul(a[j]!);
+    acc = acc.mul(A[j]!).add(R[j]!);
+    prod = prod.mul(A[j]!);
   }
   let d = acc.div(new D80(1).sub(prod));
   const out: Decimal[] = [];
   for (let i = 0; i < p; i++) {
     out.push(d);
-    d = d.mul(a[i]!).add(r[i]!);
+    d = d.mul(A[i]!).add(R[i]!);
   }
   return out;
 }
@@ -60,7 +64,7 @@ describe('cyclicMagnitudeBound: |δ_i| ≤ u_i for every r with |r_i| ≤ g_i (c
           const u = new Float64Array(a.length);
           expect(cyclicMagnitudeBound(pl, g, u)).toBe(true);
           const delta = solveCyclic(a, r);
-          delta.forEach((d, i) => expect(d.abs().lte(u[i]!)).toBe(true));
+          delta.forEach((d, i) => expect(d.abs().lte(exactDecimalOfDouble(u[i]!))).toBe(true));
         },
       ),
       { numRuns: 300 },
