@@ -390,7 +390,7 @@ export async function certifyOrbits(
     const entry = previous?.get(i + 1);
     if (entry === undefined || entry.candidate !== candidateHashes[i]) return null;
     if (entry.status === 'not-proven') return { entry, cert: null };
-    const wantStatus = checkOn && def.flow?.section === undefined ? 'verified' : 'prover-only';
+    const wantStatus = checkOn ? 'verified' : 'prover-only';
     if (entry.status !== wantStatus) return null;
     if (wantStatus === 'verified' && !opts.recheck && entry.check?.verdict !== 'VERIFIED') return null;
     const cert = rereadCertificate(entry, opts.outDir, certMap, opts.period);
